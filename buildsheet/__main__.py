@@ -1,0 +1,5 @@
+"""`python -m buildsheet` runs the command line."""
+
+from buildsheet.cli import entry
+
+entry()

@@ -1,0 +1,141 @@
+"""Safe YAML reading with line numbers: owns turning design-file text into plain values plus a map of
+key paths to line numbers. It knows nothing of the design schema.
+
+Only PyYAML's safe loader is used, and only to compose the node tree; the tree is then walked here so
+that alias expansion is counted (a document may not expand to more than MAX_NODES values), nesting is
+bounded (MAX_DEPTH) and any tag outside YAML's core schema (for example a Python object tag) is refused
+instead of constructed.
+"""
+
+from __future__ import annotations
+
+import math
+from dataclasses import dataclass
+
+import yaml
+
+from buildsheet.errors import DesignError
+
+MAX_BYTES = 1024 * 1024
+MAX_NODES = 20_000
+MAX_DEPTH = 32
+
+_CORE_TAGS = {
+    "tag:yaml.org,2002:str", "tag:yaml.org,2002:int", "tag:yaml.org,2002:float",
+    "tag:yaml.org,2002:bool", "tag:yaml.org,2002:null", "tag:yaml.org,2002:seq",
+    "tag:yaml.org,2002:map", "tag:yaml.org,2002:timestamp",
+}
+
+
+@dataclass(frozen=True)
+class Document:
+    """A read YAML document: `data` as plain dict/list/str/int/float/bool/None values, and `lines`,
+    mapping each key path (tuple of str keys and int indices) to the 1-based line of its value."""
+
+    data: object
+    lines: dict
+    text: str
+
+    def line_of(self, path: tuple) -> int | None:
+        """The line of `path`, or of its nearest ancestor that has one."""
+        path = tuple(path)
+        while path:
+            if path in self.lines:
+                return self.lines[path]
+            path = path[:-1]
+        return self.lines.get((), None)
+
+
+def read_text(path: str) -> str:
+    """Read a design file as UTF-8 text, refusing files that are too large or not text."""
+    try:
+        with open(path, "rb") as fh:
+            raw = fh.read(MAX_BYTES + 1)
+    except FileNotFoundError:
+        raise DesignError("no such file", file=path) from None
+    except IsADirectoryError:
+        raise DesignError("is a directory, not a design file", file=path) from None
+    except OSError as exc:
+        raise DesignError(f"cannot be read ({exc.strerror})", file=path) from None
+    if len(raw) > MAX_BYTES:
+        raise DesignError(f"is larger than {MAX_BYTES // 1024} KiB; a design file is a few lines of YAML",
+                          file=path)
+    if b"\x00" in raw:
+        raise DesignError("is a binary file, not a YAML design file", file=path)
+    try:
+        return raw.decode("utf-8-sig")
+    except UnicodeDecodeError as exc:
+        raise DesignError(f"is not UTF-8 text (byte {exc.start})", file=path) from None
+
+
+def parse(text: str, file: str | None = None) -> Document:
+    """Parse YAML text into a Document; every failure is a DesignError naming file and line."""
+    loader = yaml.SafeLoader(text)
+    try:
+        node = loader.get_single_node()
+    except yaml.MarkedYAMLError as exc:
+        mark = exc.problem_mark or exc.context_mark
+        line = mark.line + 1 if mark is not None else None
+        problem = exc.problem or exc.context or "malformed YAML"
+        raise DesignError(f"is not valid YAML: {problem}", file=file, line=line) from None
+    except yaml.YAMLError as exc:
+        raise DesignError(f"is not valid YAML: {exc}", file=file) from None
+    finally:
+        loader.dispose()
+    if node is None:
+        raise DesignError("is empty; a design file starts with `buildsheet: 1`", file=file, line=1)
+    walker = _Walker(loader, file)
+    data = walker.value(node, (), 0)
+    return Document(data=data, lines=walker.lines, text=text)
+
+
+class _Walker:
+    def __init__(self, loader: yaml.SafeLoader, file: str | None):
+        self.loader = loader
+        self.file = file
+        self.lines: dict = {}
+        self.count = 0
+
+    def _fail(self, problem: str, node: yaml.Node, path: tuple) -> DesignError:
+        key = ".".join(str(p) for p in path) or None
+        return DesignError(problem, file=self.file, line=node.start_mark.line + 1, key=key)
+
+    def value(self, node: yaml.Node, path: tuple, depth: int):
+        self.count += 1
+        if self.count > MAX_NODES:
+            raise self._fail(f"expands to more than {MAX_NODES} values (an alias bomb?); refused",
+                             node, path)
+        if depth > MAX_DEPTH:
+            raise self._fail(f"is nested more than {MAX_DEPTH} levels deep; refused", node, path)
+        if node.tag not in _CORE_TAGS:
+            raise self._fail(f"uses the YAML tag '{node.tag}', which design files may not use", node, path)
+        self.lines.setdefault(path, node.start_mark.line + 1)
+        if isinstance(node, yaml.MappingNode):
+            out: dict = {}
+            for key_node, value_node in node.value:
+                if not isinstance(key_node, yaml.ScalarNode) or key_node.tag not in _CORE_TAGS:
+                    raise self._fail("has a key that is not a plain name", key_node, path)
+                if key_node.tag == "tag:yaml.org,2002:str" and key_node.value == "<<":
+                    raise self._fail("uses a YAML merge key '<<', which design files may not use",
+                                     key_node, path)
+                key = str(key_node.value)
+                if key in out:
+                    raise self._fail(f"has the key '{key}' twice", key_node, path + (key,))
+                self.lines[path + (key,)] = key_node.start_mark.line + 1
+                out[key] = self.value(value_node, path + (key,), depth + 1)
+            return out
+        if isinstance(node, yaml.SequenceNode):
+            items = []
+            for i, item in enumerate(node.value):
+                items.append(self.value(item, path + (i,), depth + 1))
+            return items
+        try:
+            scalar = self.loader.construct_object(node, deep=True)
+        except yaml.YAMLError as exc:
+            raise self._fail(f"has a value YAML cannot read: {exc}", node, path) from None
+        if isinstance(scalar, float) and not math.isfinite(scalar):
+            raise self._fail(f"is '{node.value}', which is not a finite number", node, path)
+        if not isinstance(scalar, (str, int, float, bool)) and scalar is not None:
+            # dates and timestamps: keep the text the user wrote
+            scalar = str(node.value)
+        return scalar
