@@ -35,7 +35,52 @@ def _parser() -> argparse.ArgumentParser:
     p = sub.add_parser("check", help="validate design files")
     p.add_argument("designs", nargs="+", metavar="DESIGN")
     p.set_defaults(run=_check)
+
+    p = sub.add_parser("solve", help="solve a design: dimensions, cut list, SWR, voltages, exposure")
+    p.add_argument("design", metavar="DESIGN")
+    p.add_argument("--json", action="store_true", help="print the whole solution as one JSON object (SI)")
+    _output_options(p)
+    p.set_defaults(run=_solve)
     return parser
+
+
+def _output_options(p: argparse.ArgumentParser, *, paper: bool = False) -> None:
+    p.add_argument("--units", choices=("imperial", "metric"), help="override the design's output.units")
+    if paper:
+        p.add_argument("--paper", choices=("letter", "a4"), help="override the design's output.paper")
+    p.add_argument("--date", metavar="YYYY-MM-DD", help="revision date printed on the output")
+
+
+def _load(args):
+    """Load args.design with the command-line overrides of output options applied."""
+    import dataclasses
+
+    from buildsheet.design import load_design
+
+    design = load_design(args.design)
+    changes = {}
+    if getattr(args, "units", None):
+        changes["units"] = args.units
+    if getattr(args, "paper", None):
+        changes["paper"] = args.paper
+    if changes:
+        design = design.with_changes(output=dataclasses.replace(design.output, **changes))
+    return design
+
+
+def _solve(args) -> int:
+    import json
+
+    from buildsheet.solve import solve
+    from buildsheet.summary import summary_text
+
+    design = _load(args)
+    solution = solve(design)
+    if args.json:
+        print(json.dumps(solution.to_dict(), indent=1, allow_nan=False))
+    else:
+        print(summary_text(design, solution), end="")
+    return 0
 
 
 def _check(args) -> int:

@@ -210,6 +210,7 @@ class Design:
         data = dataclasses.asdict(self)
         for key in ("title", "output", "record", "path"):
             data.pop(key)
+        data["stub"].pop("source")  # where the catalogue's numbers come from is not the antenna
         if self.calibration.is_empty:
             data["calibration"] = {}
         else:

@@ -1,0 +1,189 @@
+"""Thin-wire antenna formulas for the radiator (induced EMF, average characteristic impedance, images);
+owns wire-antenna physics only: no I/O, no design keys, nothing about the stub or the match (jpole.py).
+
+Symbols (SI throughout; functions broadcast over numpy arrays of f):
+
+    f        frequency, Hz;  lam = c/f free-space wavelength, m;  k = 2 pi/lam, rad/m
+    eta0     free-space wave impedance, ohm (eta0/(4 pi) = 29.98 ohm)
+    l        total length of a straight wire (dipole), m;  h = l/2 half-length, m
+    a, d     wire radius and diameter, m
+    kl, ka   electrical length and electrical radius, rad
+    R_r      radiation resistance referred to the current maximum (loop), ohm
+    z_in     input impedance of a centre-fed dipole, referred to the feed current, ohm
+    K        resonant length of a centre-fed dipole over lam/2 (X_in = 0)
+    z0_avg   Schelkunoff's average characteristic impedance of one arm, ohm
+    z12      mutual impedance of two wires with sinusoidal currents, referred to their loop currents
+    rho_g    plane-wave reflection coefficient of the ground at normal incidence
+    eps_c    complex relative permittivity of the ground, eps_r - j sigma/(omega eps0)
+"""
+
+from __future__ import annotations
+
+import numpy as np
+from scipy.constants import c as C0
+from scipy.constants import epsilon_0, mu_0
+from scipy.special import sici
+
+ETA0 = float(np.sqrt(mu_0 / epsilon_0))
+_ETA_4PI = ETA0 / (4.0 * np.pi)
+
+# Gauss-Legendre nodes for the induced-EMF integral along the second wire; 96 points integrate the
+# near field of an image 0.05 lam away to better than 1e-4 ohm.
+_GL_X, _GL_W = np.polynomial.legendre.leggauss(96)
+
+
+def _ci(x):
+    return sici(x)[1]
+
+
+def _si(x):
+    return sici(x)[0]
+
+
+def _cin(x):
+    """Cin(x) = gamma_E + ln x - Ci(x) (Balanis, Antenna Theory, 4th ed., App. III)."""
+    return np.euler_gamma + np.log(x) - _ci(x)
+
+
+def loop_radiation_resistance(kl):
+    """Radiation resistance of a thin centre-fed dipole of electrical length kl, referred to the
+    current maximum, ohm (induced EMF, Carter 1932; Balanis eq. 4-70):
+
+        R_r = (eta/2 pi) {C + ln kl - Ci(kl) + 1/2 sin kl [Si(2kl) - 2 Si(kl)]
+                          + 1/2 cos kl [C + ln(kl/2) + Ci(2kl) - 2 Ci(kl)]}
+
+    kl: k times the total length, rad. Gives 73.08 ohm at kl = pi (73.13 with eta = 120 pi).
+    """
+    kl = np.asarray(kl, dtype=float)
+    g = np.euler_gamma
+    return 2.0 * _ETA_4PI * (g + np.log(kl) - _ci(kl)
+                             + 0.5 * np.sin(kl) * (_si(2 * kl) - 2 * _si(kl))
+                             + 0.5 * np.cos(kl) * (g + np.log(kl / 2) + _ci(2 * kl) - 2 * _ci(kl)))
+
+
+def loop_reactance(kl, ka):
+    """Reactance of a thin centre-fed dipole referred to the current maximum, ohm (induced EMF with
+    the finite radius, Carter 1932; Balanis eq. 4-71):
+
+        X_m = (eta/4 pi) {2 Si(kl) + cos kl [2 Si(kl) - Si(2kl)]
+                          - sin kl [2 Ci(kl) - Ci(2kl) - Ci(2 (ka)^2/kl)]}
+
+    kl: electrical total length, rad; ka: electrical radius, rad. X_m = 42.52 ohm at kl = pi.
+    The input reactance is X_m / sin^2(kl/2).
+    """
+    kl = np.asarray(kl, dtype=float)
+    ka = np.asarray(ka, dtype=float)
+    return _ETA_4PI * (2 * _si(kl) + np.cos(kl) * (2 * _si(kl) - _si(2 * kl))
+                       - np.sin(kl) * (2 * _ci(kl) - _ci(2 * kl) - _ci(2 * ka**2 / kl)))
+
+
+def dipole_input_impedance(kl, ka):
+    """Input impedance of a thin centre-fed dipole, ohm: (R_r + j X_m)/sin^2(kl/2) (Carter 1932;
+    Balanis eqs. 4-70, 4-71). kl: electrical total length, ka: electrical radius (rad)."""
+    s2 = np.sin(np.asarray(kl, dtype=float) / 2.0) ** 2
+    return (loop_radiation_resistance(kl) + 1j * loop_reactance(kl, ka)) / s2
+
+
+def resonance_factor(ka):
+    """K = (resonant length of a centre-fed dipole)/(lam/2): the root of the induced-EMF input
+    reactance (Carter 1932; Balanis eq. 4-71) near kl = pi, by Newton steps (vectorised).
+
+    ka: electrical radius k a, rad (ka << 1). Gives K = 0.9728 for (lam/2)/d = 6485, against 0.9712
+    from NEC-2 (CHECK_VALUES §3d): the induced-EMF end effect from the length-to-diameter ratio.
+    """
+    ka = np.asarray(ka, dtype=float)
+    kl = np.full_like(ka, 0.97 * np.pi)
+    h = 1e-6
+    for _ in range(8):
+        x = loop_reactance(kl, ka)
+        dx = (loop_reactance(kl + h, ka) - x) / h
+        kl = kl - x / dx
+    return kl / np.pi
+
+
+def loop_reactance_slope(kl, ka):
+    """d X_m / d(kl) of the centre-fed dipole (ohm per radian of electrical length), by central
+    difference of loop_reactance; used to turn a reactance added at the current maximum into the
+    equivalent change of resonant length."""
+    h = 1e-5
+    return (loop_reactance(kl + h, ka) - loop_reactance(kl - h, ka)) / (2 * h)
+
+
+def side_by_side_mutual(d_over_lam, l_over_lam=0.5):
+    """Mutual impedance of two parallel side-by-side dipoles of length l at spacing d, referred to
+    their loop currents, ohm (Carter 1932; Balanis eqs. 8-68, 8-69 for l = lam/2 generalised):
+
+        R12 = (eta/4 pi) [2 Ci(u0) - Ci(u1) - Ci(u2)],  X12 = -(eta/4 pi) [2 Si(u0) - Si(u1) - Si(u2)]
+        u0 = kd, u1 = k(sqrt(d^2 + l^2) + l), u2 = k(sqrt(d^2 + l^2) - l)
+
+    d_over_lam, l_over_lam: spacing and length in wavelengths. Exact for l = lam/2 only.
+    """
+    k = 2 * np.pi
+    d = np.asarray(d_over_lam, dtype=float)
+    u0 = k * d
+    u1 = k * (np.hypot(d, l_over_lam) + l_over_lam)
+    u2 = k * (np.hypot(d, l_over_lam) - l_over_lam)
+    return _ETA_4PI * ((2 * _ci(u0) - _ci(u1) - _ci(u2)) - 1j * (2 * _si(u0) - _si(u1) - _si(u2)))
+
+
+def mutual_impedance(c1, t1, h1, c2, t2, h2, k):
+    """Mutual impedance of two straight thin wires carrying sinusoidal currents I_m sin k(h - |u|),
+    referred to the two loop currents I_m, ohm (induced-EMF method, Carter 1932):
+
+        z12 = -1/(I_m1 I_m2) * integral over wire 2 of E_1 . t2 I_2(u) du
+
+    with the exact near field of a sinusoidal-current filament (Schelkunoff; Jordan & Balmain,
+    "Electromagnetic Waves and Radiating Systems", near fields of a linear antenna):
+
+        E_z   = -j (eta/4 pi) I_m [e^{-jkR1}/R1 + e^{-jkR2}/R2 - 2 cos(kh) e^{-jkr}/r]
+        E_rho =  j (eta/4 pi) I_m / rho [(z - h) e^{-jkR1}/R1 + (z + h) e^{-jkR2}/R2
+                                         - 2 z cos(kh) e^{-jkr}/r]
+
+    c1, c2: centres (3-vectors, m); t1, t2: unit vectors along the wires; h1, h2: half-lengths, m;
+    k: wavenumber(s), rad/m, any shape (the result has that shape). Reproduces side_by_side_mutual
+    for parallel half-waves; valid while wire 2 keeps clear of wire 1 (no self term).
+    """
+    k = np.asarray(k, dtype=float)[..., None]
+    c1, t1, c2, t2 = (np.asarray(v, dtype=float) for v in (c1, t1, c2, t2))
+    u = h2 * _GL_X
+    pts = c2[None, :] + u[:, None] * t2[None, :]
+    rel = pts - c1[None, :]
+    z = rel @ t1
+    rho_vec = rel - z[:, None] * t1[None, :]
+    rho = np.maximum(np.linalg.norm(rho_vec, axis=1), 1e-12)
+    rho_hat = rho_vec / rho[:, None]
+    r1 = np.hypot(rho, z - h1)
+    r2 = np.hypot(rho, z + h1)
+    r0 = np.hypot(rho, z)
+    e1, e2, e0 = (np.exp(-1j * k * r) / r for r in (r1, r2, r0))
+    ckh = np.cos(k * h1)
+    e_z = -1j * _ETA_4PI * (e1 + e2 - 2 * ckh * e0)
+    e_rho = 1j * _ETA_4PI / rho * ((z - h1) * e1 + (z + h1) * e2 - 2 * z * ckh * e0)
+    e_t2 = e_z * (t1 @ t2) + e_rho * (rho_hat @ t2)
+    i2 = np.sin(k * (h2 - np.abs(u)))
+    return -np.sum(e_t2 * i2 * _GL_W, axis=-1) * h2
+
+
+def ground_reflection(f, eps_r, sigma):
+    """Plane-wave reflection coefficient of a flat lossy ground at normal incidence, for the image
+    of a wire above it: rho_g = (n - 1)/(n + 1), n = sqrt(eps_c), eps_c = eps_r - j sigma/(omega eps0)
+    (Fresnel; the image of perfect ground has rho_g = 1). f: Hz; eps_r: relative permittivity;
+    sigma: conductivity, S/m. The image current is -rho_g times the mirrored current."""
+    omega = 2 * np.pi * np.asarray(f, dtype=float)
+    n = np.sqrt(eps_r - 1j * sigma / (omega * epsilon_0))
+    return (n - 1) / (n + 1)
+
+
+def schelkunoff_z0(length, radius):
+    """Average characteristic impedance of one arm of a thin wire antenna, ohm (Schelkunoff 1941;
+    Jordan & Balmain: dipole z0_avg = 120 [ln(2h/a) - 1], one arm against the other half that):
+
+        z0_avg = 60 [ln(2 l/a) - 1]
+
+    length: arm length l, m; radius: a, m."""
+    return 60.0 * (np.log(2.0 * np.asarray(length, dtype=float) / radius) - 1.0)
+
+
+def wavenumber(f):
+    """k = 2 pi f / c, rad/m; f in Hz."""
+    return 2 * np.pi * np.asarray(f, dtype=float) / C0

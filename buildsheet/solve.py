@@ -1,0 +1,382 @@
+"""Design -> Solution: owns turning a validated Design into numbers (dimensions, cut list, sweep,
+voltages, sensitivities, choke, exposure). It calls physics/ and decides nothing about presentation:
+no rounding, no units other than SI, no text beyond the cut-list and hardware notes.
+"""
+
+from __future__ import annotations
+
+import math
+from dataclasses import dataclass
+
+import numpy as np
+
+from buildsheet.design import Design
+from buildsheet.errors import DesignError
+from buildsheet.physics import choke as choke_physics
+from buildsheet.physics import exposure as exposure_physics
+from buildsheet.physics import jpole
+from buildsheet.physics.coax import total_loss_db
+from buildsheet.physics.lines import DB_PER_NEPER, Line, input_impedance, reflection, swr
+
+FT = 0.3048
+SWEEP_POINTS = 241
+SWEEP_MARGIN = 0.02
+#: gain of a half-wave radiator, dBi: the usual figure for exposure screening of a half-wave antenna
+#: (OET Bulletin 65 Supplement B uses it for dipoles; the ground reflection is the separate 2.56 factor)
+HALF_WAVE_GAIN_DBI = 2.15
+#: a conductor this thick or thicker is pipe or rod (rigid), thinner is wire
+RIGID_DIAMETER_M = 4e-3
+
+
+@dataclass(frozen=True)
+class Dimensions:
+    """The four key dimensions of DESIGN.md §5, m."""
+    radiator: float
+    stub: float
+    tap: float
+    spacing: float
+
+
+@dataclass(frozen=True)
+class CutItem:
+    """One piece to cut: length_m includes allowance_m (wraps, cutting, pigtail)."""
+    part: str
+    material: str
+    length_m: float
+    quantity: int
+    allowance_m: float
+    note: str
+
+
+@dataclass(frozen=True)
+class HardwareItem:
+    item: str
+    quantity: int
+    note: str
+
+
+@dataclass(frozen=True)
+class Sweep:
+    """Arrays over the band +/- 2 %: frequency (Hz), SWR at the feed (on the feed impedance) and at
+    the transmitter (through the coax, on the coax's impedance), and the feed impedance R + jX."""
+    frequency_hz: np.ndarray
+    swr: np.ndarray
+    swr_transmitter: np.ndarray
+    r_ohm: np.ndarray
+    x_ohm: np.ndarray
+
+
+@dataclass(frozen=True)
+class Exposure:
+    standard: str
+    average_power_w: float
+    gain_dbi: float
+    eirp_w: float
+    distance_controlled_m: float
+    distance_general_m: float
+    limit_controlled_w_m2: float
+    limit_general_w_m2: float
+    near_field_m: float
+
+
+@dataclass(frozen=True)
+class StubLineData:
+    """The stub line as the model sees it at the design frequency."""
+    z0_ohm: float
+    velocity_factor: float
+    loss_db_per_100ft: float
+
+
+@dataclass(frozen=True)
+class Solution:
+    name: str
+    design_id: str
+    frequency_hz: float
+    band_hz: tuple
+    dimensions: Dimensions
+    radiator_cut_m: float
+    wrap_allowance_m: float
+    stub_line: StubLineData
+    cut_list: tuple
+    hardware: tuple
+    feed_impedance: complex
+    feed_swr: float
+    feed_swr_transmitter: float
+    sweep: Sweep
+    band_swr2_hz: tuple | None
+    band_swr15_hz: tuple | None
+    power_at_tap_w: float
+    coax_loss_db: float
+    voltage_open_end_v_rms: float
+    voltage_far_end_v_rms: float
+    current_short_a_rms: float
+    efficiency: float
+    power_radiated_w: float
+    power_lost_w: dict
+    sensitivity: dict
+    choke: choke_physics.ChokeDesign
+    exposure: Exposure
+
+    @property
+    def voltage_open_end_v_peak(self) -> float:
+        return math.sqrt(2.0) * self.voltage_open_end_v_rms
+
+    @property
+    def voltage_far_end_v_peak(self) -> float:
+        return math.sqrt(2.0) * self.voltage_far_end_v_rms
+
+    def to_dict(self) -> dict:
+        """The JSON of DESIGN.md §6: SI units, fractions not percentages."""
+        s = self.sweep
+        c = self.choke
+        e = self.exposure
+        return {
+            "name": self.name,
+            "design_id": self.design_id,
+            "frequency_hz": self.frequency_hz,
+            "band_hz": list(self.band_hz),
+            "dimensions_m": {"radiator": self.dimensions.radiator, "stub": self.dimensions.stub,
+                             "tap": self.dimensions.tap, "spacing": self.dimensions.spacing},
+            "radiator_cut_m": self.radiator_cut_m,
+            "stub_line": {"z0_ohm": self.stub_line.z0_ohm, "velocity_factor": self.stub_line.velocity_factor,
+                          "loss_db_per_100ft": self.stub_line.loss_db_per_100ft},
+            "cut_list": [{"part": i.part, "material": i.material, "length_m": i.length_m,
+                          "quantity": i.quantity, "allowance_m": i.allowance_m, "note": i.note}
+                         for i in self.cut_list],
+            "hardware": [{"item": h.item, "quantity": h.quantity, "note": h.note} for h in self.hardware],
+            "feed": {"impedance_ohm": [self.feed_impedance.real, self.feed_impedance.imag],
+                     "swr": self.feed_swr, "swr_transmitter": self.feed_swr_transmitter},
+            "sweep": {"frequency_hz": s.frequency_hz.tolist(), "swr": s.swr.tolist(),
+                      "swr_transmitter": s.swr_transmitter.tolist(), "r_ohm": s.r_ohm.tolist(),
+                      "x_ohm": s.x_ohm.tolist()},
+            "band_swr2_hz": list(self.band_swr2_hz) if self.band_swr2_hz else None,
+            "band_swr15_hz": list(self.band_swr15_hz) if self.band_swr15_hz else None,
+            "power_at_tap_w": self.power_at_tap_w,
+            "coax_loss_db": self.coax_loss_db,
+            "voltage_open_end_v_rms": self.voltage_open_end_v_rms,
+            "voltage_open_end_v_peak": self.voltage_open_end_v_peak,
+            "voltage_far_end_v_rms": self.voltage_far_end_v_rms,
+            "voltage_far_end_v_peak": self.voltage_far_end_v_peak,
+            "current_short_a_rms": self.current_short_a_rms,
+            "efficiency": self.efficiency,
+            "power_radiated_w": self.power_radiated_w,
+            "power_lost_w": dict(self.power_lost_w),
+            "sensitivity": dict(self.sensitivity),
+            "choke": {"turns": c.turns, "form_diameter_m": c.form_diameter_m,
+                      "coil_length_m": c.coil_length_m, "inductance_h": c.inductance_h,
+                      "self_resonance_hz": c.self_resonance_hz, "impedance_ohm": c.impedance_ohm,
+                      "warning": c.warning},
+            "exposure": {"standard": e.standard, "average_power_w": e.average_power_w,
+                         "gain_dbi": e.gain_dbi, "eirp_w": e.eirp_w,
+                         "distance_controlled_m": e.distance_controlled_m,
+                         "distance_general_m": e.distance_general_m,
+                         "limit_controlled_w_m2": e.limit_controlled_w_m2,
+                         "limit_general_w_m2": e.limit_general_w_m2,
+                         "near_field_m": e.near_field_m},
+        }
+
+
+# ----------------------------------------------------------------------------------------------
+
+def stub_line_model(design: Design) -> Line:
+    """The stub's Line: from measured figures (nominal) or from geometry."""
+    s = design.stub
+    scale = design.calibration.stub_velocity_scale
+    if s.kind == "nominal":
+        points = tuple((f, db / (100 * FT)) for f, db in s.loss_db_per_100ft)
+        return Line.nominal(s.z0_ohm, s.velocity_factor * scale, loss_points=points)
+    return Line.two_wire(s.spacing_m, s.conductor_diameter_m, s.conductivity_s_m,
+                         eps_eff=s.eps_r / scale ** 2, tan_delta=s.tan_delta)
+
+
+def coax_line_model(design: Design) -> Line:
+    f = design.feed
+    points = tuple((fr, db / (100 * FT)) for fr, db in f.coax_loss_db_per_100ft)
+    return Line.nominal(f.coax_z0_ohm, f.coax_velocity_factor, loss_points=points)
+
+
+def antenna_model(design: Design) -> jpole.Antenna:
+    site = design.site
+    return jpole.Antenna(
+        stub_line=stub_line_model(design), spacing=design.stub.spacing_m,
+        stub_conductor_d=design.stub.conductor_diameter_m, stub_sigma=design.stub.conductivity_s_m,
+        wire_d=design.radiator.diameter_m, wire_sigma=design.radiator.conductivity_s_m,
+        wire_vf=design.radiator.velocity_factor / design.calibration.radiator_scale,
+        orientation=site.orientation, height=site.height_m, slope=site.slope_rad,
+        ground_kind=site.ground_kind, ground_eps_r=site.permittivity, ground_sigma=site.conductivity_s_m,
+    )
+
+
+def band_edges(f: np.ndarray, swr_values: np.ndarray, f0: float, limit: float) -> tuple | None:
+    """The contiguous range around f0 where SWR <= limit, edges interpolated linearly; None if the
+    SWR at f0 is above the limit. An edge beyond the sweep is reported at the sweep's end."""
+    i0 = int(np.argmin(np.abs(f - f0)))
+    if not swr_values[i0] <= limit:
+        return None
+    lo = i0
+    while lo > 0 and swr_values[lo - 1] <= limit:
+        lo -= 1
+    hi = i0
+    while hi < len(f) - 1 and swr_values[hi + 1] <= limit:
+        hi += 1
+
+    def cross(a: int, b: int) -> float:
+        sa, sb = swr_values[a], swr_values[b]
+        if not np.isfinite(sa) or not np.isfinite(sb) or sa == sb:
+            return float(f[b])
+        t = (limit - sb) / (sa - sb)
+        return float(f[b] + t * (f[a] - f[b]))
+
+    low = float(f[0]) if lo == 0 else cross(lo - 1, lo)
+    high = float(f[-1]) if hi == len(f) - 1 else cross(hi + 1, hi)
+    return (low, high)
+
+
+def solve(design: Design) -> Solution:
+    """Solve a design: dimensions, sweep, voltages, efficiency, sensitivities, choke, exposure."""
+    ant = antenna_model(design)
+    f0 = design.frequency_hz
+    z_feed = design.feed.impedance_ohm
+    try:
+        radiator = jpole.resonant_radiator_length(f0, ant)
+        stub, tap = jpole.solve_match(f0, z_feed, ant, radiator)
+    except ValueError as exc:
+        raise DesignError(f"cannot be matched: {exc}", file=design.path, key="stub.line") from None
+
+    low, high = design.band_hz
+    f = np.linspace(low * (1 - SWEEP_MARGIN), high * (1 + SWEEP_MARGIN), SWEEP_POINTS)
+    f = np.union1d(f, [f0])
+    z = jpole.feed_impedance(f, ant, radiator, stub, tap)
+    swr_feed = swr(z, z_feed)
+    coax = coax_line_model(design)
+    z_tx = input_impedance(coax, f, design.feed.length_m, z)
+    swr_tx = swr(z_tx, design.feed.coax_z0_ohm)
+    i0 = int(np.argmin(np.abs(f - f0)))
+
+    # power reaching the tap: the transmitter's PEP less the coax loss at the design frequency
+    # (matched loss plus the extra loss from the mismatch on the coax, exact for real Z0)
+    matched_db = float(coax.gamma(f0).real * DB_PER_NEPER * design.feed.length_m)
+    rho = float(abs(reflection(z[i0], design.feed.coax_z0_ohm)))
+    loss_db = float(total_loss_db(matched_db, min(rho, 0.999999)))
+    p_tap = design.power.transmitter_w * 10 ** (-loss_db / 10)
+    state = jpole.state_at(f0, ant, radiator, stub, tap, p_tap)
+    sens = jpole.sensitivities(f0, ant, radiator, stub, tap)
+
+    ch = choke_physics.design_coax_choke(f0, high, design.feed.choke_form_m,
+                                         design.feed.coax_outer_diameter_m, f_band_low=low)
+    exposure = _exposure(design, state.efficiency, loss_db)
+    wrap = _wrap_allowance(design)
+    line = ant.stub_line
+    stub_data = StubLineData(z0_ohm=float(np.real(line.z0(f0))),
+                             velocity_factor=float(line.velocity_factor(f0)),
+                             loss_db_per_100ft=float(line.gamma(f0).real * DB_PER_NEPER * 100 * FT))
+    dims = Dimensions(radiator=radiator, stub=stub, tap=tap, spacing=design.stub.spacing_m)
+    cut, hardware = _cut_list(design, dims, wrap, ch)
+    return Solution(
+        name=design.name, design_id=design.document_id, frequency_hz=f0, band_hz=tuple(design.band_hz),
+        dimensions=dims, radiator_cut_m=radiator + 2 * wrap, wrap_allowance_m=wrap, stub_line=stub_data,
+        cut_list=cut, hardware=hardware, feed_impedance=complex(z[i0]), feed_swr=float(swr_feed[i0]),
+        feed_swr_transmitter=float(swr_tx[i0]),
+        sweep=Sweep(frequency_hz=f, swr=swr_feed, swr_transmitter=swr_tx, r_ohm=z.real, x_ohm=z.imag),
+        band_swr2_hz=band_edges(f, swr_feed, f0, 2.0), band_swr15_hz=band_edges(f, swr_feed, f0, 1.5),
+        power_at_tap_w=p_tap, coax_loss_db=loss_db,
+        voltage_open_end_v_rms=state.v_open_end, voltage_far_end_v_rms=state.v_radiator_end,
+        current_short_a_rms=state.i_short, efficiency=state.efficiency,
+        power_radiated_w=state.p_radiated,
+        power_lost_w={"stub_conductors": state.p_stub_conductor, "stub_dielectric": state.p_stub_dielectric,
+                      "radiator_wire": state.p_wire},
+        sensitivity={"hz_per_m_radiator": sens[0], "ohm_per_m_tap": sens[1], "ohm_per_m_short": sens[2]},
+        choke=ch, exposure=exposure,
+    )
+
+
+def _exposure(design: Design, efficiency: float, coax_loss_db: float) -> Exposure:
+    """Screening distances (OET Bulletin 65 far-field formula with the 2.56 ground-reflection factor)
+    at the band edge where the limit is strictest."""
+    p = design.power
+    avg = exposure_physics.average_power(p.transmitter_w, p.duty_factor, p.on_air)
+    gain = 10 ** (HALF_WAVE_GAIN_DBI / 10)
+    eirp = avg * 10 ** (-coax_loss_db / 10) * efficiency * gain
+    low, high = design.band_hz
+    edges = np.array([low, design.frequency_hz, high])
+    if p.exposure_standard == "us-fcc":
+        controlled, general = exposure_physics.fcc_mpe(edges)
+    else:
+        controlled, general = exposure_physics.icnirp2020_reference(edges)
+    controlled = float(np.min(controlled))
+    general = float(np.min(general))
+    return Exposure(
+        standard=p.exposure_standard, average_power_w=avg, gain_dbi=HALF_WAVE_GAIN_DBI, eirp_w=eirp,
+        distance_controlled_m=float(exposure_physics.compliance_distance(eirp, controlled)),
+        distance_general_m=float(exposure_physics.compliance_distance(eirp, general)),
+        limit_controlled_w_m2=controlled, limit_general_w_m2=general,
+        near_field_m=float(exposure_physics.reactive_near_field_limit(design.frequency_hz)),
+    )
+
+
+def _is_rigid(diameter: float) -> bool:
+    return diameter >= RIGID_DIAMETER_M
+
+
+def _wrap_allowance(design: Design) -> float:
+    """Extra wire at each radiator end for the wrap around the insulator or the stub conductor
+    (common practice: about 15 cm of wire at HF, less on short VHF wires); none for pipe or rod,
+    which is joined or clamped rather than wrapped (a small cutting allowance instead)."""
+    if _is_rigid(design.radiator.diameter_m):
+        return 0.01
+    return min(0.15, 0.015 * design.wavelength_m)
+
+
+def _cut_list(design: Design, d: Dimensions, wrap: float, ch) -> tuple[tuple, tuple]:
+    """What to cut (with allowances) and what to buy. Allowances are common practice."""
+    rigid_radiator = _is_rigid(design.radiator.diameter_m)
+    rigid_stub = _is_rigid(design.stub.conductor_diameter_m)
+    lam = design.wavelength_m
+    beyond_short = 0.02 if rigid_stub else min(0.10, 0.01 * lam)
+    junction = 0.0 if rigid_stub else wrap
+    line_name = design.stub.name if design.stub.name != "custom" else (
+        "two-wire line by geometry" if design.stub.kind == "geometry" else "two-wire line as measured")
+    coil_coax = ch.turns * math.pi * ch.mean_diameter_m
+    pigtail = 0.30 if lam > 3 else 0.10
+    coax_total = design.feed.length_m + coil_coax + pigtail
+    radiator_material = f"{design.radiator.label} {design.radiator.material}" + (
+        "" if design.radiator.insulation == "bare" else f", {design.radiator.insulation} insulated")
+    items = [
+        CutItem("radiator", radiator_material, d.radiator + 2 * wrap, 1, 2 * wrap,
+                "wrap allowance at each end included" if not rigid_radiator else
+                "cutting allowance at each end included"),
+        CutItem("stub line", line_name, d.stub + beyond_short + junction, 1, beyond_short + junction,
+                "includes the length below the short" +
+                (" and the wrap at the open top" if junction else "")),
+        CutItem("short bar", "bare copper wire" if not rigid_stub else design.stub.conductor_material + " bar",
+                d.spacing + (2 * wrap if not rigid_stub else 0.02), 1, 2 * wrap if not rigid_stub else 0.02,
+                "across the stub at the short, soldered or clamped"),
+        CutItem("tap leads", "insulated stranded wire", d.spacing / 2 + (0.05 if lam > 3 else 0.02), 2,
+                0.05 if lam > 3 else 0.02, "coax centre to the radiator-side conductor, braid to the other"),
+        CutItem("feed coax", design.feed.coax, coax_total, 1, coil_coax + pigtail,
+                "run to the station, plus the choke turns and a pigtail at the tap"),
+        CutItem("choke form", "pipe of the choke form's outside diameter", ch.coil_length_m + 0.05, 1, 0.05,
+                "the feed coax is close-wound on it"),
+    ]
+    if design.site.orientation != "vertical":
+        rope = max(10.0, design.site.height_m * 2.5)
+        items.append(CutItem("support rope", "UV-resistant polyester rope", rope, 2, 0.0,
+                             "one at the far end insulator, one at the stub's open top (common practice: "
+                             "well over twice the height)"))
+    hardware = [
+        HardwareItem("tap clamps", 2, "hose clamps or split-bolt clamps that can slide along the stub"),
+        HardwareItem("coax connector", 2, f"for {design.feed.coax}: one at the station, one at the choke"),
+        HardwareItem("self-amalgamating tape", 1, "roll, to weatherproof the tap and the connectors"),
+        HardwareItem("cable ties, UV-resistant", max(8, 2 * ch.turns), "to hold the choke turns"),
+    ]
+    if design.site.orientation == "vertical":
+        hardware.append(HardwareItem("mast clamps and stand-off insulators", 3,
+                                     "to mount the stub below the short without touching the conductors"))
+    else:
+        hardware.append(HardwareItem("end insulators", 2, "far end of the radiator and the stub's open top"))
+    if design.stub.kind == "geometry" and not rigid_stub:
+        spreaders = int(math.ceil(d.stub / 0.30)) + 1
+        hardware.append(HardwareItem("line spreaders", spreaders, "about every 30 cm along the stub"))
+    if rigid_stub:
+        hardware.append(HardwareItem("pipe tees or elbows for the short", 2, "or a drilled bar and bolts"))
+    return tuple(items), tuple(hardware)

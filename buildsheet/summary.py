@@ -1,0 +1,75 @@
+"""The terminal summary of `buildsheet solve`: owns its plain-text layout only; every number comes
+from the Solution and every unit conversion from units.py."""
+
+from __future__ import annotations
+
+from buildsheet import units
+from buildsheet.design import Design
+from buildsheet.solve import Solution
+
+
+def _band(edges, fmt=units.format_frequency) -> str:
+    if edges is None:
+        return "none (SWR never gets that low)"
+    low, high = edges
+    return f"{fmt(low)} to {fmt(high)} ({(high - low) / 1e3:.0f} kHz)"
+
+
+def summary_text(design: Design, s: Solution) -> str:
+    u = design.output.units
+    L = lambda m: units.format_length(m, u)  # noqa: E731 - a local shorthand
+    d = s.dimensions
+    rows: list[str] = []
+    add = rows.append
+    add(f"{design.title}  [{design.name}, document {s.design_id}]")
+    add(f"band {units.format_frequency(s.band_hz[0])} to {units.format_frequency(s.band_hz[1])}"
+        f"{' (' + design.band_name + ')' if design.band_name else ''}, matched at "
+        f"{units.format_frequency(s.frequency_hz)} to {units.format_impedance(design.feed.impedance_ohm)}")
+    add("")
+    add("Key dimensions (" + units.length_rounding(u) + ")")
+    add(f"  radiator   {L(d.radiator):>14}   attachment point to attachment point")
+    add(f"  stub       {L(d.stub):>14}   open top to the centre of the short")
+    add(f"  tap        {L(d.tap):>14}   centre of the short to the tap")
+    add(f"  spacing    {L(d.spacing):>14}   centre to centre of the stub conductors")
+    add("")
+    add("Cut list")
+    for item in s.cut_list:
+        qty = f"{item.quantity} x" if item.quantity > 1 else ""
+        add(f"  [ ] {item.part:<12} {qty:>3} {L(item.length_m):>12}  {item.material}; {item.note}")
+    add("Hardware")
+    for h in s.hardware:
+        add(f"  [ ] {h.quantity:>3} x {h.item}: {h.note}")
+    add("")
+    add("Predicted performance")
+    add(f"  feed impedance at {units.format_frequency(s.frequency_hz)}: "
+        f"{units.format_complex_impedance(s.feed_impedance)}, SWR {s.feed_swr:.2f} at the tap, "
+        f"{s.feed_swr_transmitter:.2f} at the transmitter")
+    add(f"  SWR below 2:1   {_band(s.band_swr2_hz)}")
+    add(f"  SWR below 1.5:1 {_band(s.band_swr15_hz)}")
+    add(f"  coax loss {s.coax_loss_db:.2f} dB; {units.format_power(s.power_at_tap_w)} PEP reaches the tap")
+    add(f"  open end of the stub: {units.format_voltage(s.voltage_open_end_v_rms)} rms, "
+        f"{units.format_voltage(s.voltage_open_end_v_peak)} peak; far end of the radiator: "
+        f"{units.format_voltage(s.voltage_far_end_v_rms)} rms, "
+        f"{units.format_voltage(s.voltage_far_end_v_peak)} peak")
+    add(f"  current through the short: {units.format_current(s.current_short_a_rms)} rms")
+    add(f"  efficiency (radiated / delivered to the tap): {units.format_percent(s.efficiency)}")
+    c = s.choke
+    add(f"  choke: {c.turns} turns of {design.feed.coax} on a {L(c.form_diameter_m)} form, coil "
+        f"{L(c.coil_length_m)} long, {c.inductance_h * 1e6:.2f} uH, self-resonant at "
+        f"{units.format_frequency(c.self_resonance_hz)}, |Z| at least {units.format_impedance(c.impedance_ohm)}"
+        " across the band")
+    if c.warning:
+        add(f"  choke warning: {c.warning}")
+    e = s.exposure
+    standard = {"us-fcc": "47 CFR 1.1310 (US FCC)", "icnirp-2020": "ICNIRP 2020"}[e.standard]
+    add(f"  RF exposure ({standard}, {units.format_power(e.average_power_w)} average, "
+        f"{e.gain_dbi:.2f} dBi): keep people {units.format_distance(e.distance_general_m, u)} away "
+        f"(general public), {units.format_distance(e.distance_controlled_m, u)} (controlled)")
+    if e.distance_general_m < e.near_field_m:
+        add(f"    these distances lie inside the reactive near field ({units.format_distance(e.near_field_m, u)})"
+            "; a screening estimate only")
+    add("")
+    add("Cautions: keep the antenna and its fall zone well clear of power lines; the open end of the stub "
+        "and the far end of the radiator carry high RF voltage; follow local codes, your regulator and "
+        "licensed practice.")
+    return "\n".join(rows) + "\n"

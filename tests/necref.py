@@ -1,0 +1,228 @@
+"""NEC-2 reference harness (PyNEC): builds wire models of the antenna from dimensions; test/bench only.
+
+It owns the NEC-2 meshing rules of DESIGN.md §7 and nothing of the product: buildsheet never imports
+it, it never imports buildsheet (so the reference cannot inherit a bug of the model it checks).
+The tests and bench import it with `sys.path` pointing at tests/.
+
+Geometry (SI, metres; z up, ground plane z = 0):
+  conductor A of the stub at x = 0, conductor B at x = -spacing, both in the x-z plane;
+  the radiator continues from conductor A's open-top end, conductor B ends there (open);
+  horizontal: stub hangs down from the open top at z = height, radiator runs along +x at z = height;
+  sloper: as horizontal, radiator runs along +x sloping down at `slope` below horizontal;
+  vertical: short at z = height, stub stands up, radiator continues straight up from A.
+  The short bar and the tap bar join A and B; the feed is a 1 V source on the tap bar's middle segment.
+
+Symbols: f frequency (Hz), lam free-space wavelength (m), a radius (m), s spacing (m),
+  L radiator length, S stub length (open top to short), T tap distance (short to tap), all m.
+
+Meshing (DESIGN.md §7, "Meshing NEC-2 for a two-wire stub"):
+  stub segments near min(lam/40, 8 s); both conductors split at the tap, with the same number of
+  segments on A and B in each section so segment ends line up across the line; about 121 radiator
+  segments per half-wave, never shorter than 3 radii; bars one segment per spacing (odd count so the
+  source sits in the middle); the extended thin-wire kernel where any segment is under 8 radii.
+"""
+
+from __future__ import annotations
+
+import math
+from dataclasses import dataclass, field, replace
+
+import numpy as np
+import PyNEC
+
+C0 = 299_792_458.0
+
+# Tags of the J-pole wires, fixed so callers can pick currents by part.
+TAG_RADIATOR = 1
+TAG_A_LOW, TAG_A_HIGH, TAG_B_LOW, TAG_B_HIGH = 2, 3, 4, 5
+TAG_SHORT, TAG_TAP = 6, 7
+
+
+def awg_diameter(n: int) -> float:
+    """AWG wire diameter (m): d = 0.127 mm * 92**((36 - n)/39) (ASTM B258)."""
+    return 0.127e-3 * 92.0 ** ((36 - n) / 39)
+
+
+@dataclass(frozen=True)
+class Ground:
+    """kind: 'free-space' | 'perfect' | 'real'; eps_r, sigma (S/m) for real ground.
+    method for real ground: 'sommerfeld' (GN 2) or 'reflection' (GN 0, Fresnel reflection coefficient)."""
+    kind: str = "free-space"
+    eps_r: float = 13.0
+    sigma: float = 0.005
+    method: str = "sommerfeld"
+
+
+@dataclass(frozen=True)
+class JPoleDims:
+    """All dimensions (m) and conductors of one J-pole, as built; see the module docstring for axes.
+    sigma values in S/m (None = perfect conductor). height: open top (horizontal/sloper) or short
+    (vertical) above ground. slope: rad below horizontal (sloper only)."""
+    radiator: float
+    stub: float
+    tap: float
+    spacing: float
+    wire_d: float
+    stub_d: float
+    orientation: str = "horizontal"
+    height: float = 10.0
+    slope: float = 0.0
+    ground: Ground = field(default_factory=Ground)
+    wire_sigma: float | None = 5.8e7
+    stub_sigma: float | None = 5.8e7
+
+
+@dataclass(frozen=True)
+class Wire:
+    tag: int
+    nseg: int
+    p1: tuple[float, float, float]
+    p2: tuple[float, float, float]
+    radius: float
+
+
+@dataclass(frozen=True)
+class NecResult:
+    """z_feed: complex feed impedance per frequency (ohm); currents: per frequency a dict
+    tag -> (positions along the wire from its p1 (m), complex segment currents (A) for 1 V drive)."""
+    f_hz: np.ndarray
+    z_feed: np.ndarray
+    currents: tuple[dict[int, tuple[np.ndarray, np.ndarray]], ...] | None
+    wires: tuple[Wire, ...]
+    extended_kernel: bool
+
+
+def _nseg(length: float, target: float, radius: float, odd: bool = False) -> int:
+    """Segments for a wire: near `target` long, never shorter than 3 radii (DESIGN.md §7)."""
+    n = max(1, round(length / target))
+    n = min(n, max(1, int(length / (3.0 * radius))))
+    if odd and n % 2 == 0:
+        n = n + 1 if length / (n + 1) >= 3.0 * radius else n - 1
+    return max(1, n)
+
+
+def jpole_wires(d: JPoleDims, f_mesh: float) -> tuple[Wire, ...]:
+    """Wires of the J-pole meshed for frequency f_mesh (Hz; use the highest frequency of the run)."""
+    if not 0.0 < d.tap < d.stub:
+        raise ValueError(f"tap {d.tap} m must lie between the short and the open top (stub {d.stub} m)")
+    lam = C0 / f_mesh
+    s, a_s, a_w = d.spacing, d.stub_d / 2.0, d.wire_d / 2.0
+    seg_stub = min(lam / 40.0, 8.0 * s)
+    n_low = _nseg(d.tap, seg_stub, a_s)
+    n_high = _nseg(d.stub - d.tap, seg_stub, a_s)
+    n_rad = _nseg(d.radiator, lam / 2.0 / 121.0, a_w)
+    n_bar = _nseg(s, seg_stub, a_s, odd=True)
+
+    if d.orientation == "vertical":
+        z_short, z_tap, z_top = d.height, d.height + d.tap, d.height + d.stub
+        rad_end = (0.0, 0.0, z_top + d.radiator)
+    elif d.orientation in ("horizontal", "sloper"):
+        z_top = d.height
+        z_short, z_tap = z_top - d.stub, z_top - d.stub + d.tap
+        psi = d.slope if d.orientation == "sloper" else 0.0
+        rad_end = (d.radiator * math.cos(psi), 0.0, z_top - d.radiator * math.sin(psi))
+    else:
+        raise ValueError(f"orientation {d.orientation!r}: expected horizontal, sloper or vertical")
+    if d.ground.kind != "free-space":
+        lowest = min(z_short, rad_end[2])
+        if lowest <= max(3 * a_s, 1e-3 * lam):
+            raise ValueError(f"structure reaches z = {lowest:.3f} m: below or touching the ground")
+    xa, xb = 0.0, -s
+    return (
+        Wire(TAG_RADIATOR, n_rad, (xa, 0.0, z_top), rad_end, a_w),
+        Wire(TAG_A_LOW, n_low, (xa, 0.0, z_short), (xa, 0.0, z_tap), a_s),
+        Wire(TAG_A_HIGH, n_high, (xa, 0.0, z_tap), (xa, 0.0, z_top), a_s),
+        Wire(TAG_B_LOW, n_low, (xb, 0.0, z_short), (xb, 0.0, z_tap), a_s),
+        Wire(TAG_B_HIGH, n_high, (xb, 0.0, z_tap), (xb, 0.0, z_top), a_s),
+        Wire(TAG_SHORT, n_bar, (xa, 0.0, z_short), (xb, 0.0, z_short), a_s),
+        Wire(TAG_TAP, n_bar, (xa, 0.0, z_tap), (xb, 0.0, z_tap), a_s),
+    )
+
+
+def needs_extended_kernel(wires: tuple[Wire, ...]) -> bool:
+    """True where any segment is shorter than about 8 radii (DESIGN.md §7)."""
+    return any(math.dist(w.p1, w.p2) / w.nseg < 8.0 * w.radius for w in wires)
+
+
+def run(wires: tuple[Wire, ...], f_hz, ground: Ground, source: tuple[int, int],
+        sigma: dict[int, float | None] | None = None, currents: bool = False,
+        extended_kernel: bool | None = None) -> NecResult:
+    """Run NEC-2 on `wires` at each frequency; 1 V source on (tag, segment); sigma per tag (S/m) as
+    LD 5 wire conductivity. Ground: GN -1 free space, GN 1 perfect, real: GN 2 (Sommerfeld-Norton) or
+    GN 0 (reflection coefficient). Returns the input impedance at the source per frequency."""
+    f_hz = np.atleast_1d(np.asarray(f_hz, dtype=float))
+    ek = needs_extended_kernel(wires) if extended_kernel is None else extended_kernel
+    ctx = PyNEC.nec_context()
+    geo = ctx.get_geometry()
+    for w in wires:
+        geo.wire(w.tag, w.nseg, *w.p1, *w.p2, w.radius, 1.0, 1.0)
+    ctx.geometry_complete(1 if ground.kind != "free-space" else 0)
+    if ek:
+        ctx.set_extended_thin_wire_kernel(True)
+    for tag, sg in (sigma or {}).items():
+        if sg is not None:
+            ctx.ld_card(5, tag, 0, 0, sg, 0.0, 0.0)
+    if ground.kind == "free-space":
+        ctx.gn_card(-1, 0, 0, 0, 0, 0, 0, 0)
+    elif ground.kind == "perfect":
+        ctx.gn_card(1, 0, 0, 0, 0, 0, 0, 0)
+    elif ground.kind == "real":
+        ctx.gn_card(2 if ground.method == "sommerfeld" else 0, 0, ground.eps_r, ground.sigma, 0, 0, 0, 0)
+    else:
+        raise ValueError(f"ground kind {ground.kind!r}")
+    ctx.ex_card(0, source[0], source[1], 0, 1.0, 0.0, 0, 0, 0, 0)
+    z = np.empty(len(f_hz), dtype=complex)
+    cur = []
+    for i, f in enumerate(f_hz):
+        ctx.fr_card(0, 1, f / 1e6, 0.0)
+        ctx.xq_card(0)
+        z[i] = ctx.get_input_parameters(i).get_impedance()[0]
+        if currents:
+            cur.append(_currents(ctx.get_structure_currents(i), wires, C0 / f))
+    return NecResult(f_hz, z, tuple(cur) if currents else None, tuple(wires), ek)
+
+
+def _currents(sc, wires, lam):
+    """Segment currents by tag with positions along each wire; PyNEC gives centres in wavelengths."""
+    tags = np.asarray(sc.get_current_segment_tag())
+    i_seg = np.asarray(sc.get_current())
+    xyz = np.column_stack([sc.get_current_segment_center_x(), sc.get_current_segment_center_y(),
+                           sc.get_current_segment_center_z()]) * lam
+    out = {}
+    for w in wires:
+        m = tags == w.tag
+        out[w.tag] = (np.linalg.norm(xyz[m] - np.asarray(w.p1), axis=1), i_seg[m])
+    return out
+
+
+def jpole_model(d: JPoleDims, f_hz, currents: bool = False, f_mesh: float | None = None,
+                extended_kernel: bool | None = None) -> NecResult:
+    """NEC-2 model of the J-pole from its dimensions: feed impedance (ohm) at each frequency (Hz),
+    and optionally the currents. Meshed for f_mesh (default: the highest frequency)."""
+    f_hz = np.atleast_1d(np.asarray(f_hz, dtype=float))
+    wires = jpole_wires(d, f_mesh or float(f_hz.max()))
+    tap_bar = wires[TAG_TAP - 1]
+    sigma = {TAG_RADIATOR: d.wire_sigma, **{t: d.stub_sigma for t in range(2, 8)}}
+    return run(wires, f_hz, d.ground, (TAG_TAP, (tap_bar.nseg + 1) // 2), sigma, currents,
+               extended_kernel)
+
+
+def dipole(length: float, diameter: float, f_hz, height: float = 0.0, nseg: int = 51,
+           ground: Ground = Ground(), sigma: float | None = None) -> NecResult:
+    """Centre-fed straight dipole along x (horizontal at `height` m), the harness's self-check
+    against CHECK_VALUES §3c/§3d."""
+    wires = (Wire(1, nseg, (-length / 2, 0.0, height), (length / 2, 0.0, height), diameter / 2),)
+    return run(wires, f_hz, ground, (1, (nseg + 1) // 2), {1: sigma})
+
+
+def common_mode_ratio(res: NecResult, index: int = 0) -> float:
+    """Peak |I_A + I_B| along the stub (the common-mode current) over the radiator's peak |I|;
+    needs currents. The sections of A and B have aligned segments, so they add element by element."""
+    cur = res.currents[index]
+    i_cm = np.concatenate([cur[TAG_A_LOW][1] + cur[TAG_B_LOW][1], cur[TAG_A_HIGH][1] + cur[TAG_B_HIGH][1]])
+    return float(np.max(np.abs(i_cm)) / np.max(np.abs(cur[TAG_RADIATOR][1])))
+
+
+def with_dims(d: JPoleDims, **changes) -> JPoleDims:
+    """A copy of d with some fields changed (for sweeps in studies)."""
+    return replace(d, **changes)
