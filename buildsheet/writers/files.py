@@ -1,0 +1,116 @@
+"""Atomic file replacement for every output and every update of a user's file; it renders nothing and
+decides no file names.
+
+A file is written to a temporary file in its own directory, flushed and fsynced, then moved over the
+target with os.replace (atomic on POSIX and Windows), and the directory is fsynced so the rename itself
+survives a crash. On any failure before the rename the temporary file is removed and the old file is
+untouched.
+
+Tests simulate a failure at a chosen step with `_fail_at` (see STEPS); it raises OSError there.
+"""
+
+from __future__ import annotations
+
+import os
+import stat
+from collections.abc import Mapping
+
+STEPS = ("create", "write", "fsync", "replace", "fsync_dir")
+
+
+def _checkpoint(step: str, index: int, fail_at: tuple[str, int] | None) -> None:
+    if fail_at is not None and fail_at == (step, index):
+        raise OSError(f"simulated failure at step {step!r} of file {index}")
+
+
+def _temp_name(target: str) -> str:
+    """A name beside `target` that no other file has (created exclusively by the caller)."""
+    head, tail = os.path.split(target)
+    n = 0
+    while True:
+        candidate = os.path.join(head, f".{tail}.{os.getpid()}.{n}.tmp")
+        if not os.path.lexists(candidate):
+            return candidate
+        n += 1
+
+
+def _write_temp(target: str, data: bytes, index: int, fail_at) -> str:
+    """Write `data` to a new temporary file beside `target`, durable on disk; return its path."""
+    _checkpoint("create", index, fail_at)
+    while True:
+        temp = _temp_name(target)
+        try:
+            # Mode 0o666 lets the umask decide, as for any newly created file.
+            fd = os.open(temp, os.O_WRONLY | os.O_CREAT | os.O_EXCL | getattr(os, "O_BINARY", 0),
+                         0o666)
+            break
+        except FileExistsError:
+            continue
+    try:
+        with os.fdopen(fd, "wb") as f:
+            _checkpoint("write", index, fail_at)
+            f.write(data)
+            f.flush()
+            _checkpoint("fsync", index, fail_at)
+            os.fsync(f.fileno())
+        if os.path.exists(target):
+            # A replaced file keeps its permissions (a design file may be group-writable).
+            os.chmod(temp, stat.S_IMODE(os.stat(target).st_mode))
+    except BaseException:
+        os.unlink(temp)
+        raise
+    return temp
+
+
+def _fsync_dir(directory: str) -> None:
+    if os.name != "posix":      # Windows cannot open a directory for fsync; NTFS journals renames
+        return
+    fd = os.open(directory or ".", os.O_RDONLY)
+    try:
+        os.fsync(fd)
+    finally:
+        os.close(fd)
+
+
+def write_many_atomic(files: Mapping[str | os.PathLike, bytes], *,
+                      _fail_at: tuple[str, int] | None = None) -> None:
+    """Replace every file of `files` (path -> content) atomically.
+
+    All temporary files are written first, then renamed in the mapping's order, so a failure before
+    the renames leaves every previous file intact and no temporary file behind. A failure during the
+    renames (rare: a rename within a directory does not need space) can leave the first files new and
+    the rest old; each file is still wholly old or wholly new. A symbolic link target is followed, so
+    the link stays a link.
+
+    `_fail_at` = (step, i) raises OSError at `step` (one of STEPS) of the i-th file, for tests.
+    """
+    if _fail_at is not None and _fail_at[0] not in STEPS:
+        raise ValueError(f"_fail_at step must be one of {STEPS}, got {_fail_at[0]!r}")
+    targets = [os.path.realpath(os.fspath(p)) for p in files]
+    if len(set(targets)) != len(targets):
+        raise ValueError("the same file is listed twice")
+    temps: list[str] = []
+    try:
+        for i, (target, data) in enumerate(zip(targets, files.values())):
+            if not isinstance(data, bytes):
+                raise TypeError(f"content of {target} must be bytes, got {type(data).__name__}")
+            temps.append(_write_temp(target, data, i, _fail_at))
+        for i, (temp, target) in enumerate(zip(temps, targets)):
+            _checkpoint("replace", i, _fail_at)
+            os.replace(temp, target)
+    except BaseException:
+        for temp in temps:
+            if os.path.lexists(temp):
+                os.unlink(temp)
+        raise
+    for i, directory in enumerate(dict.fromkeys(os.path.dirname(t) for t in targets)):
+        _checkpoint("fsync_dir", i, _fail_at)
+        _fsync_dir(directory)
+
+
+def write_atomic(path: str | os.PathLike, data: bytes, *, _fail_at: str | None = None) -> None:
+    """Replace the file at `path` by `data` atomically (see write_many_atomic).
+
+    `_fail_at` = a step of STEPS raises OSError there, for tests.
+    """
+    write_many_atomic({path: data}, _fail_at=None if _fail_at is None else (_fail_at, 0))
