@@ -41,7 +41,41 @@ def _parser() -> argparse.ArgumentParser:
     p.add_argument("--json", action="store_true", help="print the whole solution as one JSON object (SI)")
     _output_options(p)
     p.set_defaults(run=_solve)
+
+    p = sub.add_parser("record", help="append an as-built entry to the design's record")
+    p.add_argument("design", metavar="DESIGN")
+    p.add_argument("--date", required=True, metavar="YYYY-MM-DD", help="date of the measurements")
+    p.add_argument("--site", metavar="TEXT", help="where the antenna was put up")
+    p.add_argument("--radiator", metavar="LEN", help="radiator length as built, with a unit")
+    p.add_argument("--short", dest="stub", metavar="LEN",
+                   help="stub length as built: open top to the centre of the short")
+    p.add_argument("--tap", metavar="LEN", help="tap as built: centre of the short to the tap")
+    p.add_argument("--resonance", metavar="FREQ", help="measured frequency of lowest SWR")
+    p.add_argument("--swr", metavar="N", help="measured SWR, a plain number such as 1.3")
+    p.add_argument("--note", metavar="TEXT", help="one line of free text")
+    p.set_defaults(run=_record)
+
+    p = sub.add_parser("history", help="revisions of a design from git, with the key dimensions")
+    p.add_argument("design", metavar="DESIGN")
+    p.set_defaults(run=_history)
     return parser
+
+
+def _record(args) -> int:
+    from buildsheet.record import ENTRY_KEYS, add_entry
+
+    added = add_entry(args.design, {key: getattr(args, key) for key in ENTRY_KEYS})
+    print(f"{added.path}: as-built entry {added.index + 1} ({added.entry.date}) added; document ID "
+          f"{added.document_id} unchanged; the previous file is {added.backup}")
+    return 0
+
+
+def _history(args) -> int:
+    from buildsheet.history import format_history, history
+
+    for line in format_history(history(args.design)):
+        print(line)
+    return 0
 
 
 def _output_options(p: argparse.ArgumentParser, *, paper: bool = False) -> None:
