@@ -46,6 +46,7 @@ from buildsheet import units
 from buildsheet.design import Design, RecordEntry, design_from_text, parse_date
 from buildsheet.errors import BuildsheetError, DesignError, RecordError
 from buildsheet.yamlread import MAX_BYTES, one_line
+from buildsheet.writers.files import fsync_dir
 
 BACKUP_SUFFIX = ".bak"
 
@@ -338,16 +339,6 @@ def _write_temp(beside: str, data: bytes, mode: int) -> str:
     return temp
 
 
-def _fsync_dir(directory: str) -> None:
-    if os.name != "posix":      # Windows cannot open a directory; NTFS journals renames
-        return
-    fd = os.open(directory or ".", os.O_RDONLY)
-    try:
-        os.fsync(fd)
-    finally:
-        os.close(fd)
-
-
 def _replace(path: str, raw: bytes, before: os.stat_result, data: bytes) -> str:
     """Replace the file at `path` (read as `raw` with stat `before`) by `data`, keeping `raw` as the
     backup; return the backup's path. Nothing is renamed unless both temporary files are on disk and
@@ -371,7 +362,7 @@ def _replace(path: str, raw: bytes, before: os.stat_result, data: bytes) -> str:
             if os.path.lexists(temp):
                 os.unlink(temp)
     try:
-        _fsync_dir(os.path.dirname(target))
+        fsync_dir(os.path.dirname(target))
     except OSError as exc:
         raise RecordError(f"was updated, but its directory could not be synced to disk "
                           f"({exc.strerror or exc}); check the file", file=path) from None

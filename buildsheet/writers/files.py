@@ -62,7 +62,8 @@ def _write_temp(target: str, data: bytes, index: int, fail_at) -> str:
     return temp
 
 
-def _fsync_dir(directory: str) -> None:
+def fsync_dir(directory: str) -> None:
+    """Make a rename in `directory` durable (fsync the directory itself)."""
     if os.name != "posix":      # Windows cannot open a directory for fsync; NTFS journals renames
         return
     fd = os.open(directory or ".", os.O_RDONLY)
@@ -105,7 +106,7 @@ def write_many_atomic(files: Mapping[str | os.PathLike, bytes], *,
         raise
     for i, directory in enumerate(dict.fromkeys(os.path.dirname(t) for t in targets)):
         _checkpoint("fsync_dir", i, _fail_at)
-        _fsync_dir(directory)
+        fsync_dir(directory)
 
 
 def write_atomic(path: str | os.PathLike, data: bytes, *, _fail_at: str | None = None) -> None:
