@@ -15,12 +15,13 @@ import math
 import os
 import re
 import subprocess
+import unicodedata
 from dataclasses import dataclass, field
 from datetime import date, datetime, timezone
 
 from buildsheet import units
 from buildsheet.catalog import catalog
-from buildsheet.errors import BuildsheetError, DesignError
+from buildsheet.errors import BuildsheetError, DesignError, one_line
 from buildsheet.yamlread import Document, parse, read_text
 
 SCHEMA = 1
@@ -28,6 +29,9 @@ C0 = 299_792_458.0
 
 F_MIN_HZ = 1.8e6
 F_MAX_HZ = 450e6
+#: frequencies a measured or datasheet loss point may be given at
+LOSS_F_MIN_HZ = 1e6
+LOSS_F_MAX_HZ = 3e9
 
 # Defaults, written as a user would write them, applied in one place (_with_defaults) and listed in the
 # README (a test checks the README table against this mapping).  Region-dependent defaults are
@@ -79,6 +83,12 @@ _LINE_GEOMETRY_KEYS = ("spacing", "conductor", "dielectric", "material")
 _LINE_NOMINAL_KEYS = ("impedance", "velocity_factor", "loss", "spacing", "conductor")
 _RECORD_KEYS = ("date", "site", "radiator", "stub", "tap", "resonance", "swr", "note")
 _NAME_RE = re.compile(r"[a-z0-9](?:[a-z0-9-]{0,62}[a-z0-9])?\Z")
+#: longest text read as a quantity; "16' 4-3/8\"" or "1.6277 mm" are far shorter, and the number
+#: parsers are not handed thousands of digits
+MAX_QUANTITY_CHARS = 64
+#: Unicode categories refused in text printed on the sheet: control characters (tab excepted),
+#: lone surrogates (not encodable), line and paragraph separators
+_BAD_TEXT_CATEGORIES = ("Cc", "Cs", "Zl", "Zp")
 
 
 # ----------------------------------------------------------------------------------------------
@@ -270,8 +280,21 @@ class _Validator:
 
     # -- error helpers -----------------------------------------------------------------------
     def fail(self, key: str, problem: str) -> DesignError:
-        parts = tuple(int(p) if p.isdigit() else p for p in key.split(".")) if key else ()
-        return DesignError(problem, file=self.path, key=key or None, line=self.doc.line_of(parts))
+        return DesignError(one_line(problem), file=self.path, key=one_line(key) or None,
+                           line=self.doc.line_of(self._path(key)))
+
+    def _path(self, key: str) -> tuple:
+        """The key path of a dotted key: a digit is a list index only where the value is a list
+        (a mapping may have the key '1')."""
+        node, parts = self.data, []
+        for part in key.split(".") if key else ():
+            if isinstance(node, list) and part.isdigit():
+                part = int(part)
+                node = node[part] if part < len(node) else None
+            else:
+                node = node.get(part) if isinstance(node, dict) else None
+            parts.append(part)
+        return tuple(parts)
 
     def get(self, key: str, default=None):
         node = self.data
@@ -292,17 +315,24 @@ class _Validator:
         raw = self.get(key, default)
         if raw is None:
             raise self.fail(key, f"must be a {kind} with a unit")
+        self._short_enough(key, raw)
         try:
             return units.parse_quantity(raw, kind)
         except BuildsheetError as exc:
             raise self.fail(key, exc.problem) from None
 
+    def _short_enough(self, key: str, raw) -> None:
+        if isinstance(raw, str) and len(raw) > MAX_QUANTITY_CHARS:
+            raise self.fail(key, f"is {len(raw)} characters long; a quantity is a number and a unit "
+                            f"of at most {MAX_QUANTITY_CHARS} characters")
+
     def number(self, key: str, default=None, *, lo: float, hi: float) -> float:
         raw = self.get(key, default)
         if isinstance(raw, bool) or not isinstance(raw, (int, float)):
-            raise self.fail(key, f"must be a plain number from {lo:g} to {hi:g}, got {raw!r}")
+            raise self.fail(key, f"must be a plain number from {lo:g} to {hi:g}, got {_describe(raw)}")
         if not (lo <= raw <= hi):
-            raise self.fail(key, f"must be from {lo:g} to {hi:g}, got {raw:g}")
+            # an integer may be too large for a float: describe it rather than format it
+            raise self.fail(key, f"must be from {lo:g} to {hi:g}, got {_describe(raw)}")
         return float(raw)
 
     def text(self, key: str, default: str | None = None, *, max_len: int = 200) -> str:
@@ -311,8 +341,12 @@ class _Validator:
             raise self.fail(key, f"must be text, got {_describe(raw)}")
         if len(raw) > max_len:
             raise self.fail(key, f"is {len(raw)} characters long; at most {max_len} are allowed")
-        if any(ord(ch) < 32 and ch not in "\t" for ch in raw):
-            raise self.fail(key, "contains control characters")
+        if any(unicodedata.category(ch) in _BAD_TEXT_CATEGORIES and ch != "\t" for ch in raw):
+            raise self.fail(key, "contains control characters or line breaks")
+        bad = next((ch for ch in raw if not _printable(ch)), None)
+        if bad is not None:  # text is printed in Vera: refuse what it has no glyph for
+            raise self.fail(key, f"contains the character U+{ord(bad):04X} ({bad!r}), which the "
+                            "sheet's font cannot print; write it in plain Latin letters")
         return raw
 
     def choice(self, key: str, choices, default: str | None = None) -> str:
@@ -430,11 +464,7 @@ class _Validator:
 
     def radiator(self, frequency: float) -> Radiator:
         raw = self.get("radiator.wire")
-        try:
-            diameter = units.parse_wire(raw)
-        except BuildsheetError as exc:
-            raise self.fail("radiator.wire", exc.problem) from None
-        self.in_range("radiator.wire", diameter, 0.2e-3, 60e-3, _mm)
+        diameter = self.wire("radiator.wire")
         material = self.catalogue("radiator.material", "material", DEFAULTS["radiator.material"])
         insulation_raw = self.get("radiator.insulation", DEFAULTS["radiator.insulation"])
         if isinstance(insulation_raw, dict):
@@ -518,6 +548,7 @@ class _Validator:
 
     def wire(self, key: str, default: str | None = None) -> float:
         raw = self.get(key, default)
+        self._short_enough(key, raw)
         try:
             d = units.parse_wire(raw)
         except BuildsheetError as exc:
@@ -533,6 +564,9 @@ class _Validator:
             if not isinstance(pair, list) or len(pair) != 2:
                 raise self.fail(f"{key}.{i}", "must be a pair [frequency, dB per 100 ft]")
             f = self.quantity(f"{key}.{i}.0", "frequency")
+            # the skin-effect and dielectric loss law is fitted over the range cable data cover
+            self.in_range(f"{key}.{i}.0", f, LOSS_F_MIN_HZ, LOSS_F_MAX_HZ,
+                          lambda hz: units.format_frequency(hz) if hz >= 1e3 else f"{hz:g} Hz")
             db = self.number(f"{key}.{i}.1", lo=0.0, hi=100.0)
             points.append((f, db))
         return tuple(points)
@@ -669,6 +703,7 @@ class _Validator:
                             f"of a wavelength at {units.format_frequency(d.frequency_hz)}; a thin-wire "
                             "model does not apply")
         vf = stub.velocity_factor or 1.0 / math.sqrt(stub.eps_r)
+        self.check_calibration(d, vf)
         stub_estimate = vf * lam / 4
         radiator_estimate = d.radiator.velocity_factor * lam / 2
         if d.site.orientation in ("horizontal", "sloper"):
@@ -687,6 +722,19 @@ class _Validator:
                                     f"{_metres(far)} above ground (the radiator is about "
                                     f"{_metres(radiator_estimate)}); use a smaller slope or a higher top")
 
+    def check_calibration(self, d: Design, stub_vf: float) -> None:
+        """A calibration scales velocity factors; it may not make a wave faster than light."""
+        cal = d.calibration
+        radiator_vf = d.radiator.velocity_factor
+        if radiator_vf / cal.radiator_scale > 1.0:
+            raise self.fail("calibration.radiator_scale", f"{cal.radiator_scale:g} would make the radiator's "
+                            f"velocity factor {radiator_vf / cal.radiator_scale:.3g}, faster than light; "
+                            f"with this insulation it must be at least {radiator_vf:g}")
+        if stub_vf * cal.stub_velocity_scale > 1.0:
+            raise self.fail("calibration.stub_velocity_scale", f"{cal.stub_velocity_scale:g} would make the "
+                            f"stub's velocity factor {stub_vf * cal.stub_velocity_scale:.3g}, faster than "
+                            f"light; with this line it must be at most {1.0 / stub_vf:.4g}")
+
 
 def _describe(value) -> str:
     if value is None:
@@ -698,7 +746,8 @@ def _describe(value) -> str:
     if isinstance(value, list):
         return "a list"
     if isinstance(value, (int, float)):
-        return f"the bare number {value!r}"
+        text = repr(value)
+        return f"the bare number {text if len(text) <= 20 else text[:17] + '...'}"
     text = str(value)
     return repr(text if len(text) <= 40 else text[:37] + "...")
 
@@ -762,3 +811,15 @@ def revision_date(path: str | None, override: str | None = None) -> str:
         except OSError:
             pass
     return datetime.now(tz=timezone.utc).strftime("%Y-%m-%d")
+
+
+def _printable(ch: str) -> bool:
+    """True if the sheet's fonts (Vera and Vera Bold) have a glyph for `ch`."""
+    from buildsheet.fonts import check_glyphs
+
+    try:
+        check_glyphs(ch)
+        check_glyphs(ch, bold=True)
+    except ValueError:
+        return False
+    return True

@@ -5,6 +5,24 @@ The CLI (cli.py) is the one place that turns these into a one-line message and e
 
 from __future__ import annotations
 
+import unicodedata
+
+#: a key or problem longer than these is cut (a user's 300 kB value must not become a 300 kB line)
+MAX_KEY_CHARS = 60
+MAX_PROBLEM_CHARS = 300
+
+
+def _cut(text: str, limit: int) -> str:
+    return text if len(text) <= limit else text[:limit - 3] + "..."
+
+
+def one_line(text: str) -> str:
+    """`text` with control characters and line breaks written as escapes (\\n, \\x1b, \\u2028), so
+    that a message quoting a user's value stays one line on the terminal and cannot move the cursor."""
+    return "".join(ch.encode("unicode_escape").decode("ascii")
+                   if unicodedata.category(ch) in ("Cc", "Cf", "Cs", "Zl", "Zp") else ch
+                   for ch in str(text))
+
 
 class BuildsheetError(Exception):
     """A problem with the user's input that the user can fix.
@@ -35,8 +53,8 @@ class BuildsheetError(Exception):
             where = self.file + (f":{self.line}" if self.line else "") + ": "
         elif self.line:
             where = f"line {self.line}: "
-        key = f"`{self.key}`: " if self.key else ""
-        return f"{where}{key}{self.problem}"
+        key = f"`{_cut(one_line(self.key), MAX_KEY_CHARS)}`: " if self.key else ""
+        return one_line(where) + key + _cut(one_line(self.problem), MAX_PROBLEM_CHARS)
 
 
 class DesignError(BuildsheetError):

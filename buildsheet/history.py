@@ -21,7 +21,7 @@ from dataclasses import dataclass
 from buildsheet import units
 from buildsheet.design import design_from_text
 from buildsheet.errors import BuildsheetError, DesignError
-from buildsheet.yamlread import one_line
+from buildsheet.errors import one_line
 
 GIT_TIMEOUT_S = 30
 _COLUMNS = ("date", "commit", "document ID", "radiator", "stub", "tap", "spacing", "subject")

@@ -44,8 +44,8 @@ import yaml
 
 from buildsheet import units
 from buildsheet.design import Design, RecordEntry, design_from_text, parse_date
-from buildsheet.errors import BuildsheetError, DesignError, RecordError
-from buildsheet.yamlread import MAX_BYTES, one_line
+from buildsheet.errors import BuildsheetError, DesignError, RecordError, one_line
+from buildsheet.yamlread import MAX_BYTES
 from buildsheet.writers.files import fsync_dir
 
 BACKUP_SUFFIX = ".bak"

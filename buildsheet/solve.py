@@ -11,7 +11,7 @@ from dataclasses import dataclass
 import numpy as np
 
 from buildsheet.design import Design
-from buildsheet.errors import DesignError
+from buildsheet.errors import BuildsheetError, DesignError
 from buildsheet.physics import choke as choke_physics
 from buildsheet.physics import exposure as exposure_physics
 from buildsheet.physics import jpole
@@ -234,14 +234,27 @@ def band_edges(f: np.ndarray, swr_values: np.ndarray, f0: float, limit: float) -
 
 def solve(design: Design) -> Solution:
     """Solve a design: dimensions, sweep, voltages, efficiency, sensitivities, choke, exposure."""
+    try:
+        return _solve(design)
+    except BuildsheetError as exc:  # physics refusals carry no file: name the design's
+        raise exc.located(file=design.path)
+
+
+def _solve(design: Design) -> Solution:
     ant = antenna_model(design)
     f0 = design.frequency_hz
     z_feed = design.feed.impedance_ohm
     try:
-        radiator = jpole.resonant_radiator_length(f0, ant)
-        stub, tap = jpole.solve_match(f0, z_feed, ant, radiator)
+        # a search that wanders outside the physical region is refused below; its numpy warnings
+        # would only be noise on the user's terminal
+        with np.errstate(all="ignore"):
+            radiator = jpole.resonant_radiator_length(f0, ant)
+            stub, tap = jpole.solve_match(f0, z_feed, ant, radiator)
     except ValueError as exc:
-        raise DesignError(f"cannot be matched: {exc}", file=design.path, key="stub.line") from None
+        why = " ".join(str(exc).split())
+        raise DesignError(f"cannot be matched to {z_feed:g} ohm with this line and wire "
+                          f"(a very lossy or unusual line?): {why}",
+                          file=design.path, key="stub.line") from None
 
     low, high = design.band_hz
     f = np.linspace(low * (1 - SWEEP_MARGIN), high * (1 + SWEEP_MARGIN), SWEEP_POINTS)
