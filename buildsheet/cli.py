@@ -58,7 +58,102 @@ def _parser() -> argparse.ArgumentParser:
     p = sub.add_parser("history", help="revisions of a design from git, with the key dimensions")
     p.add_argument("design", metavar="DESIGN")
     p.set_defaults(run=_history)
+
+    p = sub.add_parser("build", help="write the PDF build sheet and the SVG figures")
+    p.add_argument("design", metavar="DESIGN")
+    p.add_argument("-o", "--output", metavar="DIR", help="output folder (default: out/<name>/)")
+    _output_options(p, paper=True)
+    p.set_defaults(run=_build)
+
+    p = sub.add_parser("draw", help="write the SVG figures of a design")
+    p.add_argument("design", metavar="DESIGN")
+    p.add_argument("-o", "--output", metavar="DIR", help="output folder (default: out/<name>/)")
+    _output_options(p)
+    p.set_defaults(run=_draw)
+
+    p = sub.add_parser("fit", help="fit the model to a sweep measured at the tap; how to move the short "
+                       "and the tap")
+    p.add_argument("design", metavar="DESIGN")
+    p.add_argument("sweep", metavar="SWEEP", help="Touchstone 1-port (.s1p) or CSV of frequency, R, X")
+    p.add_argument("--json", action="store_true", help="print the fit and the advice as one JSON object (SI)")
+    p.add_argument("--write", action="store_true",
+                   help="store the fitted calibration in the design file (backup kept as DESIGN.bak)")
+    p.add_argument("--units", choices=("imperial", "metric"), help="override the design's output.units")
+    p.add_argument("--date", metavar="YYYY-MM-DD",
+                   help="date of the sweep stored with --write (default: the sweep file's date)")
+    p.set_defaults(run=_fit)
     return parser
+
+
+def _fit(args) -> int:
+    import json
+
+    from buildsheet.fit import fit_sweep, fit_text, write_calibration
+    from buildsheet.touchstone import read_sweep
+
+    design = _load(args)
+    fit = fit_sweep(design, read_sweep(args.sweep))
+    written = write_calibration(args.design, fit, args.date) if args.write else None
+    if args.json:
+        print(json.dumps(fit.to_dict(written), indent=1, allow_nan=False))
+    else:
+        print(fit_text(fit, written), end="")
+    return 0
+
+
+def _draw(args) -> int:
+    import os
+
+    from buildsheet.design import revision_date
+    from buildsheet.drawing.figures import figures
+    from buildsheet.solve import solve
+    from buildsheet.writers.files import write_many_atomic
+    from buildsheet.writers.svg import render_svg
+
+    design = _load(args)
+    date = revision_date(args.design, args.date)
+    solution = solve(design)
+    out = args.output or os.path.join("out", design.name)
+    files = {os.path.join(out, f"{design.name}-{key}.svg"): render_svg(drawing)
+             for key, drawing in figures(design, solution, date).items()}
+    try:
+        os.makedirs(out, exist_ok=True)
+        write_many_atomic(files)   # all or nothing: an interrupted run keeps the previous files
+    except OSError as exc:
+        raise BuildsheetError(f"cannot write the figures: {exc.strerror or exc}", file=out) from None
+    for path in files:
+        print(path)
+    return 0
+
+
+def _build(args) -> int:
+    import os
+
+    from buildsheet.design import revision_date
+    from buildsheet.drawing.figures import figures
+    from buildsheet.sheet import build_sheet
+    from buildsheet.solve import solve
+    from buildsheet.writers.files import write_many_atomic
+    from buildsheet.writers.pdf import render_pdf
+    from buildsheet.writers.svg import render_svg
+
+    design = _load(args)
+    date = revision_date(args.design, args.date)
+    solution = solve(design)
+    drawings = figures(design, solution, date)
+    out = args.output or os.path.join("out", design.name)
+    files = {os.path.join(out, f"{design.name}.pdf"): render_pdf(build_sheet(design, solution, date),
+                                                                  drawings)}
+    files.update({os.path.join(out, f"{design.name}-{key}.svg"): render_svg(drawing)
+                  for key, drawing in drawings.items()})
+    try:
+        os.makedirs(out, exist_ok=True)
+        write_many_atomic(files)   # all or nothing: an interrupted build keeps the previous files
+    except OSError as exc:
+        raise BuildsheetError(f"cannot write the build sheet: {exc.strerror or exc}", file=out) from None
+    print(f"{out}: {design.name}.pdf and {len(drawings)} SVG figures, document {solution.design_id}, "
+          f"revised {date}")
+    return 0
 
 
 def _record(args) -> int:

@@ -1,0 +1,1079 @@
+"""Figures of one antenna: turns a Design and its Solution into format-neutral Drawings (overview,
+radiator, stub, short and tap, choke, SWR, Smith chart); owns their layout and wording, computes no
+physics, renders and writes nothing.
+
+Every length printed comes from the Solution (or, for the site, the Design) through
+units.format_length in the design's units; the rounding is stated in the title strip of each figure
+that prints a length.
+Drawing coordinates are points with y down (shapes.py). Symbols used in the layout code:
+  x_j, x_o   page x of the stub's radiator-side conductor and of the other conductor
+  y_top      page y of the stub's open top (the junction)
+  y_tap, y_short, y_g   page y of the tap point, the short's centre line, the ground line
+  theta      drawn slope of a sloper's radiator below horizontal, rad
+"""
+
+from __future__ import annotations
+
+import functools
+import math
+from dataclasses import dataclass
+
+import numpy as np
+
+from buildsheet import fonts, units
+from buildsheet.design import Design
+from buildsheet.drawing import plots
+from buildsheet.drawing.shapes import (TEXT_GAP, TEXT_SIZE, THIN, Arc, Box, BreakMark, Circle,
+                                       Dimension, Drawing, Hatch, Leader, Line, Polyline, Rect, Text,
+                                       clip_segment)
+from buildsheet.solve import RIGID_DIAMETER_M, Solution
+
+#: figure keys in the order a builder reads them (also the order of the SVG files)
+FIGURES = ("overview", "radiator", "stub", "short-tap", "choke", "swr", "smith")
+
+WIDTH = 500.0          # figure width, points: fits the text width of letter and A4 pages unscaled
+SMITH_WIDTH = 380.0
+SWR_HEIGHT = 270.0
+PAD = 6.0              # clearance to the drawing's edge
+LABEL = 7.5            # size of callout texts
+CAPTION = 10.0
+CONDUCTOR = 1.3        # radiator wire and stub conductors
+COAX = 2.6
+LEAD = 0.9             # tap leads
+ROPE = 0.6
+ROPE_DASH = (3.0, 1.8)
+CENTRE_DASH = (8.0, 2.0, 2.0, 2.0)   # centre lines (long dash, dot)
+INSULATOR_GREY = 0.78
+SUPPORT_GREY = 0.9
+WEB_GREY = 0.86
+COAX_GREY = 0.8        # the coax jacket where the coax is drawn as a band
+MAX_DRAWN_SLOPE = math.radians(60)   # steeper slopers are drawn at this angle (labelled true)
+
+
+# ---------------------------------------------------------------- text helpers
+
+def _line_height(size: float) -> float:
+    return fonts.ascent(size) + fonts.descent(size) + 1.0
+
+
+@functools.lru_cache(maxsize=4096)
+def _width(text: str, size: float = TEXT_SIZE, bold: bool = False) -> float:
+    return fonts.text_width(text, size, bold)
+
+
+def _wrap(text: str, width: float, size: float, bold: bool = False) -> list[str]:
+    """Words of `text` in lines no wider than `width` points (a single word wider than that stands
+    alone on its line)."""
+    lines: list[str] = []
+    current = ""
+    for word in text.split():
+        trial = f"{current} {word}" if current else word
+        if current and _width(trial, size, bold) > width:
+            lines.append(current)
+            current = word
+        else:
+            current = trial
+    if current:
+        lines.append(current)
+    return lines
+
+
+def _fitted_size(text: str, width: float, size: float, bold: bool = False) -> float:
+    """`size`, or smaller so that `text` fits `width` points (for words that cannot wrap)."""
+    w = _width(text, size, bold)
+    return size if w <= width else size * width / w * 0.999
+
+
+# ---------------------------------------------------------------- label placement
+
+def _segments_of(p) -> list[tuple]:
+    """Straight pieces of a primitive's outline (circles and arcs as polygons)."""
+    if isinstance(p, Line):
+        return [((p.x1, p.y1), (p.x2, p.y2))]
+    if isinstance(p, Polyline):
+        pts = list(p.points) + ([p.points[0]] if p.closed else [])
+        return list(zip(pts, pts[1:]))
+    if isinstance(p, (Circle, Arc)):
+        start, extent = (0.0, 360.0) if isinstance(p, Circle) else (p.start, p.extent)
+        n = 24
+        pts = [(p.cx + p.r * math.cos(math.radians(start + extent * k / n)),
+                p.cy - p.r * math.sin(math.radians(start + extent * k / n))) for k in range(n + 1)]
+        return list(zip(pts, pts[1:]))
+    return []
+
+
+def _runs_along(p1, p2, q1, q2) -> bool:
+    """True when segment q1-q2 runs within 1.5 points of segment p1-p2 and nearly parallel to it
+    for more than 2 points (a leader drawn along a line would be lost in it)."""
+    dx, dy = p2[0] - p1[0], p2[1] - p1[1]
+    n = math.hypot(dx, dy)
+    ex, ey = q2[0] - q1[0], q2[1] - q1[1]
+    m = math.hypot(ex, ey)
+    if n < 1e-9 or m < 1e-9 or abs(dx * ey - dy * ex) / (n * m) > 0.1:
+        return False
+    ux, uy = dx / n, dy / n
+    if abs((q1[0] - p1[0]) * uy - (q1[1] - p1[1]) * ux) > 1.5:
+        return False
+    t = sorted(((q[0] - p1[0]) * ux + (q[1] - p1[1]) * uy) for q in (q1, q2))
+    return min(t[1], n) - max(t[0], 0.0) > 2.0
+
+
+def _box_array(boxes: list[Box]) -> np.ndarray:
+    return np.array([(b.x0, b.y0, b.x1, b.y1) for b in boxes]).reshape(-1, 4)
+
+
+def _any_overlap(box: Box, a: np.ndarray, tol: float = 0.01) -> bool:
+    """True when `box` overlaps any of the boxes (rows x0, y0, x1, y1 of `a`) by more than `tol`,
+    as Box.overlaps."""
+    return bool(np.any((np.minimum(a[:, 2], box.x1) - np.maximum(a[:, 0], box.x0) > tol)
+                       & (np.minimum(a[:, 3], box.y1) - np.maximum(a[:, 1], box.y0) > tol)))
+
+
+def _cross(p1, p2, q1, q2) -> bool:
+    """True when segments p1-p2 and q1-q2 cross each other (touching does not count)."""
+    def orient(a, b, c):
+        return (b[0] - a[0]) * (c[1] - a[1]) - (b[1] - a[1]) * (c[0] - a[0])
+    d1, d2 = orient(q1, q2, p1), orient(q1, q2, p2)
+    d3, d4 = orient(p1, p2, q1), orient(p1, p2, q2)
+    return d1 * d2 < 0 and d3 * d4 < 0
+
+
+class _Sheet:
+    """The items of one figure body, with what they occupy, so that callouts can be put where they
+    cross nothing already drawn."""
+
+    def __init__(self, width: float, height: float):
+        self.items: list = []
+        self.area = Box(PAD / 2, PAD / 2, width - PAD / 2, height - PAD / 2)
+        self._segments: list = []
+        self._texts: list[Box] = []
+        self._solids: list[Box] = []
+        self._leaders: list = []
+        self._index = None
+        self._arrays = None
+
+    def add(self, *items) -> None:
+        self._arrays = None
+        for item in items:
+            self.items.append(item)
+            for p in item.primitives():
+                if isinstance(p, Text):
+                    self._texts.append(p.bbox())
+                    continue
+                self._segments += _segments_of(p)
+                self._index = None
+                fill = getattr(p, "fill", None)
+                if fill is not None and fill < 0.999:
+                    self._solids.append(p.bbox())
+
+    def _near(self, box: Box) -> list:
+        """The segments whose bounding boxes meet `box` (a quick filter before exact tests)."""
+        if self._index is None:
+            a = np.array([(p[0], p[1], q[0], q[1]) for p, q in self._segments]).reshape(-1, 4)
+            self._index = (np.minimum(a[:, 0], a[:, 2]), np.maximum(a[:, 0], a[:, 2]),
+                           np.minimum(a[:, 1], a[:, 3]), np.maximum(a[:, 1], a[:, 3]))
+        x0, x1, y0, y1 = self._index
+        hits = np.flatnonzero((x0 <= box.x1) & (x1 >= box.x0) & (y0 <= box.y1) & (y1 >= box.y0))
+        return [self._segments[i] for i in hits]
+
+    def _text_array(self) -> np.ndarray:
+        if self._arrays is None:
+            self._arrays = (_box_array(self._texts), _box_array(self._solids))
+        return self._arrays[0]
+
+    def free(self, box: Box, strict: bool = True) -> bool:
+        """True when `box` lies in the body, overlaps no text or filled area, and (strict) no line
+        passes within 1 point of it."""
+        if not box.within(self.area):
+            return False
+        grown = Box(box.x0 - 1, box.y0 - 1, box.x1 + 1, box.y1 + 1)
+        if _any_overlap(grown, self._text_array()) or _any_overlap(box, self._arrays[1]):
+            return False
+        return not strict or all(clip_segment(p, q, grown) is None for p, q in self._near(grown))
+
+    def _leader_ok(self, p, q) -> bool:
+        """A leader p-q crosses no text, runs along no line and crosses no other leader."""
+        reach = Box(min(p[0], q[0]) - 2, min(p[1], q[1]) - 2, max(p[0], q[0]) + 2, max(p[1], q[1]) + 2)
+        texts = self._text_array()
+        near = np.flatnonzero((texts[:, 0] <= reach.x1) & (texts[:, 2] >= reach.x0)
+                              & (texts[:, 1] <= reach.y1) & (texts[:, 3] >= reach.y0))
+        if any(clip_segment(p, q, self._texts[i]) is not None for i in near):
+            return False
+        if any(_runs_along(p, q, a, b) for a, b in self._near(reach)):
+            return False
+        return not any(_cross(p, q, a, b) for a, b in self._leaders)
+
+    def _crossings(self, p, q) -> int:
+        u = (q[0] - p[0], q[1] - p[1])
+        n = math.hypot(*u) or 1.0
+        start = (p[0] + u[0] / n * 2.5, p[1] + u[1] / n * 2.5)    # past the target's own line
+        reach = Box(min(p[0], q[0]), min(p[1], q[1]), max(p[0], q[0]), max(p[1], q[1]))
+        return sum(1 for a, b in self._near(reach) if _cross(start, q, a, b))
+
+    def callout(self, x: float, y: float, lines, angles=(135, 225, 45, 315, 180, 0, 90, 270),
+                radii=(20, 30, 42, 56, 72, 90), size: float = LABEL, end: str = "arrow") -> None:
+        """Add a leader from the point (x, y) to a label of one or more lines, at the first of the
+        candidate positions (radius-major; angles in degrees counter-clockwise from the right) whose
+        text crosses nothing, preferring leaders that cross the fewest lines."""
+        lines = [lines] if isinstance(lines, str) else list(lines)
+        angles = tuple(angles) + tuple(a for a in range(0, 360, 30) if a not in angles)
+        widths = [_width(t, size) for t in lines]
+        for strict in (True, False):
+            best = None
+            for r in radii:
+                for a in angles:
+                    tx = x + r * math.cos(math.radians(a))
+                    ty = y - r * math.sin(math.radians(a))
+                    boxes = _callout_boxes(tx, ty, tx >= x, widths, size)
+                    if not all(self.free(b, strict) for b in boxes):
+                        continue
+                    if not self._leader_ok((x, y), (tx, ty)):
+                        continue
+                    n = self._crossings((x, y), (tx, ty))
+                    if best is None or n < best[0]:
+                        best = (n, (tx, ty))
+                if best is not None and best[0] == 0:
+                    break
+            if best is not None:
+                self.add(*_callout_items(x, y, *best[1], lines, size, end))
+                self._leaders.append(((x, y), best[1]))
+                return
+        raise ValueError(f"no room for the label {lines[0]!r} near ({x:.0f}, {y:.0f})")
+
+    def place_group(self, candidates: list[list], what: str) -> None:
+        """Add the first of the candidate groups of shapes whose box, with 4 points around it,
+        crosses nothing already drawn."""
+        for group in candidates:
+            box = group[0].bbox()
+            for item in group[1:]:
+                box = box.union(item.bbox())
+            if self.free(Box(box.x0 - 4, box.y0 - 4, box.x1 + 4, box.y1 + 4)):
+                self.add(*group)
+                return
+        raise ValueError(f"no room for {what}")
+
+    def place_text(self, candidates, lines, size: float = LABEL, bold: bool = False) -> None:
+        """Add a block of left-aligned lines at the first candidate top-left corner where it
+        crosses nothing."""
+        lines = [lines] if isinstance(lines, str) else list(lines)
+        for strict in (True, False):
+            for x, y in candidates:
+                block = _text_block(x, y, lines, size, bold)
+                if all(self.free(t.bbox(), strict) for t in block):
+                    self.add(*block)
+                    return
+        raise ValueError(f"no room for the text {lines[0]!r}")
+
+
+def _callout_boxes(tx: float, ty: float, rightward: bool, widths, size: float) -> list[Box]:
+    """The text boxes of _callout_items for lines of the given widths (computed without building
+    the shapes, for trying many positions quickly)."""
+    asc, desc = fonts.ascent(size), fonts.descent(size)
+    base = ty + (asc - desc) / 2
+    out = []
+    for k, w in enumerate(widths):
+        x0 = tx + TEXT_GAP if rightward else tx - TEXT_GAP - w
+        yk = base + k * _line_height(size)
+        out.append(Box(x0, yk - asc, x0 + w, yk + desc))
+    return out
+
+
+def _callout_items(x, y, tx, ty, lines, size, end) -> list:
+    items: list = [Leader(x, y, tx, ty, lines[0], size, end)]
+    rightward = tx >= x
+    base = ty + (fonts.ascent(size) - fonts.descent(size)) / 2
+    for k, text in enumerate(lines[1:], 1):
+        yk = base + k * _line_height(size)
+        items.append(Text(tx + TEXT_GAP, yk, text, size) if rightward
+                     else Text(tx - TEXT_GAP, yk, text, size, "end"))
+    return items
+
+
+def _text_block(x: float, y: float, lines, size: float, bold: bool = False) -> list[Text]:
+    """Left-aligned lines of text starting at x, the first line's box top at y."""
+    first = y + fonts.ascent(size, bold)
+    return [Text(x, first + k * _line_height(size), t, size, bold=bold) for k, t in enumerate(lines)]
+
+
+# ---------------------------------------------------------------- parts
+
+def _vdim(x: float, y_low: float, y_high: float, text: str, right: float) -> Dimension:
+    """Vertical dimension of the points (x, y_low) below and (x, y_high) above, its dimension line
+    `right` points to the right of x."""
+    return Dimension(x, y_low, x, y_high, text, -right)
+
+
+def _ground(x0: float, x1: float, y: float) -> list:
+    return [Hatch(x0, y, x1 - x0, 5.0, spacing=4.0, angle=-45.0), Line(x0, y, x1, y, width=1.0)]
+
+
+def _pole(x: float, y_top: float, y_ground: float, w: float = 7.0) -> Rect:
+    return Rect(x - w / 2, y_top, w, y_ground - y_top, width=0.75, fill=SUPPORT_GREY)
+
+
+def _along(p, u, d):
+    return (p[0] + u[0] * d, p[1] + u[1] * d)
+
+
+def _insulator(p, u, length: float = 16.0, half: float = 3.2) -> Polyline:
+    """An insulator from point p along unit direction u."""
+    n = (u[1], -u[0])
+    q = _along(p, u, length)
+    return Polyline(((p[0] + n[0] * half, p[1] + n[1] * half), (q[0] + n[0] * half, q[1] + n[1] * half),
+                     (q[0] - n[0] * half, q[1] - n[1] * half), (p[0] - n[0] * half, p[1] - n[1] * half)),
+                    closed=True, fill=INSULATOR_GREY, width=0.75)
+
+
+def _coil_symbol(cx: float, y0: float, length: float, turns: int, w: float = 11.0) -> list:
+    """A small coil of coax on a form, axis vertical from y0 down `length` points (overview and
+    stub figures): the form and slanted turns."""
+    out: list = [Rect(cx - w / 2 + 1.5, y0, w - 3, length, width=0.6, fill=SUPPORT_GREY)]
+    k = max(1, min(turns, 7))      # a symbol: up to 7 turns drawn, the count is in a label
+    pitch = length / (k + 0.5)
+    for i in range(k):
+        ya = y0 + pitch * (i + 0.5)
+        out.append(Line(cx - w / 2, ya + pitch / 2, cx + w / 2, ya, width=1.6))
+    return out
+
+
+def _station(x0: float, y_g: float, w: float = 46.0, h: float = 24.0) -> list:
+    """A small house standing on the ground at y_g, left wall at x0, with its name inside."""
+    roof = 12.0
+    house = Polyline(((x0, y_g), (x0, y_g - h), (x0 + w / 2, y_g - h - roof), (x0 + w, y_g - h),
+                      (x0 + w, y_g)), width=0.75)
+    label = Text(x0 + w / 2, y_g - h / 2 + 3, "station", LABEL, "middle")
+    return [house, label]
+
+
+def _is_rigid(diameter_m: float) -> bool:
+    return diameter_m >= RIGID_DIAMETER_M
+
+
+# ---------------------------------------------------------------- context and title strip
+
+@dataclass(frozen=True)
+class _Context:
+    design: Design
+    solution: Solution
+    date: str
+
+    @property
+    def units(self) -> str:
+        return self.design.output.units
+
+    def length(self, m: float) -> str:
+        return units.format_length(m, self.units)
+
+    def rounding_note(self) -> str:
+        system = "feet and inches" if self.units == "imperial" else "metres and millimetres"
+        return f"Dimensions in {system}, {units.length_rounding(self.units)}."
+
+    def wire_text(self) -> str:
+        """The radiator wire as a builder buys it: the gauge as written, else its diameter."""
+        r = self.design.radiator
+        label = r.label.strip()
+        size = label if ("awg" in label.lower() or label.startswith("#")) else \
+            f"{self.length(r.diameter_m)} dia."
+        insulation = "" if r.insulation == "bare" else f", {r.insulation} insulated"
+        return f"{size} {r.material}{insulation}"
+
+
+def _strip(ctx: _Context, caption: str, notes: list[str], width: float, top: float) -> tuple[list, float]:
+    """Title strip across the bottom of a figure: caption, design title and notes on the left;
+    name, document ID and revision date on the right (below, when the figure is too narrow)."""
+    x0, inner = PAD, width - 2 * PAD
+    pad = 5.0
+    value_size, key_size = 8.0, 6.5
+    rows = [("name", ctx.design.name), ("document", ctx.solution.design_id), ("revised", ctx.date)]
+    key_w = max(_width(k, key_size) for k, _ in rows)
+    value_sizes = [_fitted_size(v, inner - 2 * pad - key_w - 4, value_size, True) for _, v in rows]
+    right_w = key_w + 4 + max(_width(v, s, True) for (_, v), s in zip(rows, value_sizes))
+    side_by_side = inner - 2 * pad - right_w - 3 * pad >= 0.5 * inner
+    left_w = inner - 2 * pad - (right_w + 3 * pad if side_by_side else 0)
+
+    items: list = []
+    y = top + pad
+    cap_lines = _wrap(caption, left_w, CAPTION, True)
+    title_lines = _wrap(ctx.design.title, left_w, value_size)
+    note_lines = [line for note in notes for line in _wrap(note, left_w, 7.0)]
+    for lines, size, bold in ((cap_lines, CAPTION, True), (title_lines, value_size, False),
+                              (note_lines, 7.0, False)):
+        for line in lines:
+            s = _fitted_size(line, left_w, size, bold)
+            items.append(Text(x0 + pad, y + fonts.ascent(s, bold), line, s, bold=bold))
+            y += _line_height(size)
+        y += 1.0
+    left_bottom = y
+
+    row_h = _line_height(value_size) + 1.0
+    if side_by_side:
+        xr = x0 + inner - pad - right_w
+        ry = top + pad
+    else:
+        xr = x0 + pad
+        ry = left_bottom + 2.0
+    for (key, value), s in zip(rows, value_sizes):
+        base = ry + fonts.ascent(value_size, True)
+        items.append(Text(xr, base, key, key_size))
+        items.append(Text(xr + key_w + 4, base, value, s, bold=True))
+        ry += row_h
+    bottom = max(left_bottom, ry) + pad - 1.0
+    height = bottom - top
+    items.insert(0, Rect(x0, top, inner, height, width=0.75))
+    if side_by_side:
+        xd = xr - 1.5 * pad
+        items.insert(1, Line(xd, top, xd, bottom, width=THIN))
+    return items, height + PAD
+
+
+def _finish(ctx: _Context, caption: str, body: list, body_height: float, notes: list[str],
+            width: float = WIDTH) -> Drawing:
+    strip, strip_height = _strip(ctx, caption, notes, width, body_height)
+    return Drawing(width, body_height + strip_height, [*body, *strip],
+                   f"{ctx.design.name}: {caption}")
+
+
+# ---------------------------------------------------------------- overview
+
+def _overview(ctx: _Context) -> Drawing:
+    if ctx.design.site.orientation == "vertical":
+        sheet, h = _overview_vertical(ctx)
+    else:
+        sheet, h = _overview_hanging(ctx)
+    notes = ["Not to scale: long spans are drawn shortened (break marks).", ctx.rounding_note()]
+    slope = ctx.design.site.slope_rad
+    if ctx.design.site.orientation == "sloper" and slope > MAX_DRAWN_SLOPE:
+        notes.insert(1, f"The slope is drawn at {units.format_angle(MAX_DRAWN_SLOPE)}; "
+                        f"it is {units.format_angle(slope)}.")
+    return _finish(ctx, "Overview: the antenna as installed", sheet.items, h, notes)
+
+
+def _stub_and_feed(sheet: _Sheet, ctx: _Context, x_j: float, x_o: float, y_top: float,
+                   y_tap: float, y_short: float, y_end: float, coax_to: tuple) -> float:
+    """Stub conductors (broken between the open top and the tap), short, tap, and the coax from the
+    tap down past the short through the choke, then along `coax_to` (points); returns the page y of
+    the choke's top."""
+    y_break = (y_top + y_tap) / 2
+    at = (y_break - y_top) / (y_end - y_top)
+    for x in (x_j, x_o):
+        sheet.add(BreakMark(x, y_top, x, y_end, at=at, size=3.5, width=CONDUCTOR))
+    x_mid = (x_j + x_o) / 2
+    y_choke = y_end + 8.0
+    sheet.add(Line(x_j, y_short, x_o, y_short, width=2.4))
+    sheet.add(Line(x_mid, y_tap + 2.0, x_mid, y_short - 3.0, width=COAX))
+    sheet.add(Line(x_mid, y_short + 3.0, x_mid, y_choke, width=COAX))
+    sheet.add(Line(x_j + 1.0, y_tap, x_mid, y_tap + 2.0, width=LEAD),
+              Line(x_o - 1.0, y_tap, x_mid, y_tap + 2.0, width=LEAD))
+    sheet.add(Circle(x_j, y_tap, 1.8, width=0, fill=0.0), Circle(x_o, y_tap, 1.8, width=0, fill=0.0))
+    sheet.add(Circle(x_j, y_top, 2.0, width=0, fill=0.0))
+    sheet.add(*_coil_symbol(x_mid, y_choke, 26.0, ctx.solution.choke.turns))
+    sheet.add(Polyline(((x_mid, y_choke + 26.0), *coax_to), width=COAX))
+    return y_choke
+
+
+def _feed_callouts(sheet: _Sheet, ctx: _Context, x_j: float, x_o: float, y_tap: float,
+                   y_short: float, y_choke: float, y_coax: float) -> None:
+    x_mid = (x_j + x_o) / 2
+    sheet.callout(x_j, y_short, ["short"], angles=(200, 180, 225, 160))
+    sheet.callout(x_j, y_tap, ["tap"], angles=(160, 180, 135, 200))
+    sheet.callout(x_mid - 5.5, y_choke + 13.0, ["choke at the tap"], angles=(180, 200, 160, 225))
+    d = ctx.design
+    sheet.callout(x_mid, (y_choke + 26.0 + y_coax) / 2,
+                  [f"coax {d.feed.coax}, {ctx.length(d.feed.length_m)}", "to the station"],
+                  angles=(180, 200, 160, 135, 225))
+
+
+def _overview_hanging(ctx: _Context) -> tuple[_Sheet, float]:
+    """Horizontal or sloper: far support, rope, end insulator, radiator (broken), stub hanging from
+    the open top, coax down from the tap through the choke to the ground and the station."""
+    d, s = ctx.design, ctx.solution
+    dims = s.dimensions
+    L = ctx.length
+    sloper = d.site.orientation == "sloper"
+    x_j, x_o = 318.0, 330.0
+    y_top = 78.0
+    tap_text = f"tap {L(dims.tap)}"
+    tap_span = max(48.0, _width(tap_text) + 18.0)
+    y_short = y_top + 176.0
+    y_tap = y_short - tap_span
+    y_end = y_short + 7.0
+    y_g = y_end + 8.0 + 62.0
+    body_h = y_g + 26.0
+    sheet = _Sheet(WIDTH, body_h)
+    sheet.add(*_ground(PAD, WIDTH - PAD, y_g))
+
+    # far end: insulator, rope, support
+    if sloper:
+        theta = min(d.site.slope_rad, MAX_DRAWN_SLOPE)
+        u = (-math.cos(theta), math.sin(theta))
+        reach = min((x_j - 130.0) / math.cos(theta), (y_g - 64.0 - y_top) / math.sin(theta))
+        far = _along((x_j, y_top), u, reach)
+        rope_len = max(10.0, min(34.0, (y_g - 22.0 - far[1]) / math.sin(theta) - 16.0))
+        ins_end = _along(far, u, 16.0)
+        support = _along(ins_end, u, rope_len)
+        rope_mid = _along(ins_end, u, rope_len / 2)
+        sheet.add(Line(*ins_end, *support, width=ROPE, dash=ROPE_DASH))
+        sheet.add(_pole(support[0], support[1] - 2.0, y_g, 6.0))
+        support_name = "post"
+    else:
+        u = (-1.0, 0.0)
+        far = (100.0, y_top)
+        ins_end = _along(far, u, 16.0)
+        support = (30.0, y_top - 30.0)
+        rope_mid = ((ins_end[0] + support[0]) / 2, (ins_end[1] + support[1] + 4.0) / 2)
+        sheet.add(Line(*ins_end, support[0], support[1] + 4.0, width=ROPE, dash=ROPE_DASH))
+        sheet.add(_pole(support[0], support[1], y_g))
+        support_name = "support"
+    sheet.add(_insulator(far, u))
+    sheet.add(BreakMark(far[0], far[1], x_j, y_top, at=0.5, width=CONDUCTOR))
+    sheet.add(Dimension(far[0], far[1], x_j, y_top, f"radiator {L(dims.radiator)}", 22.0))
+
+    # near support: rope from the other conductor's open top, up to the right-hand pole
+    pole_r = WIDTH - 22.0
+    pole_top = y_top - 52.0
+    dx, dy = pole_r - x_o, pole_top - y_top
+    ur = (dx / math.hypot(dx, dy), dy / math.hypot(dx, dy))
+    tie = _along((x_o, y_top), ur, 9.0)
+    sheet.add(Line(x_o, y_top, *tie, width=ROPE))
+    sheet.add(_insulator(tie, ur))
+    sheet.add(Line(*_along(tie, ur, 16.0), pole_r, pole_top + 3.0, width=ROPE, dash=ROPE_DASH))
+    sheet.add(_pole(pole_r, pole_top, y_g))
+
+    # stub and feed: the coax runs to a station beside the right-hand support
+    x_h = pole_r - 22.0
+    station_x = x_h - 74.0
+    y_coax = y_g - 4.0
+    x_mid = (x_j + x_o) / 2
+    y_choke = _stub_and_feed(sheet, ctx, x_j, x_o, y_top, y_tap, y_short, y_end,
+                             ((x_mid, y_coax), (station_x, y_coax)))
+    sheet.add(*_station(station_x, y_g))
+
+    # dimensions right of the stub, the height at the far right
+    sheet.add(_vdim(x_o, y_short, y_tap, tap_text, 16.0))
+    sheet.add(_vdim(x_o, y_short, y_top, f"stub {L(dims.stub)}", 38.0))
+    sheet.add(Line(x_o + 1.5, y_top, x_h + 2.0, y_top, width=THIN))
+    sheet.add(Dimension(x_h, y_g, x_h, y_top, f"height {L(d.site.height_m)}", 0.0))
+
+    # callouts
+    sheet.add(Text(pole_r, pole_top - 4.0, "support", LABEL, "end"))
+    if sloper:
+        _slope_mark(sheet, ctx, far, theta)
+        sheet.callout(support[0], support[1], [support_name], angles=(180, 200, 160, 135))
+    else:
+        sheet.add(Text(support[0], support[1] - 4.0, support_name, LABEL, "middle"))
+    sheet.callout(*_along(far, u, 8.0), ["end insulator"], angles=(250, 270, 225, 290, 135))
+    sheet.callout(*rope_mid, ["rope"], angles=(270, 240, 300, 200, 90), radii=(16, 24, 34, 46))
+    sheet.callout(x_j, y_top, ["open top: radiator on", "one conductor only"],
+                  angles=(225, 200, 250, 135, 160))
+    _feed_callouts(sheet, ctx, x_j, x_o, y_tap, y_short, y_choke, y_coax)
+    sheet.add(Text(PAD + 2.0, y_g + 16.0, "ground", LABEL))
+    return sheet, body_h
+
+
+def _slope_mark(sheet: _Sheet, ctx: _Context, far, theta: float) -> None:
+    """Horizontal reference, arc and the true slope angle at the far end of a sloper."""
+    r = 40.0
+    x, y = far
+    sheet.add(Line(x + 2.0, y, x + r + 12.0, y, width=THIN, dash=(2.0, 2.0)))
+    sheet.add(Arc(x, y, r, 0.0, math.degrees(theta), width=THIN))
+    label = f"slope {units.format_angle(ctx.design.site.slope_rad)}"
+    mid = math.radians(math.degrees(theta) / 2)
+    sheet.callout(x + r * math.cos(mid), y - r * math.sin(mid), [label],
+                  angles=(330, 0, 300, 30), radii=(14, 22, 32, 44), end="dot")
+
+
+def _overview_vertical(ctx: _Context) -> tuple[_Sheet, float]:
+    """Vertical: the stub on a stand-off insulator beside the top of a mast, the radiator straight up
+    from one conductor, the coax down from the tap through the choke and along the mast."""
+    d, s = ctx.design, ctx.solution
+    dims = s.dimensions
+    L = ctx.length
+    wire = not _is_rigid(d.radiator.diameter_m)
+    x_j, x_o = 200.0, 212.0
+    x_mid = (x_j + x_o) / 2
+    y_end_top = 62.0 if wire else 40.0
+    y_top = y_end_top + 116.0
+    tap_text = f"tap {L(dims.tap)}"
+    tap_span = max(48.0, _width(tap_text) + 18.0)
+    y_short = y_top + 150.0
+    y_tap = y_short - tap_span
+    y_end = y_short + 22.0
+    y_g = y_end + 8.0 + 84.0
+    body_h = y_g + 26.0
+    sheet = _Sheet(WIDTH, body_h)
+    sheet.add(*_ground(PAD, WIDTH - PAD, y_g))
+
+    # mast beside the stub, stand-off insulator below the short
+    x_m = x_o + 16.0
+    sheet.add(BreakMark(x_m, y_short + 4.0, x_m, y_g, at=0.55, width=3.0))
+    y_so = y_short + 15.0
+    sheet.add(Rect(x_o + 1.5, y_so - 2.5, x_m - x_o - 3.0, 5.0, width=0.6, fill=INSULATOR_GREY))
+
+    # radiator straight up from the radiator-side conductor
+    sheet.add(BreakMark(x_j, y_top, x_j, y_end_top, at=0.5, width=CONDUCTOR))
+    if wire:
+        sheet.add(_insulator((x_j, y_end_top), (0.0, -1.0)))
+        sheet.add(Line(x_j, y_end_top - 16.0, x_j, PAD + 4.0, width=ROPE, dash=ROPE_DASH))
+    station_x = 70.0
+    y_coax = y_g - 4.0
+    y_choke = _stub_and_feed(sheet, ctx, x_j, x_o, y_top, y_tap, y_short, y_end,
+                             ((x_mid, y_coax), (station_x + 46.0, y_coax)))
+    sheet.add(*_station(station_x, y_g))
+
+    # dimensions: the tap beside the stub; radiator, stub and height chained further out, leaving
+    # room between for the callouts of the open top
+    sheet.add(_vdim(x_o, y_short, y_tap, tap_text, 34.0))
+    x_c = x_o + 160.0
+    for y, x_from in ((y_end_top, x_j), (y_top, x_o), (y_short, x_o)):
+        sheet.add(Line(x_from + 1.5, y, x_c + 2.0, y, width=THIN))
+    sheet.add(Dimension(x_c, y_top, x_c, y_end_top, f"radiator {L(dims.radiator)}", 0.0))
+    sheet.add(Dimension(x_c, y_short, x_c, y_top, f"stub {L(dims.stub)}", 0.0))
+    sheet.add(Dimension(x_c, y_g, x_c, y_short, f"height {L(d.site.height_m)}", 0.0))
+
+    if wire:
+        sheet.callout(x_j, y_end_top - 8.0, ["top insulator"], angles=(180, 160, 200))
+        sheet.callout(x_j, (y_end_top - 16.0 + PAD + 4.0) / 2, ["rope up to a support"],
+                      angles=(180, 200, 160))
+    else:
+        sheet.callout(x_j, y_end_top, ["top end, free"], angles=(180, 200, 160))
+    sheet.callout(x_o, y_top + 2.0, ["open top: this conductor", "ends here (RF voltage)"],
+                  angles=(330, 345, 315, 30, 0))
+    sheet.callout(x_j, y_top - 30.0, ["the radiator continues", "from this conductor"],
+                  angles=(200, 180, 225, 160))
+    sheet.callout(x_o + 5.0, y_so + 2.5, ["stand-off insulator"], angles=(330, 315, 345, 300),
+                  radii=(30, 42, 56, 72))
+    sheet.callout(x_m, y_g - 24.0, ["mast"], angles=(20, 0, 40, 340), radii=(20, 30, 42, 56))
+    _feed_callouts(sheet, ctx, x_j, x_o, y_tap, y_short, y_choke, y_coax)
+    sheet.add(Text(PAD + 2.0, y_g + 16.0, "ground", LABEL))
+    return sheet, body_h
+
+
+# ---------------------------------------------------------------- radiator
+
+def _wrap_tail(x0: float, y: float, length: float) -> Polyline:
+    """The wire's end twisted back on itself: a tight zig-zag along the wire from x0 to the right
+    for `length` points."""
+    step = 2.5
+    k = int(length / step)
+    pts = [(x0 + i * step, y + (2.2 if i % 2 else -2.2)) for i in range(k)] + [(x0 + length, y)]
+    return Polyline(pts, width=0.6)
+
+
+def _radiator(ctx: _Context) -> Drawing:
+    """Radiator as installed (attachment point to attachment point) and as cut (with the wrap or
+    cutting allowance at each end)."""
+    d, s = ctx.design, ctx.solution
+    L = ctx.length
+    rigid = _is_rigid(d.radiator.diameter_m)
+    vertical = d.site.orientation == "vertical"
+    allowance = "allowance" if rigid else "wrap"
+    body_h = 262.0
+    sheet = _Sheet(WIDTH, body_h)
+
+    # as installed
+    y1 = 70.0
+    x_a, x_b = 96.0, 372.0
+    sheet.add(Text(PAD + 2.0, 20.0, "As installed", 9.0, bold=True))
+    sheet.add(BreakMark(x_a, y1, x_b, y1, at=0.5, width=CONDUCTOR))
+    if vertical and rigid:
+        sheet.add(Line(x_a, y1 - 4.0, x_a, y1 + 4.0, width=CONDUCTOR))
+        sheet.callout(x_a, y1, ["top end, free"], angles=(225, 200, 250))
+    else:
+        sheet.add(Rect(x_a - 34.0, y1 - 5.0, 32.0, 10.0, width=0.75, fill=INSULATOR_GREY))
+        sheet.add(Circle(x_a - 5.0, y1, 2.6, width=0.6, fill=1.0))
+        sheet.add(Circle(x_a, y1, 1.8, width=0, fill=0.0))
+        if not rigid:
+            sheet.add(_wrap_tail(x_a + 2.0, y1, 30.0))
+        sheet.callout(x_a - 18.0, y1 + 5.0, ["top end insulator" if vertical else "end insulator"],
+                      angles=(250, 270, 225, 290))
+        sheet.callout(x_a, y1 - 2.0, ["attachment point"], angles=(110, 135, 90), radii=(30, 40, 52))
+    # the stub's two conductors at its open top
+    x_other = x_b + 18.0
+    sheet.add(Line(x_b, y1, x_b, y1 + 44.0, width=CONDUCTOR),
+              Line(x_other, y1, x_other, y1 + 44.0, width=CONDUCTOR))
+    sheet.add(Circle(x_b, y1, 2.0, width=0, fill=0.0))
+    if not rigid:
+        sheet.add(Polyline([(x_b + (2.2 if k % 2 else -2.2), y1 + 2.0 + 2.5 * k) for k in range(10)],
+                           width=0.6))
+    sheet.add(Dimension(x_a, y1, x_b, y1, f"radiator {L(s.dimensions.radiator)}", 22.0))
+    sheet.callout(x_other, y1 + 22.0, ["the stub's open top:", "the radiator joins",
+                                       "one conductor only"], angles=(0, 330, 30), radii=(16, 24, 34))
+    if rigid:
+        join = "pipe joined or clamped to it"
+    elif _is_rigid(d.stub.conductor_diameter_m):
+        join = "wire clamped to it"
+    else:
+        join = "wire wrapped round it and soldered"
+    sheet.callout(x_b, y1 + 14.0, [join], angles=(200, 225, 180), radii=(30, 42, 56, 72))
+
+    # as cut
+    y2 = 184.0
+    sheet.add(Text(PAD + 2.0, 140.0, "As cut", 9.0, bold=True))
+    wrap_text = f"{allowance} {L(s.wrap_allowance_m)}"
+    w_d = max(60.0, _width(wrap_text) + 14.0)
+    x_c0, x_c1 = 60.0, 440.0
+    x_m0, x_m1 = x_c0 + w_d, x_c1 - w_d
+    sheet.add(BreakMark(x_c0, y2, x_c1, y2, at=0.5, width=CONDUCTOR))
+    for x in (x_m0, x_m1):
+        sheet.add(Line(x, y2 - 5.0, x, y2 + 5.0, width=0.9))
+    sheet.add(Dimension(x_c0, y2, x_m0, y2, wrap_text, 14.0))
+    sheet.add(Dimension(x_m0, y2, x_m1, y2, f"radiator {L(s.dimensions.radiator)}", 14.0))
+    sheet.add(Dimension(x_m1, y2, x_c1, y2, wrap_text, 14.0))
+    sheet.add(Dimension(x_c0, y2, x_c1, y2, f"cut length {L(s.radiator_cut_m)}", -16.0))
+    sheet.callout(x_m1, y2 + 5.0, ["mark the attachment points"], angles=(315, 290, 340),
+                  radii=(30, 42, 56))
+    sheet.place_text([(x_c0, y2 + 40.0), (PAD + 2.0, y2 + 40.0)],
+                     [f"wire: {ctx.wire_text()}"], size=LABEL)
+    notes = ["Not to scale: the radiator is drawn shortened (break marks).", ctx.rounding_note()]
+    if vertical:
+        notes.insert(0, "Drawn lying down: the left end is the top of the vertical.")
+    return _finish(ctx, "Radiator: length and cut", sheet.items, body_h, notes)
+
+
+# ---------------------------------------------------------------- stub
+
+def _web(sheet: _Sheet, ctx: _Context, x_j: float, x_o: float, spans, keep_clear) -> None:
+    """What holds the stub's conductors apart, over the drawn spans (y0, y1): the web of a line
+    with a solid dielectric (grey, with windows for window line), spreaders for open-wire line
+    (none within 12 points of the page y values in `keep_clear`), nothing for self-supporting pipe
+    or rod."""
+    line = ctx.design.stub
+    for y0, y1 in spans:
+        if line.dielectric != "air":
+            sheet.add(Hatch(x_j + 1.0, y0, x_o - x_j - 2.0, y1 - y0, grey=WEB_GREY))
+            if "window" in line.name:
+                y = y0 + 6.0
+                while y + 18.0 <= y1 - 4.0:
+                    sheet.add(Hatch(x_j + 7.0, y, x_o - x_j - 14.0, 18.0, grey=1.0))
+                    y += 28.0
+        elif not _is_rigid(line.conductor_diameter_m):
+            y = y0 + 16.0
+            while y + 4.0 <= y1 - 6.0:
+                if all(abs(y + 2.0 - k) > 12.0 for k in keep_clear):
+                    sheet.add(Rect(x_j - 3.0, y, x_o - x_j + 6.0, 4.0, width=0.5, fill=INSULATOR_GREY))
+                y += 46.0
+
+
+def _section(ctx: _Context, cx: float, cy: float) -> list:
+    """Section through the stub centred at (cx, cy): the two conductors and the spacing, centre to
+    centre."""
+    line = ctx.design.stub
+    text = f"spacing {ctx.length(line.spacing_m)}"
+    gap = max(56.0, _width(text) + 14.0)
+    r = 5.0
+    x1, x2 = cx - gap / 2, cx + gap / 2
+    out: list = []
+    if line.dielectric != "air":
+        out.append(Hatch(x1, cy - 2.0, gap, 4.0, grey=WEB_GREY))
+    out += [Circle(x, cy, r, width=0.9, fill=0.45) for x in (x1, x2)]
+    out.append(Dimension(x1, cy, x2, cy, text, 16.0))
+    out.append(Text(cx, cy + r + 12.0, "section through the stub", LABEL, "middle"))
+    return out
+
+
+def _stub(ctx: _Context) -> Drawing:
+    """The stub from the open top to below the short: junction, spacing, short, tap, leads, coax
+    and the choke at the tap."""
+    d, s = ctx.design, ctx.solution
+    dims = s.dimensions
+    L = ctx.length
+    orientation = d.site.orientation
+    x_j, x_o = 236.0, 296.0
+    x_mid = (x_j + x_o) / 2
+    y_top = 92.0
+    y_short = 330.0
+    y_tap = y_short - 88.0
+    y_end = y_short + 16.0
+    y_choke = y_end + 10.0
+    body_h = y_choke + 74.0
+    sheet = _Sheet(WIDTH, body_h)
+
+    y_b = (y_top + 40.0 + y_tap - 44.0) / 2
+    _web(sheet, ctx, x_j, x_o, ((y_top, y_b - 7.0), (y_b + 7.0, y_end)), (y_tap, y_tap - 9.0, y_short))
+    at = (y_b - y_top) / (y_end - y_top)
+    for x in (x_j, x_o):
+        sheet.add(BreakMark(x, y_top, x, y_end, at=at, size=8.0, width=CONDUCTOR + 0.3))
+
+    # open top
+    if orientation == "vertical":
+        sheet.add(Line(x_j, y_top, x_j, PAD + 8.0, width=CONDUCTOR + 0.3))
+        sheet.callout(x_j, (y_top + PAD + 8.0) / 2, ["radiator, straight up"], angles=(180, 200, 160))
+    else:
+        theta = 0.0 if orientation == "horizontal" else min(d.site.slope_rad, MAX_DRAWN_SLOPE)
+        reach = 150.0
+        end = (x_j - reach * math.cos(theta), y_top + reach * math.sin(theta))
+        sheet.add(Line(x_j, y_top, *end, width=CONDUCTOR + 0.3))
+        sheet.callout(*_along((x_j, y_top), (-math.cos(theta), math.sin(theta)), reach * 0.55),
+                      ["radiator, to the far end"], angles=(90, 120, 270, 240, 60))
+        # the rope from the open top to the support
+        u = (math.cos(math.radians(70)), -math.sin(math.radians(70)))
+        tie = _along((x_o, y_top), u, 10.0)
+        sheet.add(Line(x_o, y_top, *tie, width=ROPE))
+        sheet.add(_insulator(tie, u, 18.0, 3.5))
+        far = _along(tie, u, 18.0)
+        top_end = _along(far, u, (far[1] - PAD - 4.0) / -u[1])
+        sheet.add(Line(*far, *top_end, width=ROPE, dash=ROPE_DASH))
+        sheet.callout(*_along(far, u, 14.0), ["rope to the support"], angles=(0, 340, 20),
+                      radii=(12, 20, 30, 42))
+    sheet.add(Circle(x_j, y_top, 2.4, width=0, fill=0.0))
+    if not _is_rigid(d.radiator.diameter_m):
+        sheet.add(Polyline([(x_j + (2.4 if k % 2 else -2.4), y_top + 2.0 + 2.5 * k) for k in range(7)],
+                           width=0.6))
+
+    # short and tap
+    sheet.add(Line(x_j, y_short, x_o, y_short, width=3.0))
+    for x in (x_j, x_o):
+        sheet.add(Circle(x, y_short, 2.6, width=0, fill=0.0))
+        sheet.add(Rect(x - 4.0, y_tap - 4.0, 8.0, 8.0, width=0.9, fill=1.0))
+    e_y = y_tap - 9.0
+    sheet.add(Line(x_mid - 2.0, e_y, x_j + 4.0, y_tap, width=LEAD))
+    sheet.add(Line(x_mid + 3.0, e_y + 6.0, x_o - 4.0, y_tap, width=LEAD))
+    sheet.add(Line(x_mid, e_y, x_mid, y_short - 4.0, width=COAX))
+    sheet.add(Line(x_mid, y_short + 4.0, x_mid, y_choke, width=COAX))
+    sheet.add(*_coil_symbol(x_mid, y_choke, 34.0, s.choke.turns, 14.0))
+    coax_end_y = y_choke + 50.0
+    sheet.add(Polyline(((x_mid, y_choke + 34.0), (x_mid, coax_end_y), (PAD + 60.0, coax_end_y)),
+                       width=COAX))
+
+    # dimensions right of the stub
+    sheet.add(_vdim(x_o, y_short, y_tap, f"tap {L(dims.tap)}", 20.0))
+    sheet.add(_vdim(x_o, y_short, y_top, f"stub {L(dims.stub)}", 46.0))
+
+    sheet.callout(x_o, y_top, ["open end: this conductor", "ends here (high RF voltage)"],
+                  angles=(45, 30, 60), radii=(56, 72, 90, 110))
+    sheet.callout(x_j, y_top + 6.0, ["junction: the radiator", "on this conductor only"],
+                  angles=(225, 240, 200, 135), radii=(30, 42, 56, 72))
+    sheet.place_group([_section(ctx, 104.0, cy) for cy in (y_b + 8.0, y_tap + 10.0, y_b - 40.0,
+                                                            y_short + 40.0)], "the stub's section")
+    short_text = ["short: bar or pipe across,", "clamped or soldered"] if _is_rigid(
+        d.stub.conductor_diameter_m) else ["short: wire across both", "conductors, soldered"]
+    sheet.callout(x_j, y_short, short_text, angles=(200, 225, 180), radii=(30, 42, 56, 72))
+    sheet.callout(x_j - 4.0, y_tap, ["tap clamps: they slide", "along the stub to tune"],
+                  angles=(160, 180, 135, 200), radii=(30, 42, 56, 72))
+    sheet.callout(x_mid - 2.0, e_y, ["coax centre to the radiator", "side, braid to the other"],
+                  angles=(150, 135, 165), radii=(56, 72, 90))
+    choke_text = [f"choke: {_turns(s.choke.turns)} of the coax,", "right at the tap"]
+    if s.choke.warning:
+        choke_text.append("(not enough here: see the choke figure)")
+    sheet.callout(x_mid + 7.0, y_choke + 17.0, choke_text, angles=(0, 20, 340), radii=(30, 42, 56))
+    sheet.callout(PAD + 60.0, coax_end_y, [f"coax {d.feed.coax} to the station"],
+                  angles=(90, 60, 120), radii=(12, 18, 26))
+    notes = ["Not to scale: the stub is drawn shortened (break marks).",
+             "Stub: open top to the centre line of the short. Tap: centre line of the short to the "
+             "tap point.", ctx.rounding_note()]
+    return _finish(ctx, "Stub: open top, short and tap", sheet.items, body_h, notes)
+
+
+def _turns(n: int) -> str:
+    return f"{n} turn" if n == 1 else f"{n} turns"
+
+
+# ---------------------------------------------------------------- short and tap detail
+
+#: ratio tap / spacing drawn to scale in the detail; outside it the tap span is shortened (break
+#: marks) or lengthened (stated in the notes)
+DETAIL_SCALE_RANGE = (0.25, 1.5)
+
+
+def _short_tap(ctx: _Context) -> Drawing:
+    """Close view of the short and the tap: how the short is made and how the coax connects."""
+    d, s = ctx.design, ctx.solution
+    dims = s.dimensions
+    L = ctx.length
+    rigid = _is_rigid(d.stub.conductor_diameter_m)
+    x_j, x_o = 180.0, 320.0
+    x_mid = (x_j + x_o) / 2
+    gap = x_o - x_j
+    cw = 9.0 if rigid else 4.0
+    ratio = dims.tap / dims.spacing
+    lo, hi = DETAIL_SCALE_RANGE
+    breaks = ratio > hi
+    if breaks:
+        tap_d, scale_note = 200.0, ("Not to scale: the tap span is drawn shortened (break marks) "
+                                    "against the spacing.")
+    elif ratio < lo:
+        tap_d, scale_note = lo * gap, "Not to scale: the tap span is drawn longer than it is."
+    else:
+        tap_d, scale_note = ratio * gap, "Tap span and spacing drawn to scale (the parts are not)."
+    y_a = 48.0
+    y_tap = y_a + 86.0
+    y_short = y_tap + tap_d
+    y_end = y_short + 26.0
+    y_bottom = y_end + 30.0
+    body_h = y_bottom + 36.0
+    sheet = _Sheet(WIDTH, body_h)
+
+    conductor_grey = 0.35
+    y_b = (y_tap + y_short) / 2
+
+    def run(x0: float, y0: float, y1: float, piece) -> None:
+        """A vertical run drawn by `piece(y0, y1)`, broken at y_b when the tap span is shortened."""
+        if breaks and y0 < y_b < y1:
+            sheet.add(piece(y0, y_b - 7.0), piece(y_b + 7.0, y1))
+            sheet.add(BreakMark(x0, y_b - 7.0, x0, y_b + 7.0, size=max(10.0, cw + 4.0), width=0.75))
+        else:
+            sheet.add(piece(y0, y1))
+
+    if d.stub.dielectric != "air":
+        # the web, lighter than in the stub figure: here it is a large area behind the coax
+        run(x_mid, y_a, y_end, lambda y0, y1: Hatch(x_j, y0, gap, y1 - y0, grey=0.94))
+    for x in (x_j, x_o):
+        run(x, y_a, y_end, lambda y0, y1, x=x: Line(x, y0, x, y1, width=cw, stroke=conductor_grey))
+    sheet.add(Dimension(x_j, y_a, x_o, y_a, f"spacing {L(dims.spacing)}", 14.0))
+
+    # short: bar across, joints at both conductors; its centre line
+    sheet.add(Rect(x_j - cw / 2 - 4.0, y_short - 3.5, gap + cw + 8.0, 7.0, width=0.75, fill=0.55))
+    for x in (x_j, x_o):
+        sheet.add(Circle(x, y_short, cw / 2 + 3.0, width=0.9))
+    sheet.add(Line(x_j - 46.0, y_short, x_o + 20.0, y_short, width=THIN, dash=CENTRE_DASH))
+    # tap clamps and their centre line
+    for x in (x_j, x_o):
+        sheet.add(Rect(x - cw / 2 - 3.0, y_tap - 6.0, cw + 6.0, 12.0, width=0.9, fill=1.0))
+    sheet.add(Line(x_j - 46.0, y_tap, x_o + 20.0, y_tap, width=THIN, dash=CENTRE_DASH))
+
+    # coax up between the conductors (behind the short): jacket, braid, centre insulation, leads
+    jacket_top = y_tap + 9.0
+    def jacket(y0: float, y1: float) -> Rect:
+        return Rect(x_mid - 6.0, y0, 12.0, y1 - y0, width=0.75, fill=COAX_GREY)
+    run(x_mid, jacket_top, y_short - 5.0, jacket)
+    sheet.add(jacket(y_short + 5.0, y_bottom))
+    sheet.add(Rect(x_mid - 6.0, jacket_top - 8.0, 12.0, 8.0, width=0.75))
+    sheet.add(Hatch(x_mid - 6.0, jacket_top - 8.0, 12.0, 8.0, spacing=2.0))
+    sheet.add(Rect(x_mid - 2.5, jacket_top - 14.0, 5.0, 6.0, width=0.6, fill=1.0))
+    tip = (x_mid, jacket_top - 14.0)
+    sheet.add(Polyline((tip, (x_mid, tip[1] - 4.0), (x_j + cw / 2 + 3.0, y_tap - 2.0)), width=1.1))
+    sheet.add(Line(x_mid + 6.0, jacket_top - 4.0, x_o - cw / 2 - 3.0, y_tap + 2.0, width=1.1))
+
+    sheet.add(_vdim(x_o, y_short, y_tap, f"tap {L(dims.tap)}", 44.0))
+
+    sheet.callout(x_j, y_a + 4.0, ["radiator-side conductor:", "the radiator joins it at the top"],
+                  angles=(180, 160, 200), radii=(20, 30, 42))
+    sheet.callout(x_o, y_a + 4.0, ["other conductor:", "ends open at the top"],
+                  angles=(0, 20, 340), radii=(60, 72, 90))
+    if rigid:
+        short_text = ["short: bar or pipe across,", "clamped or soldered"]
+    else:
+        short_text = ["short: bare copper wire across,", "wrapped and soldered"]
+    sheet.callout(x_j - cw / 2 - 4.0, y_short + 2.0, short_text, angles=(225, 200, 250, 180),
+                  radii=(30, 42, 56))
+    sheet.callout(x_j - 46.0, y_short, ["centre line of the short:", "measure from here"],
+                  angles=(160, 180, 135, 200), radii=(10, 16, 24), end="dot")
+    sheet.callout(x_j - 46.0, y_tap, ["tap point: centre", "of the clamps"],
+                  angles=(180, 160, 200), radii=(10, 16, 24), end="dot")
+    sheet.callout((x_mid + x_j) / 2 + 6.0, (tip[1] - 4.0 + y_tap) / 2,
+                  ["coax centre to the radiator-side conductor"], angles=(90, 70, 110),
+                  radii=(42, 56, 72))
+    sheet.callout((x_mid + x_o) / 2 + 4.0, (jacket_top - 4.0 + y_tap) / 2 + 1.0,
+                  ["coax braid to the other conductor"], angles=(60, 45, 75, 30), radii=(56, 72, 90))
+    sheet.callout(x_j + cw / 2 + 3.0, y_tap - 6.0, ["tap clamp: slides", "along to tune"],
+                  angles=(135, 150, 120, 200), radii=(30, 42, 56))
+    sheet.callout(x_mid + 6.0, y_end - 4.0, ["coax passes behind the short,", "down to the choke"],
+                  angles=(340, 0, 320), radii=(30, 42, 56))
+    sheet.place_text([(PAD + 2.0, y_bottom - 4.0), (PAD + 2.0, y_bottom + 8.0)],
+                     ["Keep the leads short. Weatherproof the coax end", "with self-amalgamating tape."],
+                     size=LABEL)
+    notes = [scale_note, ctx.rounding_note()]
+    return _finish(ctx, "Short and tap: how they are made", sheet.items, body_h, notes)
+
+
+# ---------------------------------------------------------------- choke
+
+def _choke(ctx: _Context) -> Drawing:
+    """The choke to scale: the feed coax close-wound on its form (side and end views), turns,
+    form diameter, coil length, which end goes to the tap."""
+    d, s = ctx.design, ctx.solution
+    c = s.choke
+    L = ctx.length
+    od = d.feed.coax_outer_diameter_m
+    form_len = next(i.length_m for i in s.cut_list if i.part == "choke form")
+    scale = min(230.0 / form_len, 128.0 / (c.form_diameter_m + 2 * od))
+    fd, odp, fl = c.form_diameter_m * scale, od * scale, form_len * scale
+    y_ax = 120.0
+    x0 = 110.0
+    body_h = y_ax + (c.form_diameter_m / 2 + od) * scale + 78.0
+    warning_lines = _wrap(f"Warning: {c.warning}", WIDTH - 2 * PAD - 4.0, LABEL) if c.warning else []
+    body_h += len(warning_lines) * _line_height(LABEL)
+    sheet = _Sheet(WIDTH, body_h)
+
+    top, bottom = y_ax - fd / 2 - odp, y_ax + fd / 2 + odp
+    sheet.add(Rect(x0, y_ax - fd / 2, fl, fd, width=0.75, fill=SUPPORT_GREY))
+    sheet.add(Line(x0 - 6.0, y_ax, x0 + fl + 6.0, y_ax, width=THIN, dash=CENTRE_DASH))
+    xs = x0 + (fl - c.coil_length_m * scale) / 2
+    pitch = c.coil_length_m * scale / c.turns
+    band = max(odp, 2.5)       # the coax as a band of its own diameter (or visibly thick)
+    sheet.add(Rect(PAD + 30.0, bottom - band, xs + pitch / 2 - PAD - 30.0, band, width=0.6,
+                   fill=COAX_GREY))
+    for k in range(c.turns):
+        xa = xs + k * pitch
+        sheet.add(Polyline(((xa, bottom), (xa + pitch, bottom), (xa + 1.5 * pitch, top),
+                            (xa + 0.5 * pitch, top)), closed=True, fill=COAX_GREY, width=0.6))
+    x_last = xs + c.turns * pitch + pitch / 2
+    sheet.add(Rect(x_last, top, x0 + fl + 70.0 - x_last, band, width=0.6, fill=COAX_GREY))
+    sheet.add(Dimension(xs, top, xs + c.coil_length_m * scale, top, f"coil {L(c.coil_length_m)}",
+                        18.0, beside="start"))
+
+    # end view
+    xe = 400.0
+    r_out = (c.form_diameter_m / 2 + od) * scale
+    sheet.add(Circle(xe, y_ax, r_out, width=0.75, fill=COAX_GREY))
+    sheet.add(Circle(xe, y_ax, fd / 2, width=0.75, fill=SUPPORT_GREY))
+    sheet.add(_vdim(xe, y_ax + fd / 2, y_ax - fd / 2, f"form {L(c.form_diameter_m)}", r_out + 16.0))
+    sheet.add(Text(xe, y_ax + r_out + 14.0, "end view", LABEL, "middle"))
+
+    coax_in_coil = c.turns * math.pi * c.mean_diameter_m
+    sheet.callout(PAD + 34.0, bottom, ["from the tap: this end", "goes right at the tap"],
+                  angles=(270, 250, 290), radii=(16, 24, 34))
+    sheet.callout(x0 + fl + 66.0, top, ["to the station"], angles=(90, 70, 110),
+                  radii=(14, 22, 30))
+    sheet.callout(xs + pitch, bottom, [f"{_turns(c.turns)} of {d.feed.coax}, close-wound",
+                                       f"about {L(coax_in_coil)} of the coax",
+                                       "cable ties hold the turns"],
+                  angles=(290, 270, 315, 250), radii=(30, 42, 56))
+    if warning_lines:
+        sheet.place_text([(PAD + 2.0, body_h - PAD - len(warning_lines) * _line_height(LABEL))],
+                         warning_lines, size=LABEL)
+    notes = ["Coil and form drawn to scale (side and end views).", ctx.rounding_note()]
+    return _finish(ctx, "Choke: the feed coax wound at the tap", sheet.items, body_h, notes)
+
+
+# ---------------------------------------------------------------- plots
+
+def _with_strip(ctx: _Context, plot: Drawing, caption: str, notes: list[str]) -> Drawing:
+    return _finish(ctx, caption, list(plot.items), plot.height + 4.0, notes, plot.width)
+
+
+def _swr(ctx: _Context) -> Drawing:
+    s = ctx.solution
+    sw = s.sweep
+    # The Solution reports a 2:1 edge beyond the sweep at the sweep's end; the plot marks only edges
+    # where the curve crosses 2:1 inside the sweep.
+    f = np.asarray(sw.frequency_hz)
+    edges = s.band_swr2_hz or (None, None)
+    edges = tuple(None if e is None or ((e <= f[0] or e >= f[-1]) and
+                                         np.interp(e, f, sw.swr) < 2.0) else e for e in edges)
+    plot = plots.swr_plot(sw.frequency_hz, sw.swr, sw.swr_transmitter, s.band_hz, s.frequency_hz,
+                          edges, WIDTH, SWR_HEIGHT, "SWR across the band (predicted)")
+    notes = [f"At the feed point: SWR on {units.format_impedance(ctx.design.feed.impedance_ohm)}. "
+             f"At the transmitter: through {units.format_length(ctx.design.feed.length_m, ctx.units)}"
+             f" of {ctx.design.feed.coax}.", ctx.rounding_note()]
+    return _with_strip(ctx, plot, "SWR across the band", notes)
+
+
+def _smith(ctx: _Context) -> Drawing:
+    s = ctx.solution
+    sw = s.sweep
+    z = np.asarray(sw.r_ohm) + 1j * np.asarray(sw.x_ohm)
+    plot = plots.smith_chart(sw.frequency_hz, z, ctx.design.feed.impedance_ohm, s.band_hz,
+                             s.frequency_hz, SMITH_WIDTH, "Feed impedance at the tap (predicted)")
+    return _with_strip(ctx, plot, "Smith chart of the feed impedance", [])
+
+
+# ---------------------------------------------------------------- all figures
+
+def figures(design: Design, solution: Solution, date: str) -> dict[str, Drawing]:
+    """The figures of a solved design, keyed and ordered as FIGURES; `date` is the revision date
+    printed in each title strip (YYYY-MM-DD)."""
+    ctx = _Context(design, solution, date)
+    builders = {"overview": _overview, "radiator": _radiator, "stub": _stub, "short-tap": _short_tap,
+                "choke": _choke, "swr": _swr, "smith": _smith}
+    return {key: builders[key](ctx) for key in FIGURES}
