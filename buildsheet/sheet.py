@@ -1,0 +1,657 @@
+"""The build sheet's content (DESIGN.md §8): owns turning a Design and its Solution into ordered blocks
+of formatted strings and tables: every rounding, unit and word of the sheet, the longer texts rendered
+from templates/. It lays out nothing, draws nothing and writes no files (writers/pdf.py sets the
+blocks, drawing/figures.py draws the figures the blocks name).
+
+Strings inside blocks are paragraph markup (the XML-like markup reportlab's Paragraph reads): design
+strings are data, escaped here or by the templates' autoescape, and never used as template source.
+The page furniture (title block, footer) is plain text, drawn as it is.
+
+Templates are jinja2 with StrictUndefined and autoescape, read from the installed package's
+buildsheet/templates (pyproject maps the checkout's top-level templates/ there) or, in a source
+checkout, from templates/. A template renders a small block syntax, blocks separated by blank lines:
+
+    ## text            a subheading
+    1. text            numbered steps (one per line; indented lines continue the step)
+    | a | b |          a table, one row per line, the first row the header
+    ! text             a caution paragraph
+    text               a paragraph (its lines joined)
+"""
+
+from __future__ import annotations
+
+import importlib.resources
+import math
+import re
+from dataclasses import dataclass
+from pathlib import Path
+
+import jinja2
+import numpy as np
+from markupsafe import escape
+
+from buildsheet import units
+from buildsheet.design import Design
+from buildsheet.solve import RIGID_DIAMETER_M, Solution
+
+#: the measurement log's columns: what the builder writes by hand
+LOG_COLUMNS = ("#", "frequency", "SWR", "R (Ω)", "X (Ω)", "what was changed")
+#: smallest move worth making, m: what a tape in the sheet's units resolves (1/8 in; 2 mm)
+MIN_MOVE_M = {"imperial": 0.0254 / 8, "metric": 0.002}
+#: SWR at the design frequency at which tuning may stop (common practice)
+STOP_SWR = 1.3
+#: the impedance error the tuning table starts from, ohm (see _error_step)
+IMPEDANCE_STEP_OHM = 10.0
+#: a tuning move longer than this share of the length it changes (tap distance, radiator) is too far
+#: for the model's slope to hold; the table then quotes a smaller error
+LINEAR_FRACTION = 0.3
+#: the resonance error the tuning table starts from, as a fraction of the design frequency
+FREQUENCY_STEP = 0.007
+#: a move larger than this share of the stub means something other than the dimensions is wrong
+BIG_MOVE_FRACTION = 0.1
+#: blank rows in the as-built record when there are no entries, for writing by hand
+BLANK_RECORD_ROWS = 3
+
+MODE_NAMES = {"ssb": "SSB", "cw": "CW", "fm": "FM", "digital": "digital modes"}
+STANDARD_NAMES = {"us-fcc": "47 CFR 1.1310", "icnirp-2020": "ICNIRP 2020"}
+#: the exposure categories in each standard's own words: (controlled, general)
+CATEGORY_NAMES = {"us-fcc": ("occupational/controlled", "general population/uncontrolled"),
+                  "icnirp-2020": ("occupational", "general public")}
+
+
+# ----------------------------------------------------------------------------------------------
+# Blocks
+
+@dataclass(frozen=True)
+class Heading:
+    """A subheading inside a section."""
+    text: str
+
+
+@dataclass(frozen=True)
+class Para:
+    """A paragraph; style: body | note | caution."""
+    text: str
+    style: str = "body"
+
+
+@dataclass(frozen=True)
+class Steps:
+    """Numbered steps."""
+    items: tuple
+
+
+@dataclass(frozen=True)
+class KeyFigure:
+    label: str
+    value: str
+    meaning: str
+
+
+@dataclass(frozen=True)
+class KeyFigures:
+    """The key dimensions, printed large."""
+    figures: tuple
+
+
+@dataclass(frozen=True)
+class Facts:
+    """Label and value rows."""
+    rows: tuple
+
+
+@dataclass(frozen=True)
+class Table:
+    """A table: header, rows, relative column widths, alignment per column (left | right).
+    boxes: per row, how many check boxes to draw in an extra first column (None: no such column);
+    blank_rows: ruled empty rows after the rows, tall enough to write in by hand."""
+    header: tuple
+    rows: tuple
+    widths: tuple
+    align: tuple
+    boxes: tuple | None = None
+    blank_rows: int = 0
+
+
+@dataclass(frozen=True)
+class WriteIn:
+    """Blank ruled rows to fill in by hand: at least min_rows, more if the page has room."""
+    header: tuple
+    widths: tuple
+    min_rows: int
+
+
+@dataclass(frozen=True)
+class Figures:
+    """Drawings by their key in figures(); set side by side where they fit."""
+    keys: tuple
+
+
+@dataclass(frozen=True)
+class Section:
+    key: str
+    title: str
+    blocks: tuple
+    new_page: bool = False
+
+
+@dataclass(frozen=True)
+class Sheet:
+    """The whole sheet: page furniture (plain text) and sections in order (markup)."""
+    title: str
+    name: str
+    document_id: str
+    date: str
+    paper: str
+    units: str
+    subtitle: str             # under the title in the title block
+    furniture: tuple          # the title block's right-hand lines: name, document ID (bold), date
+    page_label: str           # with {page} and {pages}
+    footer: str
+    subject: str              # PDF metadata
+    sections: tuple
+
+    def section(self, key: str) -> Section:
+        return next(s for s in self.sections if s.key == key)
+
+
+# ----------------------------------------------------------------------------------------------
+# Templates
+
+def _template_text(name: str) -> str:
+    """A template's source: from the installed package's templates, else the checkout's templates/."""
+    packaged = importlib.resources.files("buildsheet") / "templates" / name
+    if packaged.is_file():
+        return packaged.read_text(encoding="utf-8")
+    return (Path(__file__).resolve().parent.parent / "templates" / name).read_text(encoding="utf-8")
+
+
+_ENV = jinja2.Environment(loader=jinja2.FunctionLoader(_template_text), autoescape=True,
+                          undefined=jinja2.StrictUndefined)
+
+_STEP = re.compile(r"\d+\.\s+(.*)")
+
+
+def render_blocks(template: str, **values) -> tuple:
+    """Render a template (the block syntax of the module docstring) into blocks."""
+    text = _ENV.get_template(template).render(**values)
+    blocks: list = []
+    for chunk in re.split(r"\n\s*\n", text.strip()):
+        lines = chunk.split("\n")
+        first = lines[0]
+        if first.startswith("## "):
+            blocks.append(Heading(" ".join(line.strip() for line in lines)[3:]))
+        elif first.startswith("| "):
+            rows = tuple(tuple(cell.strip() for cell in line.strip().strip("|").split(" | "))
+                         for line in lines)
+            n = len(rows[0])
+            blocks.append(Table(header=rows[0], rows=rows[1:], widths=(1.0,) * n, align=("left",) * n))
+        elif _STEP.match(first):
+            items: list[str] = []
+            for line in lines:
+                step = _STEP.match(line)
+                if step:
+                    items.append(step.group(1))
+                else:
+                    items[-1] += " " + line.strip()
+            blocks.append(Steps(tuple(items)))
+        elif first.startswith("! "):
+            blocks.append(Para(" ".join(line.strip() for line in lines)[2:], "caution"))
+        else:
+            blocks.append(Para(" ".join(line.strip() for line in lines)))
+    return tuple(blocks)
+
+
+# ----------------------------------------------------------------------------------------------
+# Formatting helpers (all rounding of the sheet)
+
+def _e(text: str) -> str:
+    """A plain string as paragraph markup."""
+    return str(escape(text))
+
+
+def _nb(text: str) -> str:
+    """A quantity that must not break across lines: its spaces made non-breaking (U+00A0)."""
+    return text.replace(" ", "\u00a0")
+
+
+def _freq(hz: float) -> str:
+    return _nb(units.format_frequency(hz))
+
+
+def _ohm(ohm: float) -> str:
+    return _nb(units.format_impedance(ohm))
+
+
+def _z(z: complex) -> str:
+    return _nb(units.format_complex_impedance(z))
+
+
+def _volts(v: float) -> str:
+    return _nb(units.format_voltage(v))
+
+
+def _amps(a: float) -> str:
+    return _nb(units.format_current(a))
+
+
+def _watts(w: float) -> str:
+    return _nb(units.format_power(w))
+
+
+def _percent(fraction: float) -> str:
+    return _nb(units.format_percent(fraction))
+
+
+def _band(edges) -> str:
+    if edges is None:
+        return "none: the predicted SWR never gets that low"
+    low, high = edges
+    return f"{_freq(low)} to {_freq(high)} ({_span(high - low)})"
+
+
+def _span(hz: float) -> str:
+    """A frequency span: "261 kHz" below 1 MHz, else "17.55 MHz"."""
+    return _nb(f"{hz / 1e3:.0f} kHz" if hz < 1e6 else f"{hz / 1e6:.2f} MHz")
+
+
+def _step(hz: float) -> str:
+    """A round frequency error from the 1-2-5 series: "100 kHz", "5 MHz"."""
+    return _nb(f"{hz / 1e3:g} kHz" if hz < 1e6 else f"{hz / 1e6:g} MHz")
+
+
+def _swr(value: float) -> str:
+    return f"{value:.2f}"
+
+
+def _nice(x: float) -> float:
+    """The value of the 1-2-5 series nearest to x (> 0) on a log scale."""
+    decade = 10.0 ** math.floor(math.log10(x))
+    return min((m * decade for m in (1, 2, 5, 10)), key=lambda v: abs(math.log(v / x)))
+
+
+def _series_step(x: float, up: bool) -> float:
+    """The next value of the 1-2-5 series above (up) or below x."""
+    values = [m * 10.0 ** e for e in range(math.floor(math.log10(x)) - 1, math.floor(math.log10(x)) + 2)
+              for m in (1, 2, 5)]
+    return min(v for v in values if v > x * (1 + 1e-9)) if up else max(v for v in values
+                                                                         if v < x * (1 - 1e-9))
+
+
+def _error_step(start: float, per_m: float, limit_m: float, min_move_m: float) -> float:
+    """The measured error a tuning row is written for: `start`, moved along the 1-2-5 series up
+    while the move it asks for (error / |per_m|, m) is under `min_move_m` (too small to make), and
+    down while the move is over `limit_m` (too far for the model's slope to hold) as long as the
+    smaller move can still be made."""
+    step = start
+    while step / abs(per_m) < min_move_m:
+        step = _series_step(step, up=True)
+    while step / abs(per_m) > limit_m and _series_step(step, up=False) / abs(per_m) >= min_move_m:
+        step = _series_step(step, up=False)
+    return step
+
+
+def _direction(move_m: float) -> str:
+    """DESIGN.md §5: positive = toward the open top ("up")."""
+    return "up" if move_m > 0 else "down"
+
+
+# ----------------------------------------------------------------------------------------------
+# The sheet
+
+def build_sheet(design: Design, solution: Solution, date: str) -> Sheet:
+    """The build sheet of `design` solved as `solution`, dated `date` (YYYY-MM-DD, the revision date).
+    Design strings are printable in Vera: design.py refuses any character the font lacks."""
+    ctx = _Context(design, solution)
+    sections = (
+        Section("summary", "Summary", ctx.summary()),
+        Section("overview", "Overview", (Figures(("overview",)),)),
+        Section("cut-list", "Cut list and hardware", ctx.cut_list()),
+        Section("details", "Details", (Figures(("radiator", "stub", "short-tap", "choke")),)),
+        Section("performance", "Predicted performance", ctx.performance()),
+        Section("tuning", "Tuning procedure", ctx.tuning(), new_page=True),
+        Section("log", "Measurement log", ctx.log(), new_page=True),
+        Section("cautions", "Safety cautions", ctx.cautions(), new_page=True),
+        Section("as-built", "As-built record", ctx.as_built()),
+    )
+    return Sheet(
+        title=design.title, name=design.name, document_id=solution.design_id, date=date,
+        paper=design.output.paper, units=design.output.units,
+        subtitle="Build sheet: end-fed half-wave antenna matched by a shorted quarter-wave stub",
+        furniture=(design.name, f"document {solution.design_id}", f"revised {date}"),
+        page_label="page {page} of {pages}",
+        footer="Caution: high RF voltage at the stub's open end and the radiator's far end. Never touch "
+               "the antenna while transmitting; keep it clear of power lines. See the safety cautions.",
+        subject=f"Build sheet of {design.name}, document {solution.design_id}, revised {date}",
+        sections=sections,
+    )
+
+
+class _Context:
+    """The design, its solution and the shorthands every section uses."""
+
+    def __init__(self, design: Design, solution: Solution):
+        self.d = design
+        self.s = solution
+        self.u = design.output.units
+
+    def length(self, m: float) -> str:
+        return _nb(units.format_length(m, self.u))
+
+    def distance(self, m: float) -> str:
+        return _nb(units.format_distance(m, self.u))
+
+    @property
+    def f0(self) -> str:
+        return _freq(self.s.frequency_hz)
+
+    @property
+    def pep(self) -> str:
+        return f"{_watts(self.d.power.transmitter_w)} PEP"
+
+    # -- 2. summary --------------------------------------------------------------------------
+    def summary(self) -> tuple:
+        d, s = self.d, self.s
+        low, high = s.band_hz
+        band = f"{_freq(low)} to {_freq(high)}"
+        band += (f" ({d.band_name} band, ITU region {d.region})" if d.band_name else
+                 " (as given in the design)")
+        dims = s.dimensions
+        rounding = units.length_rounding(self.u)
+        return (
+            Facts((
+                ("band", _e(band)),
+                ("design frequency", _e(f"{self.f0}: the tap is matched to "
+                                        f"{_ohm(d.feed.impedance_ohm)} here")),
+                ("predicted 2:1 band", _e(f"{_band(s.band_swr2_hz)} at the tap")),
+            )),
+            KeyFigures((
+                KeyFigure("radiator", _e(self.length(dims.radiator)),
+                          f"{self.radiator_end()} to the junction at the stub's open top"),
+                KeyFigure("stub", _e(self.length(dims.stub)),
+                          "open top (the junction) to the centre line of the short"),
+                KeyFigure("tap", _e(self.length(dims.tap)),
+                          "centre line of the short to the tap, measured along the stub"),
+                KeyFigure("spacing", _e(self.length(dims.spacing)),
+                          "centre to centre of the stub conductors"),
+            )),
+            Para(_e(f"Dimensions as built, {rounding}; the pieces are cut longer (see the cut list)."),
+                 "note"),
+        )
+
+    def radiator_end(self) -> str:
+        """Where the radiator's length starts (DESIGN.md §5): the far end insulator's attachment
+        point, or the free top of a vertical."""
+        if self.d.site.orientation == "vertical":
+            return "free top end"
+        return "far end insulator's attachment point"
+
+    def line_name(self) -> str:
+        st = self.d.stub
+        if st.name != "custom":
+            return st.name
+        if st.kind == "geometry":
+            return (f"two-wire line, {self.length(st.spacing_m)} spacing, "
+                    f"{self.length(st.conductor_diameter_m)} conductors in {st.dielectric}")
+        return "two-wire line as measured"
+
+    def radiator_text(self) -> str:
+        r = self.d.radiator
+        if r.insulation == "bare":
+            return f"{r.label} {r.material}, bare"
+        return f"{r.label} {r.material}, {r.insulation} insulated (velocity factor {r.velocity_factor:.2f})"
+
+    def ground(self) -> str:
+        site = self.d.site
+        if site.ground == "custom":
+            return (f"ground of permittivity {site.permittivity:g} and conductivity "
+                    f"{site.conductivity_s_m:g} S/m")
+        if site.ground == "free-space":
+            return "no ground (free space)"
+        return f"{site.ground} ground"
+
+    def hung(self) -> str:
+        site = self.d.site
+        h = self.length(site.height_m)
+        if site.orientation == "horizontal":
+            return f"horizontal; the stub's open top {h} above {self.ground()}, the stub hanging down"
+        if site.orientation == "sloper":
+            return (f"sloper, the radiator {units.format_angle(site.slope_rad)} below horizontal; the "
+                    f"stub's open top {h} above {self.ground()}")
+        return f"vertical; the short {h} above {self.ground()}, the stub and radiator standing above it"
+
+    def top_height(self) -> float:
+        site, dims = self.d.site, self.s.dimensions
+        if site.orientation == "vertical":
+            return site.height_m + dims.stub + dims.radiator
+        return site.height_m
+
+    # -- 4. cut list and hardware ------------------------------------------------------------
+    def cut_list(self) -> tuple:
+        cut_rows = tuple((_e(i.part), str(i.quantity), _e(self.length(i.length_m)),
+                          _e(self.length(i.allowance_m)) if i.allowance_m > 0 else "none",
+                          _e(i.material), _e(i.note)) for i in self.s.cut_list)
+        hardware_rows = tuple((str(h.quantity), _e(h.item), _e(h.note)) for h in self.s.hardware)
+        d, s = self.d, self.s
+        return (
+            Facts((
+                ("hung", _e(self.hung())),
+                ("radiator", _e(self.radiator_text())),
+                ("stub line", _e(f"{self.line_name()}: {_ohm(s.stub_line.z0_ohm)}, "
+                                 f"velocity factor {s.stub_line.velocity_factor:.3f}")),
+                ("feed", _e(f"{d.feed.coax}, {self.length(d.feed.length_m)} from the tap to the "
+                            "station, choked at the tap")),
+                ("power", _e(f"{self.pep}, {MODE_NAMES.get(d.power.mode, d.power.mode)}")),
+            )),
+            Para(_e(f"Cut lengths include the allowances ({units.length_rounding(self.u)}). Tick a box "
+                    "for each piece as it is cut."), "note"),
+            Table(header=("part", "qty", "cut length", "of which allowance", "material", "note"),
+                  rows=cut_rows, widths=(1.1, 0.45, 1.0, 0.95, 1.7, 2.8),
+                  align=("left", "right", "right", "right", "left", "left"),
+                  boxes=tuple(i.quantity for i in self.s.cut_list)),
+            Heading("Hardware"),
+            Table(header=("qty", "item", "note"), rows=hardware_rows, widths=(0.45, 2.6, 4.9),
+                  align=("right", "left", "left"), boxes=(1,) * len(hardware_rows)),
+        )
+
+    # -- 6. predicted performance ------------------------------------------------------------
+    def performance(self) -> tuple:
+        d, s = self.d, self.s
+        c, e = s.choke, s.exposure
+        blocks: list = [
+            Figures(("swr", "smith")),
+            Heading("At the tap"),
+            Facts((
+                ("feed impedance", _e(f"{_z(s.feed_impedance)} at {self.f0}")),
+                ("SWR", _e(f"{_swr(s.feed_swr)}:1 at the tap, {_swr(s.feed_swr_transmitter)}:1 at the "
+                           f"transmitter (through {self.length(d.feed.length_m)} of {d.feed.coax})")),
+                ("2:1 band", _e(_band(s.band_swr2_hz))),
+                ("1.5:1 band", _e(_band(s.band_swr15_hz))),
+                ("coax loss", _e(f"{s.coax_loss_db:.2f} dB; {_watts(s.power_at_tap_w)} PEP "
+                                 f"of {self.pep} reaches the tap")),
+            )),
+            Heading(f"Voltages and current at {self.pep}"),
+            Facts((
+                ("stub's open end", _e(f"{_volts(s.voltage_open_end_v_rms)} rms, "
+                                       f"{_volts(s.voltage_open_end_v_peak)} peak")),
+                ("radiator's far end", _e(f"{_volts(s.voltage_far_end_v_rms)} rms, "
+                                          f"{_volts(s.voltage_far_end_v_peak)} peak")),
+                ("current in the short", _e(f"{_amps(s.current_short_a_rms)} rms")),
+            )),
+            Heading("Efficiency"),
+            Facts((
+                ("efficiency", _e(f"{_percent(s.efficiency)} (radiated / delivered to the tap)")),
+                ("radiated", _e(f"{_watts(s.power_radiated_w)} of the "
+                                f"{_watts(s.power_at_tap_w)} PEP at the tap")),
+                ("lost", _e(self.losses())),
+            )),
+            Heading("Choke"),
+            Facts((
+                ("coil", _e(f"{c.turns} turn{'s' if c.turns != 1 else ''} of {d.feed.coax} close-wound "
+                            f"on a {self.length(c.form_diameter_m)} form, {self.length(c.coil_length_m)} "
+                            "long")),
+                ("inductance", _e(f"{c.inductance_h * 1e6:.3g} µH")),
+                ("self-resonance", _e(f"{_freq(c.self_resonance_hz)} "
+                                      f"({c.self_resonance_hz / s.band_hz[1]:.2f} × the band's top edge)")),
+                ("impedance", _e(f"|Z| at least {_ohm(c.impedance_ohm)} across the band")),
+            )),
+        ]
+        if c.warning:
+            blocks.append(Para(_e(f"Choke warning: {c.warning}"), "caution"))
+        controlled, general = CATEGORY_NAMES[e.standard]
+        blocks += [
+            Heading("RF exposure"),
+            Facts((
+                ("standard", _e(STANDARD_NAMES[e.standard])),
+                ("average power", _e(f"{_watts(e.average_power_w)}; EIRP "
+                                     f"{_watts(e.eirp_w)} with {e.gain_dbi:.2f} dBi")),
+                (general, _e(f"keep people {self.distance(e.distance_general_m)} away "
+                             f"(limit {e.limit_general_w_m2:.3g} W/m²)")),
+                (controlled, _e(f"{self.distance(e.distance_controlled_m)} "
+                                f"(limit {e.limit_controlled_w_m2:.3g} W/m²)")),
+            )),
+            *render_blocks(
+                "exposure.j2", average=_watts(e.average_power_w), pep=self.pep,
+                mode=MODE_NAMES.get(d.power.mode, d.power.mode), duty=_percent(d.power.duty_factor),
+                on_air=_percent(d.power.on_air), standard=STANDARD_NAMES[e.standard],
+                in_near_field=e.distance_general_m < e.near_field_m,
+                near_field=self.distance(e.near_field_m), f0=self.f0),
+        ]
+        return tuple(blocks)
+
+    def losses(self) -> str:
+        """Where the power is lost. A line given by its measured loss has no physical split between
+        conductor and dielectric loss (physics/lines.py), so its two parts are given as one."""
+        lost = self.s.power_lost_w
+        wire = f"radiator wire {_watts(lost['radiator_wire'])}"
+        if self.d.stub.kind == "nominal":
+            return f"stub line {_watts(lost['stub_conductors'] + lost['stub_dielectric'])}, {wire}"
+        return (f"stub conductors {_watts(lost['stub_conductors'])}, stub dielectric "
+                f"{_watts(lost['stub_dielectric'])}, {wire}")
+
+    # -- 7. tuning procedure and log ---------------------------------------------------------
+    def tuning_values(self) -> dict:
+        """The numbers of the tuning procedure, formatted. Moves follow DESIGN.md §5 signs."""
+        d, s = self.d, self.s
+        sens = s.sensitivity
+        f0 = s.frequency_hz
+        z0 = d.feed.impedance_ohm
+        dims = s.dimensions
+        least = MIN_MOVE_M[self.u]
+        df = _error_step(_nice(FREQUENCY_STEP * f0), sens["hz_per_m_radiator"],
+                         LINEAR_FRACTION * dims.radiator, least)
+        dr = _error_step(IMPEDANCE_STEP_OHM, sens["ohm_per_m_tap"], LINEAR_FRACTION * dims.tap, least)
+        dx = _error_step(IMPEDANCE_STEP_OHM, sens["ohm_per_m_short"], LINEAR_FRACTION * dims.tap, least)
+        # the dip df below f0 asks for +df of resonance; R dr high for -dr; X +dx for -dx
+        radiator_move = df / sens["hz_per_m_radiator"]
+        tap_move = -dr / sens["ohm_per_m_tap"]
+        short_move = -dx / sens["ohm_per_m_short"]
+        sw = s.sweep
+        i0 = int(np.argmin(np.abs(sw.frequency_hz - f0)))
+        lo, hi = max(i0 - 1, 0), min(i0 + 1, len(sw.frequency_hz) - 1)
+        x_slope = (sw.x_ohm[hi] - sw.x_ohm[lo]) / (sw.frequency_hz[hi] - sw.frequency_hz[lo])
+        best = int(np.argmin(sw.swr))
+        swr2 = s.band_swr2_hz
+        tolerance = _nice(0.1 * (swr2[1] - swr2[0])) if swr2 else _nice(0.002 * f0)
+        rigid = d.radiator.diameter_m >= RIGID_DIAMETER_M
+        return dict(
+            height=self.length(d.site.height_m), radiator=self.length(dims.radiator),
+            radiator_end=self.radiator_end(), vertical=d.site.orientation == "vertical",
+            stub=self.length(dims.stub), tap=self.length(dims.tap),
+            wrap=self.length(s.wrap_allowance_m), rigid=rigid,
+            f0=self.f0, best_swr=_swr(float(sw.swr[best])),
+            best_f=_freq(float(sw.frequency_hz[best])),
+            swr2_band=_band(swr2), z_feed=_ohm(z0),
+            x_slope="rises" if x_slope > 0 else "falls",
+            x_if_grows="positive" if x_slope > 0 else "negative",
+            x_if_shrinks="negative" if x_slope > 0 else "positive",
+            rounding=units.length_rounding(self.u),
+            df=_step(df), radiator_move=self.length(abs(radiator_move)),
+            radiator_shorten=radiator_move < 0,
+            dr=_ohm(dr), tap_move=self.length(abs(tap_move)),
+            tap_dir_high=_direction(tap_move), tap_dir_low=_direction(-tap_move),
+            dx=_ohm(dx), short_move=self.length(abs(short_move)),
+            short_dir_high=_direction(short_move), short_dir_low=_direction(-short_move),
+            dip_tolerance=_step(tolerance), stop_swr=f"{STOP_SWR:g}",
+            min_move=self.length(least),
+            big_move=self.length(BIG_MOVE_FRACTION * dims.stub),
+        )
+
+    def tuning(self) -> tuple:
+        return render_blocks("tuning.j2", **self.tuning_values())
+
+    def log(self) -> tuple:
+        return (
+            Para(_e(f"Readings at the tap. Target at {self.f0}: R = "
+                    f"{_ohm(self.d.feed.impedance_ohm)}, X = 0 Ω, SWR {STOP_SWR:g}:1 or "
+                    "lower."), "note"),
+            WriteIn(header=LOG_COLUMNS, widths=(0.35, 1.2, 0.7, 0.8, 0.8, 4.2), min_rows=12),
+        )
+
+    # -- 8. safety cautions ------------------------------------------------------------------
+    def cautions(self) -> tuple:
+        d, s = self.d, self.s
+        e = s.exposure
+        controlled, general = CATEGORY_NAMES[e.standard]
+        low_point, low_what = self.lowest_live_point()
+        return render_blocks(
+            "cautions.j2", top_height=self.length(self.top_height()), power=self.pep,
+            v_open_rms=_volts(s.voltage_open_end_v_rms),
+            v_open_pk=_volts(s.voltage_open_end_v_peak),
+            v_far_rms=_volts(s.voltage_far_end_v_rms),
+            v_far_pk=_volts(s.voltage_far_end_v_peak),
+            i_short=_amps(s.current_short_a_rms),
+            low_point=self.length(low_point) if low_point is not None else "", low_point_what=low_what,
+            d_general=self.distance(e.distance_general_m),
+            d_controlled=self.distance(e.distance_controlled_m),
+            general_name=general, controlled_name=controlled, standard=STANDARD_NAMES[e.standard],
+            vertical=d.site.orientation == "vertical")
+
+    def lowest_live_point(self) -> tuple[float | None, str]:
+        """Height of the lowest conductor end above ground, m, and what it is (horizontal: the short;
+        sloper: the short or the radiator's far end; vertical: None, the short is on the mast)."""
+        site, dims = self.d.site, self.s.dimensions
+        if site.orientation == "vertical":
+            return None, ""
+        short = site.height_m - dims.stub
+        if site.orientation == "sloper":
+            far = site.height_m - dims.radiator * math.sin(site.slope_rad)
+            if far < short:
+                return far, "the radiator's far end"
+        return short, "the bottom of the stub"
+
+    # -- 9. as-built record ------------------------------------------------------------------
+    def as_built(self) -> tuple:
+        d, s = self.d, self.s
+        dims = s.dimensions
+        sw = s.sweep
+        best = int(np.argmin(sw.swr))
+        designed = (_e("as designed (predicted)"), "", _e(self.length(dims.radiator)),
+                    _e(self.length(dims.stub)), _e(self.length(dims.tap)),
+                    _e(_freq(float(sw.frequency_hz[best]))),
+                    _e(_swr(float(sw.swr[best]))), "")
+        rows = [designed]
+        for entry in d.record:
+            rows.append((
+                _e(entry.date), _e(entry.site or ""),
+                self.built(entry.radiator_m, dims.radiator), self.built(entry.stub_m, dims.stub),
+                self.built(entry.tap_m, dims.tap),
+                _e(_freq(entry.resonance_hz)) + _e(
+                    f" ({(entry.resonance_hz - s.frequency_hz) / 1e3:+.0f} kHz)")
+                if entry.resonance_hz is not None else "",
+                _e(f"{entry.swr:.2f}") if entry.swr is not None else "",
+                _e(entry.note or "")))
+        return (
+            *render_blocks("asbuilt.j2", entries=len(d.record)),
+            Table(header=("date", "site", "radiator", "stub", "tap", "lowest SWR at", "SWR", "note"),
+                  rows=tuple(rows), widths=(1.1, 0.9, 1.2, 1.2, 1.0, 1.5, 0.5, 1.6),
+                  align=("left", "left", "right", "right", "right", "right", "right", "left"),
+                  blank_rows=0 if d.record else BLANK_RECORD_ROWS),
+        )
+
+    def built(self, built_m: float | None, designed_m: float) -> str:
+        if built_m is None:
+            return ""
+        diff = built_m - designed_m
+        sign = "+" if diff >= 0 else "-"
+        return _e(f"{self.length(built_m)} ({sign}{self.length(abs(diff))})")
