@@ -1,0 +1,619 @@
+"""Measured sweep -> fitted model -> trim advice and calibration: owns fitting the antenna model to an
+impedance sweep measured at the tap, the advice on the short, the tap and the radiator, and writing the
+fitted calibration into the design file. It must not change the model (physics/), the schema, or any
+file but the design file and its backup (the splice helpers and the atomic replace are record.py's).
+
+Symbols (SI: Hz, m, ohm):
+    f, f0        sweep frequencies and the design frequency
+    z, z_ref     feed impedance, and the impedance the tap is matched to (feed.impedance)
+    rho          reflection coefficient (z - z_ref)/(z + z_ref) (Gamma in most texts)
+    w            weight of a point, (1 - |rho_meas|^2)^WEIGHT_POWER: 1 - |rho|^2 is the share of the
+                 power the antenna accepts there
+    L, S, T      radiator, stub (open top to the short) and tap (short to the tap), DESIGN.md §5
+    D0           (L0, S0, T0): the antenna the sweep was taken on: solve(design), built to the design
+    E            (L_e, S_e, T_e): the antenna's electrical lengths, at which the model reproduces the sweep
+    a, k, v      calibration: radiator_scale, end_resistance_scale, stub_velocity_scale
+
+Method.
+1. Coverage. A fit needs the antenna's match inside the sweep: the lowest |rho| (on z_ref) must lie
+   at least EDGE_POINTS points from either end, with |rho| rising by at least MIN_RISE on both sides
+   of it. The sign of X is not used: this antenna's feed reactance is often inductive on both sides
+   of the match, so X need not change sign even when the match is in the sweep.
+2. Fit. Bounded least squares (scipy.optimize.least_squares, trust-region reflective, at most
+   MAX_NFEV evaluations per start, started from the best points of a grid) of the model's feed
+   impedance, with the design's calibration, over E. Residual per point: (rho_model - rho_meas) w.
+   The reflection coefficient keeps high-impedance points from dominating as ohms would, and w keeps
+   the far skirts, where the stub's off-resonance reactance rules, from outweighing the match. First
+   with the radiator as built (L_e = L0), then with L_e free as well.
+3. Advice. Target: the model's own match at f0, (L_t, S_t, T_t). The radiator is retuned to
+   resonance only if fitting L_e cut the rms residual to RADIATOR_EVIDENCE of the fit without it;
+   otherwise it is left as it is (L_t = L_e) and the stub and tap are matched to it. At the feed the
+   radiator is seen only through the stub, so a model error is easily taken for a radiator error:
+   against NEC-2 sweeps of 20 m antennas (tests/test_fit.py, measured while writing this module) the
+   fitted L_e came out 5-8 % long even for an antenna cut exactly, and trimming by it left SWR about
+   1.6 after the moves, where leaving the radiator and matching the stub to it left 1.03 (cut
+   exactly) and 1.22-1.29 (radiator 3 %, stub 5 %, tap 40 % long). The moves are target - E, made on
+   the antenna as built, so the advised dimensions are D0 + target - E. swr_after is the fitted
+   model's SWR at f0 after the moves as printed (rounded for the tape).
+4. Calibration. (a, k, v) with which solve() gives the advised dimensions: a root (scipy.optimize.root,
+   hybrid Powell) of solve()'s dimensions minus the advised ones; None, with the reason, when it lies
+   outside what the design validator accepts (calibration_bounds), which is typical of a building
+   error much larger than a model error: make the moves, sweep again, fit again. `write_calibration`
+   stores it, so `solve` and `build` give the corrected sheet.
+
+Why the fit is over E and the calibration follows from the advice, rather than fitting (a, k, v) at
+D0 directly: a cut or tap error is not a model error. The stub velocity scale moves the tap's
+electrical length together with the stub's, and no calibration parameter moves the tap alone, so a
+tap off by 40 % cannot be represented; fitting (a, k, v) directly on sweeps that the model itself
+made for such an antenna left rms |rho| residuals of 0.1-0.2 and advice that raised the SWR (measured
+while building this module), whereas E is recovered exactly from such sweeps.
+"""
+
+from __future__ import annotations
+
+import dataclasses
+import math
+import os
+from dataclasses import dataclass
+from datetime import datetime, timezone
+
+import numpy as np
+import yaml
+from scipy.optimize import brentq, least_squares, root
+
+from buildsheet import record, units
+from buildsheet.design import Calibration, Design, design_from_text, parse_date
+from buildsheet.errors import DesignError, RecordError, SweepError
+from buildsheet.physics import jpole
+from buildsheet.physics.lines import Line
+from buildsheet.solve import Dimensions, antenna_model, solve
+from buildsheet.touchstone import Sweep
+
+#: fewest points a sweep may have: three lengths are fitted from it
+MIN_POINTS = 7
+#: points the lowest |rho| must have beyond it on each side
+EDGE_POINTS = 2
+#: rise of |rho| from its lowest value to the highest on each side of it: a match, not a ripple
+MIN_RISE = 0.1
+#: the advice retunes the radiator only if fitting its length makes the rms residual at most this
+#: share of the residual with the radiator as built
+RADIATOR_EVIDENCE = 0.1
+MAX_NFEV = 100
+#: the weight of a point is (1 - |rho_meas|^2) to this power. Against NEC-2 sweeps of mis-cut 20 m
+#: antennas (free space / perfect ground) 1 left SWR 1.31 / 1.25 after the moves, 2 left 1.29 / 1.22
+WEIGHT_POWER = 2
+#: bounds of the electrical lengths, as fractions of the built ones (radiator, stub, tap)
+ELECTRICAL_BOUNDS = ((0.85, 1.15), (0.85, 1.15), (0.25, 4.0))
+#: the grid the fit starts from (stub fractions times tap fractions; the radiator's fit starts from
+#: the best fit without it) and how many of its best points start a least-squares search
+_GRID_STUB = np.linspace(0.88, 1.12, 13)
+_GRID_TAP = (0.5, 1.0, 2.0)
+_STARTS = 2
+#: a calibration must give the advised dimensions to this, m (well under the tape's 1/8 in or 1 mm)
+CALIBRATION_TOLERANCE_M = 0.5e-3
+#: calibration values are written to this many significant digits
+CALIBRATION_DIGITS = 6
+#: the range design.py accepts for every calibration parameter
+CALIBRATION_RANGE = (0.5, 2.0)
+
+
+@dataclass(frozen=True, eq=False)
+class Fit:
+    """A fitted sweep and its advice; lengths in m, frequencies in Hz.
+
+    built: D0; electrical: E; radiator_fitted: whether L_e was fitted (else L_e = L0);
+    radiator_retuned: whether the advice brings the radiator to resonance (else it is left as it is,
+    but for the small move the calibrated model makes of it); advised: the dimensions to move to;
+    moves_m: radiator (+ add wire), short (+ toward the open top), tap (+ the tap clamp toward the
+    open top), DESIGN.md §5 signs; moves_rounded_m: the same as printed for the tape;
+    calibration: (a, k, v) giving `advised` from solve(), or None with calibration_note saying why;
+    z_fit: the fitted model at the sweep's frequencies; fit_rms_ohm = rms |z_fit - z_meas|;
+    fit_rms_reflection = rms |rho_fit - rho_meas|; swr_before: measured at f0 (None if f0 lies
+    outside the sweep); best_hz, best_swr: the measured point of lowest SWR; swr_after: predicted.
+    """
+    design: Design
+    sweep: Sweep
+    units: str
+    built: Dimensions
+    electrical: tuple
+    radiator_fitted: bool
+    radiator_retuned: bool
+    advised: tuple
+    moves_m: dict
+    moves_rounded_m: dict
+    calibration: Calibration | None
+    calibration_note: str | None
+    z_fit: np.ndarray
+    fit_rms_ohm: float
+    fit_rms_reflection: float
+    swr_before: float | None
+    best_hz: float
+    best_swr: float
+    swr_after: float
+
+    def to_dict(self, written: dict | None = None) -> dict:
+        """The JSON of `fit --json` (DESIGN.md §6): SI units; `written` describes a --write."""
+        cal = self.calibration
+        s = self.sweep
+        names = ("radiator", "stub", "tap")
+        return {
+            "name": self.design.name,
+            "design_id": self.design.document_id,
+            "frequency_hz": self.design.frequency_hz,
+            "sweep": {"file": s.path, "points": len(s.frequency_hz),
+                      "frequency_hz": [float(s.frequency_hz[0]), float(s.frequency_hz[-1])]},
+            "calibration": None if cal is None else {
+                "radiator_scale": cal.radiator_scale, "end_resistance_scale": cal.end_resistance_scale,
+                "stub_velocity_scale": cal.stub_velocity_scale},
+            "calibration_note": self.calibration_note,
+            "electrical_m": dict(zip(names, self.electrical)),
+            "radiator_fitted": self.radiator_fitted,
+            "radiator_retuned": self.radiator_retuned,
+            "fit_rms_ohm": self.fit_rms_ohm,
+            "fit_rms_reflection": self.fit_rms_reflection,
+            "built_m": {"radiator": self.built.radiator, "stub": self.built.stub, "tap": self.built.tap},
+            "dimensions_m": dict(zip(names, self.advised)),
+            "moves_m": dict(self.moves_m),
+            "swr_before": self.swr_before,
+            "best": {"frequency_hz": self.best_hz, "swr": self.best_swr},
+            "swr_after": self.swr_after,
+            "points": {"frequency_hz": s.frequency_hz.tolist(), "r_ohm": s.z_ohm.real.tolist(),
+                       "x_ohm": s.z_ohm.imag.tolist(), "r_fit_ohm": self.z_fit.real.tolist(),
+                       "x_fit_ohm": self.z_fit.imag.tolist()},
+            "written": written,
+        }
+
+
+# ----------------------------------------------------------------------------------------------
+# The calibrated model.
+# WORKAROUND until physics/jpole.py and solve.py take the calibration themselves (hooks requested):
+#  - jpole.Antenna has no end_resistance_scale: the end load z_top is scaled here, its shunt
+#    resistance times k and its susceptance kept (so the radiator's resonant length is unchanged),
+#    through the public jpole.radiator_end_impedance and jpole.tap_impedance;
+#  - jpole.Antenna refuses wire_vf > 1, which radiator_scale < 1 on bare wire needs: set past the check;
+#  - solve.stub_line_model scales a geometry line's permittivity (which changes its Z0 too): here the
+#    velocity is scaled as for a nominal line, L' and C' over v, keeping Z0 and the loss per metre.
+# When the hooks land, _model becomes antenna_model(design.with_changes(calibration=cal)).
+
+@dataclass(frozen=True)
+class _Model:
+    """The antenna model with one calibration: feed impedance, 2-D match, and solve()'s resolve."""
+    ant: jpole.Antenna
+    end_resistance_scale: float
+
+    def z_feed(self, f, L: float, S: float, T: float) -> np.ndarray:
+        """Feed impedance (ohm) at frequencies f (Hz) for radiator L, stub S and tap T (m)."""
+        f = np.atleast_1d(np.asarray(f, dtype=float))
+        z_top = jpole.radiator_end_impedance(f, L, self.ant, S)
+        if self.end_resistance_scale != 1.0:
+            y_top = 1.0 / z_top
+            z_top = 1.0 / (y_top.real / self.end_resistance_scale + 1j * y_top.imag)
+        return jpole.tap_impedance(f, self.ant, S, T, z_top)
+
+    def match(self, f0: float, z_ref: float, L: float, start=None) -> tuple[float, float]:
+        """(S, T), m, with z_feed = z_ref + j0 at f0 for radiator L, found from `start` (S, T) or
+        from jpole.solve_match's; ValueError if there is none."""
+        k = self.end_resistance_scale
+        if start is None:
+            S, T = jpole.solve_match(f0, z_ref, self.ant, L)
+            if k == 1.0:
+                return S, T
+            # the feed resistance goes nearly as k sin^2(beta T): start from the tap that undoes k
+            start = (S, T / math.sqrt(k))
+
+        def resid(x):
+            z = self.z_feed(f0, L, x[0], x[1])[0]
+            return [z.real / z_ref - 1.0, z.imag / z_ref]
+
+        sol = root(resid, list(start), method="hybr", options={"maxfev": 60, "xtol": 1e-12})
+        S, T = (float(x) for x in sol.x)
+        if np.max(np.abs(resid(sol.x))) > 1e-6 or not 0 < T < S:
+            raise ValueError(f"no stub/tap match for {z_ref} ohm at {f0:.6g} Hz")
+        return S, T
+
+    def resonant_length(self, f0: float, start: float | None = None) -> float:
+        """solve()'s radiator: jpole.resonant_radiator_length with its default common-mode arm;
+        from `start` (m) by a bracketed root within 2 % of it (the same root, found faster)."""
+        if start is None:
+            return jpole.resonant_radiator_length(f0, self.ant)
+        def reactance(L):
+            return float(np.imag(jpole.radiator_end_impedance(np.array([f0]), L, self.ant))[0])
+
+        lo, hi = 0.98 * start, 1.02 * start
+        if not reactance(lo) > 0 >= reactance(hi):
+            return jpole.resonant_radiator_length(f0, self.ant)
+        return float(brentq(reactance, lo, hi, xtol=1e-9 * start))
+
+    def resolve(self, f0: float, z_ref: float, start=None) -> tuple[float, float, float]:
+        """(L, S, T) as solve() chooses them: the resonant radiator, then the 2-D match; `start`:
+        a nearby (L, S, T) to search from."""
+        L = self.resonant_length(f0, None if start is None else start[0])
+        return (L, *self.match(f0, z_ref, L, None if start is None else start[1:]))
+
+
+def _model(design: Design, cal: Calibration) -> _Model:
+    base = antenna_model(design.with_changes(calibration=Calibration()))
+    line, v = base.stub_line, cal.stub_velocity_scale
+    ant = dataclasses.replace(base, stub_line=Line(L=line.L / v, C=line.C / v, z_int=line.z_int, G=line.G))
+    vf = base.wire_vf / cal.radiator_scale
+    if vf <= 1.0:
+        ant = dataclasses.replace(ant, wire_vf=vf)
+    else:
+        object.__setattr__(ant, "wire_vf", vf)
+    return _Model(ant, cal.end_resistance_scale)
+
+
+def calibration_bounds(design: Design) -> tuple[tuple[float, float], ...]:
+    """(lo, hi) of radiator_scale, end_resistance_scale, stub_velocity_scale that the design
+    validator accepts: CALIBRATION_RANGE, and no velocity factor above 1 (design.py)."""
+    lo, hi = CALIBRATION_RANGE
+    stub_vf = design.stub.velocity_factor or 1.0 / math.sqrt(design.stub.eps_r)
+    return ((max(lo, design.radiator.velocity_factor), hi), (lo, hi), (lo, min(hi, 1.0 / stub_vf)))
+
+
+# ----------------------------------------------------------------------------------------------
+# Fitting
+
+def check_coverage(sweep: Sweep, z_ref: float) -> int:
+    """Index of the sweep's lowest |rho| on z_ref (ohm); SweepError if the sweep does not show the
+    antenna's match with enough of a rise on both sides (module docstring, step 1)."""
+    f = sweep.frequency_hz
+    n = len(f)
+    if n < MIN_POINTS:
+        raise SweepError(f"has {n} points; a fit needs at least {MIN_POINTS} across the antenna's "
+                         "match", file=sweep.path)
+    mag = np.abs(sweep.reflection(z_ref))
+    i = int(np.argmin(mag))
+    lowest = f"its lowest SWR ({_swr(mag[i]):.2f}, at {units.format_frequency(f[i])})"
+    advice = ("sweep a range with the lowest SWR well inside it, a few points beyond it on each side; "
+              "the fit does not guess from a sweep that does not show the match")
+    if i < EDGE_POINTS or i > n - 1 - EDGE_POINTS:
+        end = "lower" if i < EDGE_POINTS else "upper"
+        raise SweepError(f"does not cover the antenna's match: {lowest} is at its {end} end; {advice}",
+                         file=sweep.path)
+    rise = min(mag[:i].max(), mag[i + 1:].max()) - mag[i]
+    if rise < MIN_RISE:
+        raise SweepError(f"does not show a clear match: {lowest} is hardly lower than the rest of the "
+                         f"sweep (|rho| rises only {rise:.2f} on one side, at least {MIN_RISE} is "
+                         f"needed); {advice}", file=sweep.path)
+    return i
+
+
+def _swr(mag):
+    """SWR from |rho|; inf from |rho| = 1 up (a sweep of a faulty or badly calibrated analyser)."""
+    mag = np.minimum(np.asarray(mag, dtype=float), 1.0)
+    with np.errstate(divide="ignore"):
+        return (1.0 + mag) / (1.0 - mag)
+
+
+def _fit_electrical(model: _Model, f, rho_meas, w, z_ref, D0: Dimensions, fit_radiator: bool,
+                    start=None):
+    """Least squares of the weighted reflection residual over the fractions (S/S0, T/T0) and, if
+    fit_radiator, L/L0 (from `start`, the fit without it); else from the grid. Returns (fractions,
+    rms weighted residual, names of the lengths that ended at a bound)."""
+    def residual(x):
+        lf = x[2] if fit_radiator else 1.0
+        z = model.z_feed(f, D0.radiator * lf, D0.stub * x[0], D0.tap * x[1])
+        r = ((z - z_ref) / (z + z_ref) - rho_meas) * w
+        return np.concatenate([r.real, r.imag])
+
+    bounds = [ELECTRICAL_BOUNDS[1], ELECTRICAL_BOUNDS[2]] + ([ELECTRICAL_BOUNDS[0]] if fit_radiator else [])
+    lo, hi = np.array([b[0] for b in bounds]), np.array([b[1] for b in bounds])
+    if start is None:
+        starts = [np.array([s, t]) for s in _GRID_STUB for t in _GRID_TAP]
+    else:
+        starts = [np.array([start[0], start[1], 1.0])]
+    costs = [float(np.sum(residual(x) ** 2)) for x in starts]
+    best = None
+    for i in np.argsort(costs)[:_STARTS]:
+        sol = least_squares(residual, starts[i], bounds=(lo, hi), method="trf",
+                            x_scale=np.where(np.arange(len(lo)) == 1, 0.1, 0.01), max_nfev=MAX_NFEV)
+        if best is None or sol.cost < best.cost:
+            best = sol
+    x = best.x
+    at_bound = np.nonzero((x - lo < 1e-3 * (hi - lo)) | (hi - x < 1e-3 * (hi - lo)))[0]
+    rms = float(np.sqrt(2.0 * best.cost / len(f)))
+    return x, rms, [("stub", "tap", "radiator")[j] for j in at_bound]
+
+
+def fit_sweep(design: Design, sweep: Sweep, built: Dimensions | None = None) -> Fit:
+    """Fit the model to `sweep`, measured at the tap of the antenna `built` (default: built to the
+    design, solve(design).dimensions), and work out the moves and the calibration (module
+    docstring). SweepError if the sweep cannot be fitted."""
+    f0, z_ref = design.frequency_hz, design.feed.impedance_ohm
+    f = sweep.frequency_hz
+    check_coverage(sweep, z_ref)
+    D0 = built or solve(design).dimensions
+    model0 = _model(design, design.calibration)
+    rho_meas = sweep.reflection(z_ref)
+    w = np.clip(1.0 - np.abs(rho_meas) ** 2, 0.0, 1.0) ** WEIGHT_POWER
+
+    x2, rms2, edge2 = _fit_electrical(model0, f, rho_meas, w, z_ref, D0, False)
+    if edge2:
+        raise SweepError(f"does not look like a sweep of this design's antenna: the fitted "
+                         f"{' and '.join(edge2)} reached the edge of the range the fit allows "
+                         f"(stub {ELECTRICAL_BOUNDS[1][0]:g}-{ELECTRICAL_BOUNDS[1][1]:g}, tap "
+                         f"{ELECTRICAL_BOUNDS[2][0]:g}-{ELECTRICAL_BOUNDS[2][1]:g} times as built); "
+                         "check that the sweep was taken at the tap (not through the coax) on the "
+                         "antenna of this design file", file=sweep.path)
+    x3, rms3, edge3 = _fit_electrical(model0, f, rho_meas, w, z_ref, D0, True, start=x2)
+    # a radiator fitted to the edge of its range is no description: keep it as built
+    x = x3 if not edge3 else np.array([x2[0], x2[1], 1.0])
+    retune = not edge3 and rms3 <= RADIATOR_EVIDENCE * rms2
+    E = (D0.radiator * x[2], D0.stub * x[0], D0.tap * x[1])
+    z_fit = model0.z_feed(f, *E)
+
+    try:
+        target = model0.resolve(f0, z_ref) if retune else (E[0], *model0.match(f0, z_ref, E[0]))
+    except ValueError as exc:
+        raise SweepError(f"gives an antenna the model cannot match at "
+                         f"{units.format_frequency(f0)} ({exc})", file=sweep.path) from None
+    try:
+        calibration, note, advised = _calibrate(design, model0, E, D0, target, retune)
+    except ValueError as exc:
+        calibration, note = None, f"none found ({exc}); make the moves by hand"
+        advised = tuple(np.array([D0.radiator, D0.stub, D0.tap]) + np.array(target) - np.array(E))
+    if not 0 < advised[2] < advised[1]:
+        raise SweepError("calls for a tap outside the stub; check the sweep and the design",
+                         file=sweep.path)
+
+    u = design.output.units
+    moves = {"radiator": advised[0] - D0.radiator, "short": D0.stub - advised[1],
+             "tap": (D0.stub - D0.tap) - (advised[1] - advised[2])}
+    rounded = {key: units.parse_quantity(units.format_length(m, u), "length") for key, m in moves.items()}
+    after = (E[0] + rounded["radiator"], E[1] - rounded["short"],
+             E[2] + rounded["tap"] - rounded["short"])
+    swr_after = float(_swr(abs(_rho(model0.z_feed(f0, *after)[0], z_ref))))
+    swr_before = None
+    if f[0] <= f0 <= f[-1]:
+        rho0 = np.interp(f0, f, rho_meas.real) + 1j * np.interp(f0, f, rho_meas.imag)
+        swr_before = float(_swr(abs(rho0)))
+    i_best = int(np.argmin(np.abs(rho_meas)))
+    return Fit(
+        design=design, sweep=sweep, units=u, built=D0, electrical=tuple(float(e) for e in E),
+        radiator_fitted=not edge3, radiator_retuned=bool(retune),
+        advised=tuple(float(a) for a in advised), moves_m=moves,
+        moves_rounded_m=rounded, calibration=calibration, calibration_note=note, z_fit=z_fit,
+        fit_rms_ohm=float(np.sqrt(np.mean(np.abs(z_fit - sweep.z_ohm) ** 2))),
+        fit_rms_reflection=float(np.sqrt(np.mean(np.abs(_rho(z_fit, z_ref) - rho_meas) ** 2))),
+        swr_before=swr_before, best_hz=float(f[i_best]), best_swr=float(_swr(abs(rho_meas[i_best]))),
+        swr_after=swr_after)
+
+
+def _rho(z, z_ref):
+    return (z - z_ref) / (z + z_ref)
+
+
+def _calibrate(design: Design, model0: _Model, E, D0: Dimensions, target, retune: bool):
+    """(calibration or None, note or None, advised (L, S, T)): the calibration with which the
+    calibrated model's resolve() gives D0 + target - E, and the dimensions it gives. target: the
+    electrical (L, S, T) to move to. retune: the radiator goes to resonance (target is the design
+    model's own resolve()); else it is left as it is, moved only as far as the calibrated model's
+    resonance moves it (a change of the stub's velocity moves the common-mode arm the radiator works
+    against), and the target is re-matched for that.
+    The calibration is a root of three equations (two with the radiator left: radiator_scale is
+    kept); None when the root lies outside calibration_bounds, with the reason."""
+    f0, z_ref = design.frequency_hz, design.feed.impedance_ohm
+    cal0 = design.calibration
+    names = ("radiator_scale", "end_resistance_scale", "stub_velocity_scale")
+    free = np.array([retune, True, True])
+    x0 = np.array([getattr(cal0, n) for n in names])
+    D0v = np.array([D0.radiator, D0.stub, D0.tap])
+    warm = {"got": None, "target": None}
+
+    def calibration(p) -> Calibration:
+        x = x0.copy()
+        x[free] = p
+        return Calibration(**{n: float(v) for n, v in zip(names, x)})
+
+    def state(p, exact=False):
+        got = np.array(_model(design, calibration(p)).resolve(f0, z_ref, None if exact else warm["got"]))
+        if not np.all(np.isfinite(got)):
+            raise ValueError("the calibrated model gives no dimensions")
+        if not retune:
+            t_l = E[0] + got[0] - D0.radiator
+            t = (t_l, *model0.match(f0, z_ref, t_l, None if exact else warm["target"]))
+            warm["target"] = t[1:]
+        else:
+            t = target
+        warm["got"] = got
+        return got, D0v + np.array(t) - np.array(E)
+
+    def residual(p):
+        if np.any(p < 0.1 * CALIBRATION_RANGE[0]) or np.any(p > 10 * CALIBRATION_RANGE[1]):
+            return np.full(int(free.sum()), 1.0)     # far outside any calibration: steer back
+        try:
+            got, want = state(p)
+        except ValueError:
+            return np.full(int(free.sum()), 1.0)     # no match for this trial calibration
+        return ((got - want) / D0v)[free]
+
+    with np.errstate(all="ignore"):
+        sol = root(residual, x0[free], method="hybr", options={"maxfev": 40, "xtol": 1e-12})
+    cal = calibration(sol.x)
+    rounded = Calibration(**{n: float(f"{getattr(cal, n):.{CALIBRATION_DIGITS}g}") for n in names})
+    got, want = state(np.array([getattr(rounded, n) for n in names])[free], exact=True)
+    reasons = [_bound_reason(design, n, getattr(rounded, n), lo, hi)
+               for n, (lo, hi) in zip(names, calibration_bounds(design))
+               if not lo <= getattr(rounded, n) <= hi]
+    if not reasons and np.max(np.abs(got - want)) <= CALIBRATION_TOLERANCE_M:
+        return rounded, None, tuple(want)
+    reason = "; ".join(reasons) or "no calibration gives these dimensions"
+    return None, f"none stored: {reason}; make the moves by hand", tuple(want)
+
+
+def _bound_reason(design: Design, name: str, value: float, lo: float, hi: float) -> str:
+    """Why a calibration value outside calibration_bounds cannot be stored."""
+    low, high = CALIBRATION_RANGE
+    if not low <= value <= high:
+        return (f"{name} would have to be {value:.4g}, outside the {low:g}-{high:g} a calibration may "
+                "have (more like a building error than a model error: sweep again after the moves "
+                "and fit again)")
+    part = "radiator" if name == "radiator_scale" else "stub"
+    return (f"{name} would have to be {value:.4g}, {'below' if value < lo else 'above'} "
+            f"{lo if value < lo else hi:.4g}, which would make the {part}'s velocity factor exceed 1 "
+            "(design files refuse that)")
+
+
+# ----------------------------------------------------------------------------------------------
+# Text
+
+def fit_text(fit: Fit, written: dict | None = None) -> str:
+    """The terminal report of `buildsheet fit`: the fit, the moves in the design's units, the SWR
+    predicted after them, and what --write does or did."""
+    u = fit.units
+    L = lambda m: units.format_length(m, u)  # noqa: E731 - a local shorthand
+    d, s = fit.design, fit.sweep
+    D0, E, adv, mv = fit.built, fit.electrical, fit.advised, fit.moves_rounded_m
+    f0 = units.format_frequency(d.frequency_hz)
+    rows: list[str] = []
+    add = rows.append
+    add(f"{d.title}  [{d.name}, document {d.document_id}]")
+    add(f"sweep {os.path.basename(s.path)}: {len(s.frequency_hz)} points, "
+        f"{units.format_frequency(s.frequency_hz[0])} to {units.format_frequency(s.frequency_hz[-1])}, "
+        f"measured at the tap")
+    before = "outside the sweep" if fit.swr_before is None else f"{fit.swr_before:.2f}"
+    add(f"measured: best SWR {fit.best_swr:.2f} at {units.format_frequency(fit.best_hz)}; "
+        f"SWR at {f0}: {before}")
+    add(f"fit: rms {units.format_impedance(fit.fit_rms_ohm)} (reflection {fit.fit_rms_reflection:.3f}) "
+        "over the sweep, weighted to the match")
+    radiator = f"radiator {L(E[0])}, " if fit.radiator_fitted else ""
+    built = f"{L(D0.radiator)}, " if fit.radiator_fitted else ""
+    add(f"  the antenna behaves as the model with {radiator}stub {L(E[1])} and tap {L(E[2])} "
+        f"(built: {built}{L(D0.stub)} and {L(D0.tap)})")
+    if not fit.radiator_retuned:
+        add("  the radiator is left as it is: the sweep does not tell its length apart from the model's "
+            "own error, so the short and the tap do the matching")
+    add("")
+    add(f"To match at {f0} ({units.length_rounding(u)}):")
+    r = mv["radiator"]
+    if r == 0:
+        add(f"  1. Radiator: no change ({L(D0.radiator)}).")
+    else:
+        why = "" if fit.radiator_retuned else (" (a small change that follows the stub's correction: "
+                                               "the radiator works against the stub's common mode)")
+        add(f"  1. Radiator: {'add' if r > 0 else 'trim'} {L(abs(r))} "
+            f"({L(D0.radiator)} -> {L(adv[0])}){why}.")
+    sh = mv["short"]
+    if sh == 0:
+        add(f"  2. Short: no change (stub {L(D0.stub)}).")
+    else:
+        passes = " Take the tap off first: the short passes its place." if sh >= D0.tap else ""
+        add(f"  2. Short: move it {L(abs(sh))} {'toward' if sh > 0 else 'away from'} the top "
+            f"(stub {L(D0.stub)} -> {L(adv[1])}).{passes}")
+    tp = mv["tap"]
+    where = f"it then sits {L(adv[2])} above the short (it was {L(D0.tap)})"
+    if tp == 0:
+        add(f"  3. Tap: leave the clamp where it is; {where}.")
+    else:
+        add(f"  3. Tap: move it {L(abs(tp))} {'up, toward' if tp > 0 else 'down, away from'} the top; "
+            f"{where}.")
+    add(f"Predicted SWR at {f0} after these moves: {fit.swr_after:.2f}. Sweep again to check.")
+    add("")
+    cal = fit.calibration
+    if written:
+        add(f"Calibration written to {written['design']} (previous file: {written['backup']}); "
+            f"document {written['design_id']}. `buildsheet solve` now gives these dimensions.")
+    elif cal is not None:
+        add(f"Calibration: radiator_scale {cal.radiator_scale:g}, end_resistance_scale "
+            f"{cal.end_resistance_scale:g}, stub_velocity_scale {cal.stub_velocity_scale:g}; "
+            "--write stores it so that `solve` gives these dimensions.")
+    else:
+        add(f"Calibration: {fit.calibration_note}.")
+    return "\n".join(rows) + "\n"
+
+
+# ----------------------------------------------------------------------------------------------
+# Writing the calibration into the design file (record.py's splice helpers and atomic replace)
+
+def sweep_date(path: str) -> str:
+    """The sweep file's modification date, YYYY-MM-DD (UTC): when it was measured, as far as a file
+    can say."""
+    try:
+        return datetime.fromtimestamp(os.path.getmtime(path), tz=timezone.utc).strftime("%Y-%m-%d")
+    except OSError as exc:
+        raise SweepError(f"cannot be read ({exc.strerror})", file=path) from None
+
+
+def splice_calibration(text: str, cal: Calibration) -> str:
+    """`text` with its `calibration:` value replaced by `cal` (a block mapping); every character
+    outside that value is kept. No `calibration:` key: one is added at the end of the top-level
+    mapping. Raises RecordError for a document written as one flow mapping."""
+    root = yaml.compose(text, Loader=yaml.SafeLoader)
+    if not isinstance(root, yaml.MappingNode) or root.flow_style:
+        raise RecordError("is written as one flow mapping {...}; write the file as a block mapping "
+                          "(one key per line) to store a calibration")
+    nl = record._newline(text)
+    base = root.start_mark.column
+    entries = [("radiator_scale", repr(cal.radiator_scale)),
+               ("end_resistance_scale", repr(cal.end_resistance_scale)),
+               ("stub_velocity_scale", repr(cal.stub_velocity_scale)),
+               ("source", record.scalar(cal.source)), ("date", record.scalar(cal.date))]
+
+    def block(column: int) -> str:
+        return "".join(f"{' ' * column}{key}: {value}{nl}" for key, value in entries)
+
+    for key, value in root.value:
+        if key.value == "calibration":
+            break
+    else:
+        end = root.end_mark.index
+        return (text[:end] + record._lead(text, end, nl) + " " * base + "calibration:" + nl
+                + block(base + record._indent(root)) + text[end:])
+    if isinstance(value, yaml.MappingNode) and value.value:
+        if value.flow_style:
+            flow = "{" + ", ".join(f"{k}: {v}" for k, v in entries) + "}"
+            return text[:value.start_mark.index] + flow + text[value.end_mark.index:]
+        column = value.start_mark.column
+        end = record._last_leaf(value).end_mark
+        at = end.index if end.column == 0 else record._line_end(text, end.index)
+        return text[:value.start_mark.index - column] + block(column) + text[at:]
+    # an empty value ({}, ~, null or nothing): drop it, keep a comment after it, put the block below
+    start, end = value.start_mark.index, value.end_mark.index
+    while start > key.end_mark.index and text[start - 1] in " \t":
+        start -= 1
+    at = record._line_end(text, end)
+    return (text[:start] + text[end:at] + record._lead(text, at, nl)
+            + block(base + record._indent(root)) + text[at:])
+
+
+def write_calibration(path: str, fit: Fit, date: str | None = None) -> dict:
+    """Store fit.calibration (with the sweep's file name and `date`, default the sweep file's date) in
+    the design file at `path`, which must still hold the design that was fitted. The result is read
+    back and must equal the old design with the new calibration, and solve() of it must give the
+    advised dimensions; only then is the file replaced (atomically, the old bytes kept as the
+    backup). Returns {design, backup, design_id}. RecordError (nothing written) otherwise."""
+    if fit.calibration is None:
+        raise RecordError(f"no calibration written: {fit.calibration_note}", file=path)
+    when = parse_date(date) if date is not None else sweep_date(fit.sweep.path)
+    if when is None:
+        raise RecordError(f"must be a date YYYY-MM-DD, got '{date}'", key="--date")
+    raw, before = record._read(path)
+    bom = record._BOM if raw.startswith(record._BOM) else b""
+    try:
+        text = raw[len(bom):].decode("utf-8")
+    except UnicodeDecodeError as exc:
+        raise DesignError(f"is not UTF-8 text (byte {exc.start + len(bom)})", file=path) from None
+    old = design_from_text(text, path)
+    if old.with_changes(output=fit.design.output) != fit.design:
+        raise RecordError("changed since it was read for the fit; nothing was written: run the command "
+                          "again", file=path)
+    cal = dataclasses.replace(fit.calibration, source=os.path.basename(fit.sweep.path), date=when)
+    new_text = splice_calibration(text, cal)
+    try:
+        new = design_from_text(new_text, path)
+    except DesignError as exc:
+        raise RecordError(f"the calibration cannot be stored ({exc.problem}); nothing was written",
+                          file=path, key=exc.key) from None
+    if new != old.with_changes(calibration=cal):
+        raise RecordError("the file with the calibration does not read back as the old design with the "
+                          "new calibration; nothing was written (please report this file)", file=path)
+    got = solve(new).dimensions
+    diff = np.abs(np.array([got.radiator, got.stub, got.tap]) - np.array(fit.advised))
+    if np.max(diff) > CALIBRATION_TOLERANCE_M:
+        raise RecordError("`solve` with this calibration would not give the advised dimensions (off by "
+                          f"{np.max(diff) * 1e3:.1f} mm: this version of the model does not apply every "
+                          "calibration parameter yet); nothing was written: make the moves by hand",
+                          file=path)
+    backup = record._replace(path, raw, before, bom + new_text.encode("utf-8"))
+    return {"design": path, "backup": backup, "design_id": new.document_id}
