@@ -245,10 +245,9 @@ def _model(design: Design, cal: Calibration) -> _Model:
 
 def calibration_bounds(design: Design) -> tuple[tuple[float, float], ...]:
     """(lo, hi) of radiator_scale, end_resistance_scale, stub_velocity_scale that the design
-    validator accepts: CALIBRATION_RANGE, and no velocity factor above 1 (design.py)."""
+    validator accepts: CALIBRATION_RANGE, and no radiator velocity factor above 1 (design.py)."""
     lo, hi = CALIBRATION_RANGE
-    stub_vf = design.stub.velocity_factor or 1.0 / math.sqrt(design.stub.eps_r)
-    return ((max(lo, design.radiator.velocity_factor), hi), (lo, hi), (lo, min(hi, 1.0 / stub_vf)))
+    return ((max(lo, design.radiator.velocity_factor), hi), (lo, hi), (lo, hi))
 
 
 # ----------------------------------------------------------------------------------------------

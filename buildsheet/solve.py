@@ -5,6 +5,7 @@ no rounding, no units other than SI, no text beyond the cut-list and hardware no
 
 from __future__ import annotations
 
+import dataclasses
 import math
 from dataclasses import dataclass
 
@@ -179,14 +180,19 @@ class Solution:
 # ----------------------------------------------------------------------------------------------
 
 def stub_line_model(design: Design) -> Line:
-    """The stub's Line: from measured figures (nominal) or from geometry."""
+    """The stub's Line: from measured figures (nominal) or from geometry, its velocity scaled by the
+    calibration (L and C both divided by the scale: same Z0, faster or slower wave)."""
     s = design.stub
-    scale = design.calibration.stub_velocity_scale
     if s.kind == "nominal":
         points = tuple((f, db / (100 * FT)) for f, db in s.loss_db_per_100ft)
-        return Line.nominal(s.z0_ohm, s.velocity_factor * scale, loss_points=points)
-    return Line.two_wire(s.spacing_m, s.conductor_diameter_m, s.conductivity_s_m,
-                         eps_eff=s.eps_r / scale ** 2, tan_delta=s.tan_delta)
+        line = Line.nominal(s.z0_ohm, s.velocity_factor, loss_points=points)
+    else:
+        line = Line.two_wire(s.spacing_m, s.conductor_diameter_m, s.conductivity_s_m,
+                             eps_eff=s.eps_r, tan_delta=s.tan_delta)
+    scale = design.calibration.stub_velocity_scale
+    if scale == 1.0:
+        return line
+    return dataclasses.replace(line, L=line.L / scale, C=line.C / scale)
 
 
 def coax_line_model(design: Design) -> Line:

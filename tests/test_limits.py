@@ -106,10 +106,8 @@ def _wavelength(frequency_hz: float) -> float:
 def _calibration_scales(accepted):
     cases = _range_cases("calibration.end_resistance_scale", accepted,
                          lambda v: _design("harbour-6m", {"calibration.end_resistance_scale": v}))
-    # a stub velocity scale of 2 needs a line of velocity factor 0.5 at most (the rule two rows down)
     cases += _range_cases("calibration.stub_velocity_scale", accepted,
-                          lambda v: _design("harbour-6m", {"stub.line.velocity_factor": 0.5,
-                                                           "calibration.stub_velocity_scale": v}))
+                          lambda v: _design("harbour-6m", {"calibration.stub_velocity_scale": v}))
     # the radiator scale's low edge is the velocity-factor rule (0.8 at least, the next row), so
     # here only its edge just outside and the high edge
     cases += _range_cases("calibration.radiator_scale", accepted,
@@ -125,14 +123,6 @@ def _radiator_scale_vs_vf(accepted):
                                                   "calibration.radiator_scale": scale})
     return [("radiator_scale = pvc velocity factor", make(vf), None),
             ("radiator_scale below it", make(vf * (1 - 1e-3)), "calibration.radiator_scale")]
-
-
-def _stub_scale_vs_vf(accepted):
-    assert "1 / the stub line's velocity factor" in accepted
-    vf = catalog().stub_line("window-450").velocity_factor
-    make = lambda scale: _design("oak-yard-20m", {"calibration.stub_velocity_scale": scale})  # noqa: E731
-    return [("stub_velocity_scale just under 1/vf", make(1 / vf * (1 - 1e-9)), None),
-            ("stub_velocity_scale above 1/vf", make(1 / vf * (1 + 1e-3)), "calibration.stub_velocity_scale")]
 
 
 def _band_ratio(accepted):
@@ -300,7 +290,6 @@ BUILDERS = {
     ("`calibration.radiator_scale`, `calibration.end_resistance_scale`, `calibration.stub_velocity_scale`",
      "0.5 to 2"): _calibration_scales,
     ("`calibration.radiator_scale`", "at least"): _radiator_scale_vs_vf,
-    ("`calibration.stub_velocity_scale`", "at most"): _stub_scale_vs_vf,
     ("`record.N.swr`", "1 to 100"): _record_swr,
     ("(any quantity)", "at most 64"): _any_quantity,
 }
