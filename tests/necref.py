@@ -101,17 +101,19 @@ def _nseg(length: float, target: float, radius: float, odd: bool = False) -> int
     return max(1, n)
 
 
-def jpole_wires(d: JPoleDims, f_mesh: float) -> tuple[Wire, ...]:
-    """Wires of the J-pole meshed for frequency f_mesh (Hz; use the highest frequency of the run)."""
+def jpole_wires(d: JPoleDims, f_mesh: float, stub_segment: float | None = None,
+                bar_segments: int | None = None) -> tuple[Wire, ...]:
+    """Wires of the J-pole meshed for frequency f_mesh (Hz; use the highest frequency of the run).
+    stub_segment (m) and bar_segments override the DESIGN.md §7 rule, for mesh studies only."""
     if not 0.0 < d.tap < d.stub:
         raise ValueError(f"tap {d.tap} m must lie between the short and the open top (stub {d.stub} m)")
     lam = C0 / f_mesh
     s, a_s, a_w = d.spacing, d.stub_d / 2.0, d.wire_d / 2.0
-    seg_stub = min(lam / 40.0, 8.0 * s)
+    seg_stub = min(lam / 40.0, 8.0 * s) if stub_segment is None else stub_segment
     n_low = _nseg(d.tap, seg_stub, a_s)
     n_high = _nseg(d.stub - d.tap, seg_stub, a_s)
     n_rad = _nseg(d.radiator, lam / 2.0 / 121.0, a_w)
-    n_bar = _nseg(s, seg_stub, a_s, odd=True)
+    n_bar = _nseg(s, seg_stub, a_s, odd=True) if bar_segments is None else bar_segments
 
     if d.orientation == "vertical":
         z_short, z_tap, z_top = d.height, d.height + d.tap, d.height + d.stub
@@ -196,11 +198,12 @@ def _currents(sc, wires, lam):
 
 
 def jpole_model(d: JPoleDims, f_hz, currents: bool = False, f_mesh: float | None = None,
-                extended_kernel: bool | None = None) -> NecResult:
+                extended_kernel: bool | None = None, stub_segment: float | None = None,
+                bar_segments: int | None = None) -> NecResult:
     """NEC-2 model of the J-pole from its dimensions: feed impedance (ohm) at each frequency (Hz),
     and optionally the currents. Meshed for f_mesh (default: the highest frequency)."""
     f_hz = np.atleast_1d(np.asarray(f_hz, dtype=float))
-    wires = jpole_wires(d, f_mesh or float(f_hz.max()))
+    wires = jpole_wires(d, f_mesh or float(f_hz.max()), stub_segment, bar_segments)
     tap_bar = wires[TAG_TAP - 1]
     sigma = {TAG_RADIATOR: d.wire_sigma, **{t: d.stub_sigma for t in range(2, 8)}}
     return run(wires, f_hz, d.ground, (TAG_TAP, (tap_bar.nseg + 1) // 2), sigma, currents,

@@ -27,9 +27,10 @@ from scipy.special import sici
 ETA0 = float(np.sqrt(mu_0 / epsilon_0))
 _ETA_4PI = ETA0 / (4.0 * np.pi)
 
-# Gauss-Legendre nodes for the induced-EMF integral along the second wire; 96 points integrate the
-# near field of an image 0.05 lam away to better than 1e-4 ohm.
-_GL_X, _GL_W = np.polynomial.legendre.leggauss(96)
+# Gauss-Legendre nodes for the induced-EMF integral along the second wire: 96 for wires that meet
+# (the common-mode coupling at the junction, converged to ~0.01 ohm at D/2 = 12 mm), 32 for images
+# (clear of the wire by twice its height: 1e-3 ohm).
+_GL = {n: np.polynomial.legendre.leggauss(n) for n in (32, 96)}
 
 
 def _ci(x):
@@ -84,21 +85,32 @@ def dipole_input_impedance(kl, ka):
     return (loop_radiation_resistance(kl) + 1j * loop_reactance(kl, ka)) / s2
 
 
-def resonance_factor(ka):
-    """K = (resonant length of a centre-fed dipole)/(lam/2): the root of the induced-EMF input
-    reactance (Carter 1932; Balanis eq. 4-71) near kl = pi, by Newton steps (vectorised).
-
-    ka: electrical radius k a, rad (ka << 1). Gives K = 0.9728 for (lam/2)/d = 6485, against 0.9712
-    from NEC-2 (CHECK_VALUES §3d): the induced-EMF end effect from the length-to-diameter ratio.
-    """
+def _resonance_factor_newton(ka):
     ka = np.asarray(ka, dtype=float)
     kl = np.full_like(ka, 0.97 * np.pi)
     h = 1e-6
-    for _ in range(8):
+    for _ in range(10):
         x = loop_reactance(kl, ka)
         dx = (loop_reactance(kl + h, ka) - x) / h
         kl = kl - x / dx
     return kl / np.pi
+
+
+# K depends on ka alone and smoothly on ln(ka): tabulate the Newton root once, interpolate after.
+_LN_KA_TABLE = np.linspace(np.log(1e-7), np.log(0.2), 2000)
+_K_TABLE = _resonance_factor_newton(np.exp(_LN_KA_TABLE))
+
+
+def resonance_factor(ka):
+    """K = (resonant length of a centre-fed dipole)/(lam/2): the root of the induced-EMF input
+    reactance (Carter 1932; Balanis eq. 4-71) near kl = pi (vectorised; tabulated in ln(ka) at
+    import; linear interpolation between nodes is good to 1e-6 in K).
+
+    ka: electrical radius k a, rad, 1e-7..0.2. Gives K = 0.9728 for (lam/2)/d = 6485, against
+    0.9712 from NEC-2 (CHECK_VALUES §3d): the induced-EMF end effect from the length-to-diameter ratio.
+    """
+    ln_ka = np.log(np.asarray(ka, dtype=float))
+    return np.interp(ln_ka, _LN_KA_TABLE, _K_TABLE)
 
 
 def loop_reactance_slope(kl, ka):
@@ -126,7 +138,7 @@ def side_by_side_mutual(d_over_lam, l_over_lam=0.5):
     return _ETA_4PI * ((2 * _ci(u0) - _ci(u1) - _ci(u2)) - 1j * (2 * _si(u0) - _si(u1) - _si(u2)))
 
 
-def mutual_impedance(c1, t1, h1, c2, t2, h2, k):
+def mutual_impedance(c1, t1, h1, c2, t2, h2, k, one_sided=False, nodes=96):
     """Mutual impedance of two straight thin wires carrying sinusoidal currents I_m sin k(h - |u|),
     referred to the two loop currents I_m, ohm (induced-EMF method, Carter 1932):
 
@@ -140,12 +152,15 @@ def mutual_impedance(c1, t1, h1, c2, t2, h2, k):
                                          - 2 z cos(kh) e^{-jkr}/r]
 
     c1, c2: centres (3-vectors, m); t1, t2: unit vectors along the wires; h1, h2: half-lengths, m;
-    k: wavenumber(s), rad/m, any shape (the result has that shape). Reproduces side_by_side_mutual
-    for parallel half-waves; valid while wire 2 keeps clear of wire 1 (no self term).
+    k: wavenumber(s), rad/m, any shape (the result has that shape). one_sided: wire 2 is only the
+    arm from c2 along +t2 (length h2, current maximum at c2), as a counterpoise fed at c2.
+    Reproduces side_by_side_mutual for parallel half-waves; valid while wire 2 keeps clear of wire 1
+    (no self term). nodes: Gauss-Legendre points along wire 2, 96 or 32.
     """
+    gl_x, gl_w = _GL[nodes]
     k = np.asarray(k, dtype=float)[..., None]
     c1, t1, c2, t2 = (np.asarray(v, dtype=float) for v in (c1, t1, c2, t2))
-    u = h2 * _GL_X
+    u = h2 * (gl_x + 1) / 2 if one_sided else h2 * gl_x
     pts = c2[None, :] + u[:, None] * t2[None, :]
     rel = pts - c1[None, :]
     z = rel @ t1
@@ -161,7 +176,7 @@ def mutual_impedance(c1, t1, h1, c2, t2, h2, k):
     e_rho = 1j * _ETA_4PI / rho * ((z - h1) * e1 + (z + h1) * e2 - 2 * z * ckh * e0)
     e_t2 = e_z * (t1 @ t2) + e_rho * (rho_hat @ t2)
     i2 = np.sin(k * (h2 - np.abs(u)))
-    return -np.sum(e_t2 * i2 * _GL_W, axis=-1) * h2
+    return -np.sum(e_t2 * i2 * gl_w, axis=-1) * (h2 / 2 if one_sided else h2)
 
 
 def ground_reflection(f, eps_r, sigma):
