@@ -82,7 +82,52 @@ def _parser() -> argparse.ArgumentParser:
     p.add_argument("--date", metavar="YYYY-MM-DD",
                    help="date of the sweep stored with --write (default: the sweep file's date)")
     p.set_defaults(run=_fit)
+
+    p = sub.add_parser("handout", help="one booklet of build sheets for several designs (a club handout)")
+    p.add_argument("designs", nargs="+", metavar="DESIGN",
+                   help="design files, or folders standing for the *.yaml designs in them")
+    p.add_argument("-o", "--output", required=True, metavar="FILE", help="the booklet's PDF file")
+    p.add_argument("--title", metavar="TEXT", help="title on the cover and the booklet's own pages")
+    p.add_argument("--event", metavar="TEXT", help="the event or club, printed under the title")
+    p.add_argument("--date", metavar="YYYY-MM-DD",
+                   help="date of the booklet and revision date of every sheet (default: each sheet's "
+                        "own revision date, the booklet the latest of them)")
+    p.add_argument("--paper", choices=("letter", "a4"),
+                   help="paper of the whole booklet (default: the paper most of the designs ask for)")
+    p.add_argument("--units", choices=("imperial", "metric"), help="override every design's output.units")
+    p.add_argument("--quiet", action="store_true", help="no progress bar on a terminal")
+    p.set_defaults(run=_handout)
     return parser
+
+
+def _handout(args) -> int:
+    import os
+
+    from buildsheet.design import revision_date
+    from buildsheet.handout import Progress, check_text, design_paths, load_designs, make_booklet, prepare
+    from buildsheet.writers.files import write_atomic
+    from buildsheet.writers.pdf import render_booklet
+
+    title, event = check_text("--title", args.title), check_text("--event", args.event)
+    if args.date:
+        revision_date(None, args.date)      # a bad --date is refused before any work
+    designs = load_designs(design_paths(args.designs), args.units)
+    progress = Progress(sys.stderr, enabled=sys.stderr.isatty() and not args.quiet)
+    try:
+        parts = prepare(designs, args.date,
+                        on_done=lambda n: progress.show("preparing sheets", n, len(designs)))
+        booklet = make_booklet(parts, title=title, event=event, paper=args.paper)
+        pdf, pages = render_booklet(booklet,
+                                    on_sheet=lambda i: progress.show("laying out sheets", i + 1, len(parts)))
+    finally:
+        progress.close()
+    try:
+        os.makedirs(os.path.dirname(args.output) or ".", exist_ok=True)
+        write_atomic(args.output, pdf)      # nothing is written before the whole booklet is ready
+    except OSError as exc:
+        raise BuildsheetError(f"cannot write the handout: {exc.strerror or exc}", file=args.output) from None
+    print(f"{args.output}: {len(parts)} build sheets, {pages} pages, dated {booklet.date}")
+    return 0
 
 
 def _fit(args) -> int:

@@ -703,7 +703,6 @@ class _Validator:
                             f"of a wavelength at {units.format_frequency(d.frequency_hz)}; a thin-wire "
                             "model does not apply")
         vf = stub.velocity_factor or 1.0 / math.sqrt(stub.eps_r)
-        self.check_calibration(d)
         stub_estimate = vf * lam / 4
         radiator_estimate = d.radiator.velocity_factor * lam / 2
         if d.site.orientation in ("horizontal", "sloper"):
@@ -721,17 +720,6 @@ class _Validator:
                                     f"{_metres(d.site.height_m)} puts the radiator's far end "
                                     f"{_metres(far)} above ground (the radiator is about "
                                     f"{_metres(radiator_estimate)}); use a smaller slope or a higher top")
-
-    def check_calibration(self, d: Design) -> None:
-        """The radiator's calibration scales the wire's velocity factor, which the radiator model
-        takes as a physical one (at most 1). The stub's scales the line's electrical length and
-        absorbs junction effects too, so any value in its range is accepted."""
-        cal = d.calibration
-        radiator_vf = d.radiator.velocity_factor
-        if radiator_vf / cal.radiator_scale > 1.0:
-            raise self.fail("calibration.radiator_scale", f"{cal.radiator_scale:g} would make the radiator's "
-                            f"velocity factor {radiator_vf / cal.radiator_scale:.3g}, faster than light; "
-                            f"with this insulation it must be at least {radiator_vf:g}")
 
 
 def _describe(value) -> str:

@@ -65,7 +65,6 @@ from buildsheet import record, units
 from buildsheet.design import Calibration, Design, design_from_text, parse_date
 from buildsheet.errors import DesignError, RecordError, SweepError
 from buildsheet.physics import jpole
-from buildsheet.physics.lines import Line
 from buildsheet.solve import Dimensions, antenna_model, solve
 from buildsheet.touchstone import Sweep
 
@@ -165,35 +164,21 @@ class Fit:
 
 
 # ----------------------------------------------------------------------------------------------
-# The calibrated model.
-# WORKAROUND until physics/jpole.py and solve.py take the calibration themselves (hooks requested):
-#  - jpole.Antenna has no end_resistance_scale: the end load z_top is scaled here, its shunt
-#    resistance times k and its susceptance kept (so the radiator's resonant length is unchanged),
-#    through the public jpole.radiator_end_impedance and jpole.tap_impedance;
-#  - jpole.Antenna refuses wire_vf > 1, which radiator_scale < 1 on bare wire needs: set past the check;
-#  - solve.stub_line_model scales a geometry line's permittivity (which changes its Z0 too): here the
-#    velocity is scaled as for a nominal line, L' and C' over v, keeping Z0 and the loss per metre.
-# When the hooks land, _model becomes antenna_model(design.with_changes(calibration=cal)).
+# The calibrated model: solve.antenna_model with the calibration applied, exactly as `solve` uses it.
 
 @dataclass(frozen=True)
 class _Model:
     """The antenna model with one calibration: feed impedance, 2-D match, and solve()'s resolve."""
     ant: jpole.Antenna
-    end_resistance_scale: float
 
     def z_feed(self, f, L: float, S: float, T: float) -> np.ndarray:
         """Feed impedance (ohm) at frequencies f (Hz) for radiator L, stub S and tap T (m)."""
-        f = np.atleast_1d(np.asarray(f, dtype=float))
-        z_top = jpole.radiator_end_impedance(f, L, self.ant, S)
-        if self.end_resistance_scale != 1.0:
-            y_top = 1.0 / z_top
-            z_top = 1.0 / (y_top.real / self.end_resistance_scale + 1j * y_top.imag)
-        return jpole.tap_impedance(f, self.ant, S, T, z_top)
+        return jpole.feed_impedance(np.atleast_1d(np.asarray(f, dtype=float)), self.ant, L, S, T)
 
     def match(self, f0: float, z_ref: float, L: float, start=None) -> tuple[float, float]:
         """(S, T), m, with z_feed = z_ref + j0 at f0 for radiator L, found from `start` (S, T) or
         from jpole.solve_match's; ValueError if there is none."""
-        k = self.end_resistance_scale
+        k = self.ant.end_resistance_scale
         if start is None:
             S, T = jpole.solve_match(f0, z_ref, self.ant, L)
             if k == 1.0:
@@ -232,22 +217,13 @@ class _Model:
 
 
 def _model(design: Design, cal: Calibration) -> _Model:
-    base = antenna_model(design.with_changes(calibration=Calibration()))
-    line, v = base.stub_line, cal.stub_velocity_scale
-    ant = dataclasses.replace(base, stub_line=Line(L=line.L / v, C=line.C / v, z_int=line.z_int, G=line.G))
-    vf = base.wire_vf / cal.radiator_scale
-    if vf <= 1.0:
-        ant = dataclasses.replace(ant, wire_vf=vf)
-    else:
-        object.__setattr__(ant, "wire_vf", vf)
-    return _Model(ant, cal.end_resistance_scale)
+    return _Model(antenna_model(design.with_changes(calibration=cal)))
 
 
 def calibration_bounds(design: Design) -> tuple[tuple[float, float], ...]:
     """(lo, hi) of radiator_scale, end_resistance_scale, stub_velocity_scale that the design
-    validator accepts: CALIBRATION_RANGE, and no radiator velocity factor above 1 (design.py)."""
-    lo, hi = CALIBRATION_RANGE
-    return ((max(lo, design.radiator.velocity_factor), hi), (lo, hi), (lo, hi))
+    validator accepts: CALIBRATION_RANGE for each (design.py)."""
+    return (CALIBRATION_RANGE,) * 3
 
 
 # ----------------------------------------------------------------------------------------------

@@ -210,6 +210,7 @@ def antenna_model(design: Design) -> jpole.Antenna:
         wire_vf=design.radiator.velocity_factor / design.calibration.radiator_scale,
         orientation=site.orientation, height=site.height_m, slope=site.slope_rad,
         ground_kind=site.ground_kind, ground_eps_r=site.permittivity, ground_sigma=site.conductivity_s_m,
+        end_resistance_scale=design.calibration.end_resistance_scale,
     )
 
 

@@ -211,8 +211,6 @@ def test_calibrated_model_resolves_as_solve_where_solve_applies_the_calibration(
     np.testing.assert_allclose(got, dims(design), atol=1e-5)
 
 
-@pytest.mark.xfail(strict=True, reason="solve does not apply end_resistance_scale yet (hook requested "
-                   "in jpole.Antenna); fit.py models it")
 def test_solve_applies_end_resistance_scale_as_fit_models_it():
     base = load_design(DEMO)
     cal = Calibration(end_resistance_scale=1.5)
@@ -412,8 +410,6 @@ def test_write_date_defaults_to_the_sweep_files_date(tmp_path):
     assert load_design(path).calibration.source == "s.s1p"
 
 
-@pytest.mark.xfail(strict=True, reason="solve does not apply end_resistance_scale yet (hook requested "
-                   "in jpole.Antenna), so `fit --write` refuses: solve would not give the advice")
 def test_cli_fit_write_then_solve_gives_the_advice(tmp_path, capsys):
     path = tmp_path / "oak-yard-20m.yaml"
     path.write_bytes(DEMO.read_bytes())

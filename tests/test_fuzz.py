@@ -561,7 +561,6 @@ REGRESSIONS = {
     "lone surrogate in the title": _OAK.replace("title: 20 m end-fed between the oaks", 'title: "\\ud800"'),
     "gauge of 5000 digits": _OAK.replace("wire: 14 AWG", "wire: " + "1" * 5000 + " AWG"),
     "fraction of 5000 digits": _OAK.replace("length: 20 m", "length: 1/" + "1" * 5000 + " in"),
-    "radiator calibration faster than light": _OAK + "calibration: {radiator_scale: 0.5}\n",
     "loss point at 1 Hz": _OAK.replace("line: window-450", "line: {impedance: 400 ohm, velocity_factor: 0.9,"
                                        " loss: [[1 Hz, 1]]}"),
 }

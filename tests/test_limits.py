@@ -108,21 +108,9 @@ def _calibration_scales(accepted):
                          lambda v: _design("harbour-6m", {"calibration.end_resistance_scale": v}))
     cases += _range_cases("calibration.stub_velocity_scale", accepted,
                           lambda v: _design("harbour-6m", {"calibration.stub_velocity_scale": v}))
-    # the radiator scale's low edge is the velocity-factor rule (0.8 at least, the next row), so
-    # here only its edge just outside and the high edge
     cases += _range_cases("calibration.radiator_scale", accepted,
-                          lambda v: _design("oak-yard-20m", {"calibration.radiator_scale": v}),
-                          inside_low=False)
+                          lambda v: _design("oak-yard-20m", {"calibration.radiator_scale": v}))
     return cases
-
-
-def _radiator_scale_vs_vf(accepted):
-    assert "velocity factor" in accepted
-    vf = catalog().insulation("pvc").velocity_factor
-    make = lambda scale: _design("oak-yard-20m", {"radiator.insulation": "pvc",  # noqa: E731
-                                                  "calibration.radiator_scale": scale})
-    return [("radiator_scale = pvc velocity factor", make(vf), None),
-            ("radiator_scale below it", make(vf * (1 - 1e-3)), "calibration.radiator_scale")]
 
 
 def _band_ratio(accepted):
@@ -289,7 +277,6 @@ BUILDERS = {
     ("`power.on_air`", "1 %"): _simple("power.on_air", "oak-yard-20m", lambda v: {"power.on_air": v}),
     ("`calibration.radiator_scale`, `calibration.end_resistance_scale`, `calibration.stub_velocity_scale`",
      "0.5 to 2"): _calibration_scales,
-    ("`calibration.radiator_scale`", "at least"): _radiator_scale_vs_vf,
     ("`record.N.swr`", "1 to 100"): _record_swr,
     ("(any quantity)", "at most 64"): _any_quantity,
 }

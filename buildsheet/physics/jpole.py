@@ -100,7 +100,10 @@ CAL = Calibration(short_bar=0.4260, tap_bar=0.3970, open_top=0.8795, r_scale=1.1
 class Antenna:
     """Everything physical the model needs, SI. stub_line: the stub's line (differential mode);
     spacing: D, m; stub_conductor_d: 2 a_s, m; stub_sigma: S/m; wire_d: 2 a_w, m; wire_sigma: S/m;
-    wire_vf: velocity factor of the (insulated) radiator wire, 1.0 bare; orientation: 'horizontal' |
+    wire_vf: velocity factor of the (insulated) radiator wire, 1.0 bare (a fitted calibration may
+    set it above 1: the wire then behaves electrically shorter than the model of it predicts);
+    end_resistance_scale: factor on the radiator arm's resistance at resonance (a fitted
+    calibration; 1 = the model as published); orientation: 'horizontal' |
     'sloper' | 'vertical'; height: horizontal/sloper the stub's open top above ground, vertical the
     short, m; slope: radiator angle below horizontal, rad (sloper only); ground_kind: 'free-space' |
     'perfect' | 'real'; ground_eps_r, ground_sigma (S/m): the real ground."""
@@ -117,6 +120,7 @@ class Antenna:
     ground_kind: str = "free-space"
     ground_eps_r: float = 13.0
     ground_sigma: float = 0.005
+    end_resistance_scale: float = 1.0
 
     def __post_init__(self):
         if self.orientation not in ORIENTATIONS:
@@ -126,8 +130,10 @@ class Antenna:
         if not (self.spacing > self.stub_conductor_d > 0 and self.wire_d > 0):
             raise ValueError(f"need spacing > stub conductor diameter > 0 and wire diameter > 0, got "
                              f"{self.spacing}, {self.stub_conductor_d}, {self.wire_d} m")
-        if not 0 < self.wire_vf <= 1:
-            raise ValueError(f"wire velocity factor must be in (0, 1], got {self.wire_vf}")
+        if not 0 < self.wire_vf <= 2:
+            raise ValueError(f"wire velocity factor must be in (0, 2], got {self.wire_vf}")
+        if not 0 < self.end_resistance_scale <= 10:
+            raise ValueError(f"end resistance scale must be in (0, 10], got {self.end_resistance_scale}")
 
 
 @dataclass(frozen=True)
@@ -259,7 +265,8 @@ class _Prepared:
         z0w = rad.schelkunoff_z0(L, ant.wire_d / 2)
         z0c = rad.schelkunoff_z0(S, self.a_eq)
         z0s = ant.stub_line.z0_lossless
-        r_ant = cal.r_scale * z0w ** cal.r_w * z0c ** cal.r_c * z0s ** (2 - cal.r_w - cal.r_c) / r_loop
+        r_ant = cal.r_scale * z0w ** cal.r_w * z0c ** cal.r_c * z0s ** (2 - cal.r_w - cal.r_c) / r_loop \
+            * ant.end_resistance_scale
         z0_q = cal.q_scale * z0w ** cal.q_w * z0c ** cal.q_c * z0s ** (1 - cal.q_w - cal.q_c)
         # series resistance making the open arm's resonant resistance z0_q/(alpha l_e) equal r_ant
         r_rad = 2 * z0_q ** 2 / (r_ant * l_e)
