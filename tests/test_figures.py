@@ -494,3 +494,14 @@ def test_random_designs_print_the_solution_and_lay_out_cleanly(text):
     drawings = figures(design, solution, DATE)
     check_printed_lengths(design, solution, drawings)
     check_layout(drawings, PARTS)
+
+
+def test_shallow_sloper_radiator_label_keeps_clear_of_the_junction():
+    """Found by the random-design test: on a 10 deg sloper the radiator's label was placed before
+    the junction dot was drawn, and the dot then landed under it."""
+    text = ("buildsheet: 1\nname: a\ntitle: a\nfrequency: 28.0340 MHz\nradiator: {wire: 14 AWG}\n"
+            "stub: {line: window-450}\nfeed: {coax: RG-58, length: 3 m, choke_form: 30 mm}\n"
+            "site: {orientation: sloper, height: 3.27 m, slope: 10 deg}\noutput: {units: imperial}\n")
+    design = design_from_text(text)
+    drawings = figures(design, solve(design), "2024-06-15")
+    check_layout(drawings, PARTS)

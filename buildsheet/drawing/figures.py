@@ -794,7 +794,11 @@ def _stub(ctx: _Context) -> Drawing:
     for x in (x_j, x_o):
         sheet.add(BreakMark(x, y_top, x, y_end, at=at, size=8.0, width=CONDUCTOR + 0.3))
 
-    # open top
+    # open top: the junction first, so that the callouts placed after it keep clear of it
+    sheet.add(Circle(x_j, y_top, 2.4, width=0, fill=0.0))
+    if not _is_rigid(d.radiator.diameter_m):
+        sheet.add(Polyline([(x_j + (2.4 if k % 2 else -2.4), y_top + 2.0 + 2.5 * k) for k in range(7)],
+                           width=0.6))
     if orientation == "vertical":
         sheet.add(Line(x_j, y_top, x_j, PAD + 8.0, width=CONDUCTOR + 0.3))
         sheet.callout(x_j, (y_top + PAD + 8.0) / 2, ["radiator, straight up"], angles=(180, 200, 160))
@@ -815,10 +819,6 @@ def _stub(ctx: _Context) -> Drawing:
         sheet.add(Line(*far, *top_end, width=ROPE, dash=ROPE_DASH))
         sheet.callout(*_along(far, u, 14.0), ["rope to the support"], angles=(0, 340, 20),
                       radii=(12, 20, 30, 42))
-    sheet.add(Circle(x_j, y_top, 2.4, width=0, fill=0.0))
-    if not _is_rigid(d.radiator.diameter_m):
-        sheet.add(Polyline([(x_j + (2.4 if k % 2 else -2.4), y_top + 2.0 + 2.5 * k) for k in range(7)],
-                           width=0.6))
 
     # short and tap
     sheet.add(Line(x_j, y_short, x_o, y_short, width=3.0))
