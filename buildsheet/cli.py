@@ -112,6 +112,8 @@ def _handout(args) -> int:
     if args.date:
         revision_date(None, args.date)      # a bad --date is refused before any work
     designs = load_designs(design_paths(args.designs), args.units)
+    if os.path.realpath(args.output) in {os.path.realpath(d.path) for d in designs}:
+        raise BuildsheetError("is one of the designs; the booklet would overwrite it", file=args.output)
     progress = Progress(sys.stderr, enabled=sys.stderr.isatty() and not args.quiet)
     try:
         parts = prepare(designs, args.date,

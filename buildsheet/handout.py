@@ -72,12 +72,11 @@ class Cover:
 class Part:
     """One design prepared for the booklet: its sheet and figures, and its row of the summary."""
     key: str
-    path: str
     sheet: Sheet
     drawings: Mapping[str, Drawing]
     band: str                  # the band's name, or its edges, plain text
     frequency_hz: float
-    v_open_peak_v: float       # the highest voltage of the design (the stub's open end), V peak
+    v_peak_v: float            # the highest voltage of the design, at either open end, V peak
     power_w: float             # the transmitter's PEP those voltages are for, W
     row: tuple
 
@@ -164,9 +163,10 @@ def prepare_one(index: int, design: Design, date: str | None) -> Part:
     solution = solve(design)
     key = f"sheet-{index + 1}"
     band = design.band_name or f"{_mhz(design.band_hz[0])} to {_mhz(design.band_hz[1])}"
-    return Part(key=key, path=design.path or design.name, sheet=build_sheet(design, solution, day),
+    return Part(key=key, sheet=build_sheet(design, solution, day),
                 drawings=figures(design, solution, day), band=band, frequency_hz=design.frequency_hz,
-                v_open_peak_v=solution.voltage_open_end_v_peak, power_w=design.power.transmitter_w,
+                v_peak_v=max(solution.voltage_open_end_v_peak, solution.voltage_far_end_v_peak),
+                power_w=design.power.transmitter_w,
                 row=_summary_row(key, design, solution, band))
 
 
@@ -180,12 +180,15 @@ def prepare(designs: Sequence[Design], date: str | None = None, *, jobs: int | N
     """Every design prepared (prepare_one), in order, across at most `jobs` worker processes
     (default and most: os.cpu_count()); in this process when one would do. `on_done(n)` is told
     how many are ready. The first design that fails stops the rest; of those that failed by then,
-    the error of the earliest in order is raised (a BuildsheetError names its file)."""
+    the error of the earliest in order is raised, naming its file."""
     jobs = max(1, min(jobs or os.cpu_count() or 1, os.cpu_count() or 1, len(designs)))
     if jobs == 1:
         parts = []
         for i, design in enumerate(designs):
-            parts.append(prepare_one(i, design, date))
+            try:
+                parts.append(prepare_one(i, design, date))
+            except Exception as exc:
+                _fail(design, exc)
             if on_done:
                 on_done(i + 1)
         return parts
@@ -207,11 +210,16 @@ def prepare(designs: Sequence[Design], date: str | None = None, *, jobs: int | N
         wait(futures)   # the running ones finish; the cancelled ones never start
     for design, future in zip(designs, futures):
         if not future.cancelled() and future.exception():
-            exc = future.exception()
-            if isinstance(exc, BuildsheetError):
-                raise exc.located(file=design.path)
-            raise RuntimeError(f"{design.path}: {type(exc).__name__}: {exc}") from exc
+            _fail(design, future.exception())
     return [future.result() for future in futures]
+
+
+def _fail(design: Design, exc: Exception) -> None:
+    """Raise the error of `design`: its own if it is bad input (with the file filled in), else the
+    bug as a RuntimeError named with the file that showed it."""
+    if isinstance(exc, BuildsheetError):
+        raise exc.located(file=design.path)
+    raise RuntimeError(f"{design.path}: {type(exc).__name__}: {exc}") from exc
 
 
 # ----------------------------------------------------------------------------------------------
@@ -282,8 +290,8 @@ def _cover(parts: Sequence[Part], title: str, event: str, date: str) -> Cover:
 
 
 def _safety(parts: Sequence[Part]) -> tuple:
-    top = max(parts, key=lambda p: p.v_open_peak_v)
-    return render_blocks("handout-safety.j2", v_peak=_nb(units.format_voltage(top.v_open_peak_v)),
+    top = max(parts, key=lambda p: p.v_peak_v)
+    return render_blocks("handout-safety.j2", v_peak=_nb(units.format_voltage(top.v_peak_v)),
                          v_where=f"{top.sheet.title}, at {units.format_power(top.power_w)} PEP")
 
 

@@ -189,8 +189,9 @@ def test_same_inputs_give_identical_bytes(booklet, tmp_path):
 def test_worker_processes_and_one_process_give_the_same_booklet():
     designs = handout.load_designs([str(ROOT / "designs" / f"{n}.yaml") for n in DEMOS])
     one = handout.prepare(designs, DATE, jobs=1)
-    many = handout.prepare(designs, DATE, jobs=2)
-    booklets = [render_booklet(handout.make_booklet(parts, title=TITLE, paper="a4"))[0] for parts in (one, many)]
+    many = handout.prepare(designs, DATE, jobs=2)         # two workers where there are two cores
+    booklets = [render_booklet(handout.make_booklet(parts, title=TITLE, paper="a4"))[0]
+                for parts in (one, many)]
     assert booklets[0] == booklets[1]
     for page in pypdf.PdfReader(io.BytesIO(booklets[0])).pages:
         assert (float(page.mediabox.width), float(page.mediabox.height)) == pytest.approx(
@@ -207,10 +208,12 @@ def test_a_bad_design_in_the_folder_stops_the_run_and_writes_nothing(tmp_path, c
     assert not out.parent.exists()
 
 
-@pytest.mark.skipif(multiprocessing.get_start_method() != "fork",
-                    reason="the failure is planted in this process and reaches workers only by fork")
-def test_a_design_that_fails_in_a_worker_is_named_and_nothing_is_written(tmp_path, capsys, monkeypatch):
-    folder = _folder(tmp_path / "designs")
+@pytest.mark.parametrize("workers", [True, False], ids=["in-a-worker", "in-process"])
+def test_a_design_that_fails_to_solve_is_named_and_nothing_is_written(tmp_path, capsys, monkeypatch,
+                                                                       workers):
+    if workers and multiprocessing.get_start_method() != "fork":
+        pytest.skip("the failure is planted in this process and reaches workers only by fork")
+    folder = _folder(tmp_path / "designs", DEMOS if workers else ("ridge-camp-10m",))
     real = handout.solve
 
     def solve(design):
