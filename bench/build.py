@@ -33,7 +33,7 @@ sys.path.insert(0, str(ROOT))
 import yaml  # noqa: E402
 
 from buildsheet import load_design  # noqa: E402
-from buildsheet.solve import solve  # noqa: E402
+from buildsheet.solver import solve  # noqa: E402
 
 DEMO = ROOT / "designs" / "oak-yard-20m.yaml"
 DATE = "2025-03-01"

@@ -24,7 +24,7 @@ import numpy as np  # noqa: E402
 import necref  # noqa: E402
 from buildsheet import load_design  # noqa: E402
 from buildsheet.physics.lines import swr  # noqa: E402
-from buildsheet.solve import solve  # noqa: E402
+from buildsheet.solver import solve  # noqa: E402
 
 
 def nec_dims(design, solution) -> necref.JPoleDims:

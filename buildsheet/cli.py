@@ -153,7 +153,7 @@ def _draw(args) -> int:
 
     from buildsheet.design import revision_date
     from buildsheet.drawing.figures import figures
-    from buildsheet.solve import solve
+    from buildsheet.solver import solve
     from buildsheet.writers.files import write_many_atomic
     from buildsheet.writers.svg import render_svg
 
@@ -179,7 +179,7 @@ def _build(args) -> int:
     from buildsheet.design import revision_date
     from buildsheet.drawing.figures import figures
     from buildsheet.sheet import build_sheet
-    from buildsheet.solve import solve
+    from buildsheet.solver import solve
     from buildsheet.writers.files import write_many_atomic
     from buildsheet.writers.pdf import render_pdf
     from buildsheet.writers.svg import render_svg
@@ -247,7 +247,7 @@ def _load(args):
 def _solve(args) -> int:
     import json
 
-    from buildsheet.solve import solve
+    from buildsheet.solver import solve
     from buildsheet.summary import summary_text
 
     design = _load(args)

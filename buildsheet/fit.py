@@ -65,7 +65,7 @@ from buildsheet import record, units
 from buildsheet.design import Calibration, Design, design_from_text, parse_date
 from buildsheet.errors import DesignError, RecordError, SweepError
 from buildsheet.physics import jpole
-from buildsheet.solve import Dimensions, antenna_model, solve
+from buildsheet.solver import Dimensions, antenna_model, solve
 from buildsheet.touchstone import Sweep
 
 #: fewest points a sweep may have: three lengths are fitted from it

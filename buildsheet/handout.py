@@ -27,7 +27,7 @@ from buildsheet.drawing.figures import figures
 from buildsheet.drawing.shapes import Drawing
 from buildsheet.errors import BuildsheetError, one_line
 from buildsheet.sheet import Para, Section, Sheet, Table, build_sheet, render_blocks
-from buildsheet.solve import Solution, solve
+from buildsheet.solver import Solution, solve
 
 DEFAULT_TITLE = "Antenna build sheets"
 #: longest --title and --event: the title block of every page has room for this much

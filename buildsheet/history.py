@@ -136,7 +136,7 @@ def _revision(directory: str, c: _Commit, solved: dict) -> Revision:
     row = _with(row, document_id=design.document_id, units=design.output.units)
     if design.document_id not in solved:
         # solve pulls in numpy and scipy; imported here so an empty history stays quick
-        from buildsheet.solve import solve
+        from buildsheet.solver import solve
         try:
             d = solve(design).dimensions
             solved[design.document_id] = (d.radiator, d.stub, d.tap, d.spacing)

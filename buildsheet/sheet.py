@@ -32,7 +32,7 @@ from markupsafe import escape
 
 from buildsheet import units
 from buildsheet.design import Design
-from buildsheet.solve import RIGID_DIAMETER_M, Solution
+from buildsheet.solver import RIGID_DIAMETER_M, Solution
 
 #: the measurement log's columns: what the builder writes by hand
 LOG_COLUMNS = ("#", "frequency", "SWR", "R (Ω)", "X (Ω)", "what was changed")

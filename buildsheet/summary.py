@@ -5,7 +5,7 @@ from __future__ import annotations
 
 from buildsheet import units
 from buildsheet.design import Design
-from buildsheet.solve import Solution
+from buildsheet.solver import Solution
 
 
 def _band(edges, fmt=units.format_frequency) -> str:

@@ -28,7 +28,7 @@ from buildsheet.cli import main
 from buildsheet.design import load_design
 from buildsheet.drawing.figures import FIGURES
 from buildsheet.sheet import Table, build_sheet
-from buildsheet.solve import solve
+from buildsheet.solver import solve
 from buildsheet.writers import files
 
 ROOT = pathlib.Path(__file__).resolve().parent.parent

@@ -37,7 +37,7 @@ from buildsheet.drawing.figures import (DETAIL_SCALE_RANGE, FIGURES, SMITH_WIDTH
 from buildsheet.drawing.shapes import (Arc, Box, BreakMark, Circle, Dimension, Line, Polyline, Text,
                                        clip_segment)
 from buildsheet.errors import DesignError
-from buildsheet.solve import solve
+from buildsheet.solver import solve
 from buildsheet.writers.pdf_shapes import draw_on_canvas
 from buildsheet.writers.svg import render_svg
 

@@ -28,7 +28,7 @@ from buildsheet.design import Calibration, design_from_text, load_design
 from buildsheet.errors import DesignError, RecordError, SweepError
 from buildsheet.physics import jpole
 from buildsheet.physics.lines import swr
-from buildsheet.solve import Dimensions, antenna_model, solve
+from buildsheet.solver import Dimensions, antenna_model, solve
 from buildsheet.touchstone import Sweep, read_sweep
 
 DATA = Path(__file__).parent / "data"

@@ -571,7 +571,7 @@ def test_regression(text):
     assert check_contract(text).startswith("refused")
 
 
-#: cases that once broke the one-line, no-warning contract in the solver (since fixed in solve.py)
+#: cases that once broke the one-line, no-warning contract in the solver (since fixed in solver.py)
 _HARBOUR = DEMO_TEXT["harbour-6m"]
 FIXED_CASES = {
     "1000 ohm stub line cannot be matched (two-line message)": _HARBOUR.replace("impedance: 400 ohm",

@@ -26,7 +26,7 @@ from buildsheet.drawing import plots
 from buildsheet.drawing.shapes import (TEXT_GAP, TEXT_SIZE, THIN, Arc, Box, BreakMark, Circle,
                                        Dimension, Drawing, Hatch, Leader, Line, Polyline, Rect, Text,
                                        clip_segment)
-from buildsheet.solve import RIGID_DIAMETER_M, Solution
+from buildsheet.solver import RIGID_DIAMETER_M, Solution
 
 #: figure keys in the order a builder reads them (also the order of the SVG files)
 FIGURES = ("overview", "radiator", "stub", "short-tap", "choke", "swr", "smith")

@@ -30,7 +30,7 @@ sys.path.insert(0, str(ROOT))
 import necref  # noqa: E402
 
 from buildsheet.design import Design, load_design  # noqa: E402
-from buildsheet.solve import solve  # noqa: E402
+from buildsheet.solver import solve  # noqa: E402
 
 DEMO_DESIGN = ROOT / "designs" / "oak-yard-20m.yaml"
 DEMO_SWEEP = ROOT / "designs" / "oak-yard-20m-sweep.s1p"
