@@ -70,8 +70,11 @@ def test_installed_wheel_builds_a_sheet_in_a_clean_directory(wheel, tmp_path):
     env = {k: v for k, v in os.environ.items() if k not in ("PYTHONPATH", "PYTHONHOME")}
     env["SOURCE_DATE_EPOCH"] = "1740787200"          # 2025-03-01
     # pip 22.3 and later install into another environment with --python, so the venv needs no pip
+    # --ignore-installed: where the test run's own environment has buildsheet installed (CI does),
+    # the .pth above makes it visible, and pip would otherwise skip the wheel as already there
     install = subprocess.run([sys.executable, "-m", "pip", "--python", str(python), "install", "-q",
-                              "--no-deps", "--no-index", str(wheel)], capture_output=True, text=True,
+                              "--no-deps", "--no-index", "--ignore-installed", str(wheel)],
+                             capture_output=True, text=True,
                              timeout=300, env=env)
     assert install.returncode == 0, install.stderr
     work = tmp_path / "work"
