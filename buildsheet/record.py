@@ -46,7 +46,7 @@ from buildsheet import units
 from buildsheet.design import Design, RecordEntry, design_from_text, parse_date
 from buildsheet.errors import BuildsheetError, DesignError, RecordError, one_line
 from buildsheet.yamlread import MAX_BYTES
-from buildsheet.writers.files import fsync_dir
+from buildsheet.writers.files import fsync_dir, read_capped
 
 BACKUP_SUFFIX = ".bak"
 
@@ -290,20 +290,7 @@ def _read_back(new_text: str, old: Design, expected: RecordEntry, path: str) -> 
 
 def _read(path: str) -> tuple[bytes, os.stat_result]:
     """The file's bytes and the stat of the same open file."""
-    try:
-        with open(path, "rb") as f:
-            info = os.fstat(f.fileno())
-            raw = f.read(MAX_BYTES + 1)
-    except FileNotFoundError:
-        raise DesignError("no such file", file=path) from None
-    except IsADirectoryError:
-        raise DesignError("is a directory, not a design file", file=path) from None
-    except OSError as exc:
-        raise DesignError(f"cannot be read ({exc.strerror})", file=path) from None
-    if len(raw) > MAX_BYTES:
-        raise DesignError(f"is larger than {MAX_BYTES // 1024} KiB; a design file is a few lines of YAML",
-                          file=path)
-    return raw, info
+    return read_capped(path, MAX_BYTES, DesignError, "a design file")
 
 
 def _same_file(a: os.stat_result, b: os.stat_result) -> bool:

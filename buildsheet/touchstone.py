@@ -42,6 +42,7 @@ from dataclasses import dataclass
 import numpy as np
 
 from buildsheet.errors import SweepError
+from buildsheet.writers.files import decode_text, read_capped
 
 MAX_BYTES = 8 * 1024 * 1024
 FREQUENCY_UNITS = {"hz": 1.0, "khz": 1e3, "mhz": 1e6, "ghz": 1e9}
@@ -92,24 +93,8 @@ def read_sweep(path: str | os.PathLike) -> Sweep:
 
 
 def _read_text(path: str) -> str:
-    try:
-        with open(path, "rb") as fh:
-            raw = fh.read(MAX_BYTES + 1)
-    except FileNotFoundError:
-        raise SweepError("no such file", file=path) from None
-    except IsADirectoryError:
-        raise SweepError("is a directory, not a sweep file", file=path) from None
-    except OSError as exc:
-        raise SweepError(f"cannot be read ({exc.strerror})", file=path) from None
-    if len(raw) > MAX_BYTES:
-        raise SweepError(f"is larger than {MAX_BYTES // (1024 * 1024)} MiB; a sweep is a few hundred "
-                         "lines", file=path)
-    if b"\x00" in raw:
-        raise SweepError("is a binary file, not a text sweep", file=path)
-    try:
-        return raw.decode("utf-8-sig")
-    except UnicodeDecodeError as exc:
-        raise SweepError(f"is not UTF-8 text (byte {exc.start})", file=path) from None
+    raw, _ = read_capped(path, MAX_BYTES, SweepError, "a sweep file")
+    return decode_text(raw, path, SweepError, "a text sweep")
 
 
 # ----------------------------------------------------------------------------------------------

@@ -16,6 +16,7 @@ from dataclasses import dataclass
 import yaml
 
 from buildsheet.errors import DesignError, one_line
+from buildsheet.writers.files import decode_text, read_capped
 
 MAX_BYTES = 1024 * 1024
 MAX_NODES = 20_000
@@ -51,26 +52,8 @@ class Document:
 
 def read_text(path: str) -> str:
     """Read a design file as UTF-8 text, refusing files that are too large or not text."""
-    try:
-        with open(path, "rb") as fh:
-            raw = fh.read(MAX_BYTES + 1)
-    except FileNotFoundError:
-        raise DesignError("no such file", file=path) from None
-    except IsADirectoryError:
-        raise DesignError("is a directory, not a design file", file=path) from None
-    except OSError as exc:
-        raise DesignError(f"cannot be read ({exc.strerror})", file=path) from None
-    if len(raw) > MAX_BYTES:
-        raise DesignError(f"is larger than {MAX_BYTES // 1024} KiB; a design file is a few lines of YAML",
-                          file=path)
-    if raw[:2] in (b"\xff\xfe", b"\xfe\xff"):
-        raise DesignError("is UTF-16 text; save it as UTF-8", file=path)
-    if b"\x00" in raw:
-        raise DesignError("is a binary file, not a YAML design file", file=path)
-    try:
-        return raw.decode("utf-8-sig")
-    except UnicodeDecodeError as exc:
-        raise DesignError(f"is not UTF-8 text (byte {exc.start})", file=path) from None
+    raw, _ = read_capped(path, MAX_BYTES, DesignError, "a design file")
+    return decode_text(raw, path, DesignError, "a YAML design file")
 
 
 def parse(text: str, file: str | None = None) -> Document:

@@ -353,7 +353,7 @@ def test_file_size_limit_is_1_mib(tmp_path, capsys):
     assert len(exact.encode()) == MAX_BYTES - 1
     assert _check(tmp_path, capsys, exact + "\n")[0] == 0  # exactly 1 MiB
     status, err = _check(tmp_path, capsys, exact + "\n\n")  # one byte more
-    assert status == 2 and "larger than 1024 KiB" in err
+    assert status == 2 and "larger than 1 MiB" in err
 
 
 def _nested(depth: int) -> str:

@@ -115,3 +115,35 @@ def write_atomic(path: str | os.PathLike, data: bytes, *, _fail_at: str | None =
     `_fail_at` = a step of STEPS raises OSError there, for tests.
     """
     write_many_atomic({path: data}, _fail_at=None if _fail_at is None else (_fail_at, 0))
+
+
+def read_capped(path: str, limit: int, error, what: str) -> tuple[bytes, os.stat_result]:
+    """The bytes of the file at `path` and the stat of the same open file, refusing files larger
+    than `limit` bytes; every failure is `error(problem, file=path)`, with `what` naming the kind of
+    file in the messages ("a design file", "a sweep file")."""
+    try:
+        with open(path, "rb") as fh:
+            info = os.fstat(fh.fileno())
+            raw = fh.read(limit + 1)
+    except FileNotFoundError:
+        raise error("no such file", file=path) from None
+    except IsADirectoryError:
+        raise error(f"is a directory, not {what}", file=path) from None
+    except OSError as exc:
+        raise error(f"cannot be read ({exc.strerror})", file=path) from None
+    if len(raw) > limit:
+        size = f"{limit // (1024 * 1024)} MiB" if limit % (1024 * 1024) == 0 else f"{limit // 1024} KiB"
+        raise error(f"is larger than {size}; {what} is a few hundred lines at most", file=path)
+    return raw, info
+
+
+def decode_text(raw: bytes, path: str, error, what: str) -> str:
+    """`raw` as UTF-8 text (a byte-order mark allowed); UTF-16, binary or other encodings refused."""
+    if raw[:2] in (b"\xff\xfe", b"\xfe\xff"):
+        raise error("is UTF-16 text; save it as UTF-8", file=path)
+    if b"\x00" in raw:
+        raise error(f"is a binary file, not {what}", file=path)
+    try:
+        return raw.decode("utf-8-sig")
+    except UnicodeDecodeError as exc:
+        raise error(f"is not UTF-8 text (byte {exc.start})", file=path) from None
