@@ -32,7 +32,6 @@ import numpy as np
 import yaml
 
 from buildsheet.errors import DesignError
-from buildsheet.physics.lines import DB_PER_NEPER, Line
 from buildsheet.units import FOOT_M, parse_quantity, parse_wire
 
 #: kind of entry -> the words used for it in messages
@@ -113,8 +112,10 @@ class Coax:
     source: str
 
     @cached_property
-    def line(self) -> Line:
+    def line(self):
         """The cable as a physics Line: Line.nominal from z0, VF and the loss points (in dB/m)."""
+        from buildsheet.physics.lines import Line  # scipy: only when a loss is asked for, not on `check`
+
         points = tuple((f, db / (100.0 * FOOT_M)) for f, db in self.loss_db_per_100ft)
         return Line.nominal(self.z0_ohm, self.velocity_factor, points)
 
@@ -125,6 +126,8 @@ class Coax:
         fitted through the cable's loss points: exactly through two, by least squares through more
         (Line.nominal; CHECK_VALUES §6c). Meant for 1.8-450 MHz.
         """
+        from buildsheet.physics.lines import DB_PER_NEPER
+
         alpha = self.line.gamma(f).real * DB_PER_NEPER
         return alpha if np.ndim(alpha) else float(alpha)
 
