@@ -13,8 +13,11 @@ dimensions where NEC itself matches 50 ohm for the model's radiator, and around 
 radiator, stub and tap perturbed). The fit adjusts only the global constants of jpole.Calibration so
 that the model's feed impedance at the same dimensions and frequencies matches NEC's (residual: the
 difference of the 50-ohm reflection coefficients). Designs with an even seed train, odd seeds are
-held out. The constants in jpole.CAL came from `fit` on seeds 0-119 and 200-319
-(collect OUT 120 0; collect OUT 120 200), about 10 minutes of NEC on 2 cores.
+held out. The constants in jpole.CAL came from `fit bench/data/*.json.gz` (about 2 minutes): seeds
+0-119 and 200-319 collected twice, `collect OUT 120 0` and `collect OUT 120 200` (about 3 minutes each
+of NEC on 2 cores): nec-d5/d6 by this script as it is, around the radiator the model cuts now;
+nec-d3/d4 by the script of commit a5c2e30, whose radiator (the top's load resistive) was about 1 %
+longer and whose perturbations were +/-2 % of it.
 """
 
 from __future__ import annotations
@@ -88,7 +91,7 @@ def nec_z(case, L, S, T, f):
 def nec_match(case, L, S, T):
     """(S, T) where NEC sees 50 + j0 for radiator L: coarse scan, then damped Newton."""
     best = None
-    for s_ in S * np.array([0.97, 0.99, 1.01, 1.03]):
+    for s_ in S * np.array([0.94, 0.97, 0.99, 1.01, 1.03, 1.06]):
         for t_ in T * np.array([0.6, 1.0, 1.6, 2.4]):
             if not 0 < t_ < 0.8 * s_:
                 continue
@@ -119,15 +122,25 @@ def nec_match(case, L, S, T):
 def collect_one(seed: int):
     case = random_case(seed)
     try:
-        ant, L, S, T = acc.model_design(case)
+        ant = case.antenna()
+        L = jpole.resonant_radiator_length(case.f0, ant)
+        try:
+            S, T = jpole.solve_match(case.f0, 50.0, ant, L)
+        except ValueError:
+            # the model (as calibrated) finds no match: start NEC's own search from a quarter wave
+            # and the textbook tap for a 3 kohm top, scanned widely by nec_match
+            S = jpole._quarter_wave(ant.stub_line, case.f0)
+            T = float(np.arcsin(np.sqrt(50.0 / 3000.0)) * S / (np.pi / 2))
         (S1, T1), z = nec_match(case, L, S, T)
+        if abs(z - 50) > 1.0:
+            raise ValueError(f"NEC found no match near the model's dimensions (z {z:.1f})")
     except (ValueError, np.linalg.LinAlgError) as exc:
         return dict(seed=seed, error=str(exc))
     wide = case.pipe or case.f0 > 100e6
     df = np.array([-0.04, -0.02, 0.0, 0.02, 0.04]) if wide else np.array([-0.02, -0.01, 0.0, 0.01, 0.02])
     pts = [(L, S1, T1, case.f0 * (1 + d)) for d in df]
-    pts += [(L * 0.98, S1, T1, case.f0), (L * 0.99, S1, T1, case.f0), (L * 1.01, S1, T1, case.f0),
-            (L * 1.02, S1, T1, case.f0),
+    pts += [(L * 0.97, S1, T1, case.f0), (L * 0.985, S1, T1, case.f0), (L * 1.015, S1, T1, case.f0),
+            (L * 1.03, S1, T1, case.f0),
             (L, S1 * 0.995, T1, case.f0), (L, S1 * 1.005, T1, case.f0),
             (L, S1, T1 * 0.8, case.f0), (L, S1, T1 * 1.25, case.f0)]
     data = []
@@ -213,9 +226,15 @@ PRIOR = dict(short_bar=1 / 3, tap_bar=1 / 3, open_top=1 / 3)
 PRIOR_WEIGHT = 0.3
 
 
+def _read(path: str) -> str:
+    import gzip
+    raw = Path(path).read_bytes()
+    return (gzip.decompress(raw) if path.endswith(".gz") else raw).decode()
+
+
 def fit(paths):
     from scipy.optimize import least_squares
-    rows = [r for p in paths for r in json.loads(Path(p).read_text()) if "points" in r]
+    rows = [r for p in paths for r in json.loads(_read(p)) if "points" in r]
     train = [r for r in rows if r["seed"] % 2 == 0]
     held = [r for r in rows if r["seed"] % 2 == 1]
     free = list(FIT_FIELDS)

@@ -202,7 +202,7 @@ class _Model:
         if start is None:
             return jpole.resonant_radiator_length(f0, self.ant)
         def reactance(L):
-            return float(np.imag(jpole.radiator_end_impedance(np.array([f0]), L, self.ant))[0])
+            return float(np.imag(jpole.radiator_own_impedance(np.array([f0]), L, self.ant))[0])
 
         lo, hi = 0.98 * start, 1.02 * start
         if not reactance(lo) > 0 >= reactance(hi):

@@ -154,9 +154,6 @@ def test_sensitivity_signs_and_values_match_finite_moves():
     assert (L2 - L) * sens.hz_per_m_radiator == pytest.approx(df, rel=0.05)
 
 
-@pytest.mark.xfail(strict=True, reason="known shortfall: the NEC-fitted model puts the 20 m radiator at "
-                   "34.24 ft (about 1 % longer than NEC's dipole resonance, the stub correspondingly "
-                   "shorter; the match in NEC is 1.04), just outside the 32.5-34 ft of common practice")
 def test_trade_half_wave_20m_length():
     """Common practice (no source): a thin-wire half wave for 14.175 MHz is 32.5-34 ft between
     attachment points."""

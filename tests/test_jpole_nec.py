@@ -146,13 +146,34 @@ def test_nec_swr_at_design_frequency(case, results):
 
 
 #: known shortfall, tracked (strict: the marker must go when the model meets the target): the
-#: model's 2:1 band of the 70 cm rod is wider than NEC's, overlap 0.794 against the 0.8 target
+#: model's 2:1 band of the 70 cm rod sits above NEC's (the model's feed resistance is about 1.2x
+#: NEC's across the band; the reactance agrees), overlap 0.78 against the 0.8 target
 OVERLAP_SHORT = {"70cm-rod-vert-free"}
 
 
 @pytest.mark.parametrize("case", [
-    pytest.param(c, marks=pytest.mark.xfail(strict=True, reason="known shortfall: overlap 0.794 < 0.8"))
+    pytest.param(c, marks=pytest.mark.xfail(strict=True, reason="known shortfall: overlap 0.78 < 0.8"))
     if c.name in OVERLAP_SHORT else c for c in CASES], ids=[c.name for c in CASES])
 def test_nec_and_model_2to1_bands_overlap(case, results):
     r = results[case.name]
     assert r["overlap"] >= 0.8, f"{case.name}: bands NEC {r['band_nec']} model {r['band_model']}"
+
+
+HORIZONTAL = [c for c in CASES if c.orientation == "horizontal"]
+
+
+@pytest.mark.parametrize("case", HORIZONTAL, ids=[c.name for c in HORIZONTAL])
+def test_radiator_is_cut_where_nec_puts_the_dipole_resonance(case):
+    """The radiator is cut to its own resonance: the centre-fed dipole of the same wire at the same
+    height over the same ground (the model's induced-EMF end effect plus its image). NEC-2 finds
+    that dipole's X = 0 length (the method of CHECK_VALUES §3d, here at height) within 0.5 % of the
+    model's radiator. (An end-fed half wave's anti-resonance is near but not at this length,
+    CHECK_VALUES §3d; the 2-D stub/tap solve takes up the difference.)"""
+    from scipy.optimize import brentq
+    L = jpole.resonant_radiator_length(case.f0, case.antenna())
+    g = case.ground
+    ground = necref.Ground(g["ground_kind"], g.get("ground_eps_r", 13.0), g.get("ground_sigma", 0.005))
+    x = lambda length: necref.dipole(length, case.wire_d, [case.f0], height=case.height, ground=ground,
+                                     sigma=case.wire_sigma).z_feed[0].imag
+    l_nec = brentq(x, 0.95 * L, 1.05 * L, xtol=1e-5 * L)
+    assert L == pytest.approx(l_nec, rel=0.005), f"{case.name}: model {L:.4f} m, NEC dipole {l_nec:.4f} m"

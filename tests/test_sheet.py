@@ -110,8 +110,8 @@ def test_key_dimensions_and_cut_list_are_the_solution_formatted(solved, name):
 
 
 def _resonance(ant, length, stub, f0):
-    """The radiator's resonance (end impedance resistive) near f0, Hz, by root finding on the model."""
-    x = lambda f: float(np.imag(jpole.radiator_end_impedance(np.array([f]), length, ant, stub))[0])
+    """The radiator's own resonance (its end impedance resistive) near f0, Hz, by root finding on the model."""
+    x = lambda f: float(np.imag(jpole.radiator_own_impedance(np.array([f]), length, ant, stub))[0])
     return brentq(x, 0.9 * f0, 1.1 * f0, xtol=1.0)
 
 

@@ -272,9 +272,9 @@ def _swr2_marks(ax: Axes, edges: Sequence[float | None], feed_min: float, width:
         text = f"2:1 {_mhz(edge)}"
         w = fonts.text_width(text, TICK_SIZE)
         # Low edge label to the left of its marker, high to the right, so they never collide;
-        # kept inside the drawing near the sides.
+        # the low one kept clear of the SWR tick labels left of the frame's top corner.
         if side == "low":
-            x = max(px - PAD, w + PAD)
+            x = max(px - PAD, fr.x0 - TICK_LENGTH + w)
             out.append(Text(x, baseline, text, TICK_SIZE, "end"))
         else:
             x = min(px + PAD, width - PAD - w)
