@@ -164,11 +164,12 @@ HORIZONTAL = [c for c in CASES if c.orientation == "horizontal"]
 
 @pytest.mark.parametrize("case", HORIZONTAL, ids=[c.name for c in HORIZONTAL])
 def test_radiator_is_cut_where_nec_puts_the_dipole_resonance(case):
-    """The radiator is cut to its own resonance: the centre-fed dipole of the same wire at the same
-    height over the same ground (the model's induced-EMF end effect plus its image). NEC-2 finds
-    that dipole's X = 0 length (the method of CHECK_VALUES §3d, here at height) within 0.5 % of the
-    model's radiator. (An end-fed half wave's anti-resonance is near but not at this length,
-    CHECK_VALUES §3d; the 2-D stub/tap solve takes up the difference.)"""
+    """The radiator is cut to its natural resonance as a free half-wave wire: where the same wire,
+    centre-fed at the same height over the same ground, has X = 0 (the model: induced-EMF end
+    effect plus its image). NEC-2 finds that length (the method of CHECK_VALUES §3d, here at
+    height) within 0.5 % of the model's radiator. (The end-fed radiator's load on the stub is not
+    resistive there, CHECK_VALUES §3d and DESIGN.md §7; the 2-D stub/tap solve takes that up, and
+    the SWR tests above check the result.)"""
     from scipy.optimize import brentq
     L = jpole.resonant_radiator_length(case.f0, case.antenna())
     g = case.ground

@@ -13,11 +13,15 @@ lossy line (Schelkunoff's transmission-line model of a wire antenna) whose serie
 the arm's radiation; z_ant = z_arm1 + z_arm2. The radiator on its own resonates where a centre-fed
 dipole of the same wire does (induced-EMF end effect, Carter 1932), moved by the reactance its ground
 image (image theory) and its coupling to the common mode (induced EMF, radiator.mutual_impedance) add
-at the current maximum: that is the length the radiator is cut to (resonant_radiator_length; NEC-2
-puts the same wire's centre-fed resonance at that height within 0.3 %, tests/test_jpole_nec.py).
-The stub's open top sees the arm with the junction's extra electrical length and calibrated image
-and coupling weights added, so z_top is in general a little reactive: the 2-D stub/tap solve takes
-that up. The arm's resistance at resonance is z0^2/R_loop with R_loop from Carter plus the image.
+at the current maximum. That natural resonance of the wire as a free half wave is the length the
+radiator is cut to (resonant_radiator_length; NEC-2 puts the same wire's centre-fed resonance at
+that height within 0.3 %, tests/test_jpole_nec.py). It is not assumed to be where the end-fed
+radiator's load on the stub is resistive (DESIGN.md §7 cautions that it is not): the stub's open top
+sees the arm with the junction's extra electrical length and calibrated image and coupling weights
+added, so z_top is in general reactive, and the 2-D stub/tap solve takes that up. In NEC-2 the
+matched (radiator, stub, tap) form a one-parameter family whose 2:1 band hardly changes along it
+(20 m design of tests/test_jpole_nec.py: 2.43-2.45 % for radiators from 3 % shorter to 1 % longer
+than this one), so the choice costs no bandwidth. The arm's resistance at resonance is z0^2/R_loop with R_loop from Carter plus the image.
 The stub is a lossy line (lines.py); the short bar, the tap bar and the open top add electrical
 length in proportion to the spacing.
 
