@@ -21,9 +21,9 @@ sees the arm with the junction's extra electrical length and calibrated image an
 added, so z_top is in general reactive, and the 2-D stub/tap solve takes that up. In NEC-2 the
 matched (radiator, stub, tap) form a one-parameter family whose 2:1 band hardly changes along it
 (20 m design of tests/test_jpole_nec.py: 2.43-2.45 % for radiators from 3 % shorter to 1 % longer
-than this one), so the choice costs no bandwidth. The arm's resistance at resonance is z0^2/R_loop with R_loop from Carter plus the image.
-The stub is a lossy line (lines.py); the short bar, the tap bar and the open top add electrical
-length in proportion to the spacing.
+than this one), so the choice costs no bandwidth. The arm's resistance at resonance is
+z0^2/R_loop with R_loop from Carter plus the image. The stub is a lossy line (lines.py); the short
+bar, the tap bar and the open top add electrical length in proportion to the spacing.
 
 Calibration. The global constants in CAL (see Calibration) are an empirical correction, fitted with
 bench/nec_study.py (`collect`, `fit`) to NEC-2 (tests/necref.py, DESIGN.md §7 mesh) on random designs
