@@ -255,8 +255,9 @@ def _solve(design: Design) -> Solution:
         # a search that wanders outside the physical region is refused below; its numpy warnings
         # would only be noise on the user's terminal
         with np.errstate(all="ignore"):
-            radiator = jpole.resonant_radiator_length(f0, ant)
-            stub, tap = jpole.solve_match(f0, z_feed, ant, radiator)
+            at_f0 = jpole.at_frequency(f0, ant)
+            radiator = jpole.resonant_radiator_length(f0, ant, prepared=at_f0)
+            stub, tap = jpole.solve_match(f0, z_feed, ant, radiator, prepared=at_f0)
     except ValueError as exc:
         why = " ".join(str(exc).split())
         raise DesignError(f"cannot be matched to {z_feed:g} ohm with this line and wire "
@@ -279,17 +280,18 @@ def _solve(design: Design) -> Solution:
     rho = float(abs(reflection(z[i0], design.feed.coax_z0_ohm)))
     loss_db = float(total_loss_db(matched_db, min(rho, 0.999999)))
     p_tap = design.power.transmitter_w * 10 ** (-loss_db / 10)
-    state = jpole.state_at(f0, ant, radiator, stub, tap, p_tap)
-    sens = jpole.sensitivities(f0, ant, radiator, stub, tap)
+    state = jpole.state_at(f0, ant, radiator, stub, tap, p_tap, prepared=at_f0)
+    sens = jpole.sensitivities(f0, ant, radiator, stub, tap, prepared=at_f0)
 
     ch = choke_physics.design_coax_choke(f0, high, design.feed.choke_form_m,
                                          design.feed.coax_outer_diameter_m, f_band_low=low)
     exposure = _exposure(design, state.efficiency, loss_db)
     wrap = _wrap_allowance(design)
     line = ant.stub_line
-    stub_data = StubLineData(z0_ohm=float(np.real(line.z0(f0))),
+    z0_line, gamma_line = line.z0_gamma(f0)
+    stub_data = StubLineData(z0_ohm=float(np.real(z0_line)),
                              velocity_factor=float(line.velocity_factor(f0)),
-                             loss_db_per_100ft=float(line.gamma(f0).real * DB_PER_NEPER * 100 * FT))
+                             loss_db_per_100ft=float(gamma_line.real * DB_PER_NEPER * 100 * FT))
     dims = Dimensions(radiator=radiator, stub=stub, tap=tap, spacing=design.stub.spacing_m)
     cut, hardware = _cut_list(design, dims, wrap, ch)
     return Solution(

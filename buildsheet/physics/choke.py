@@ -102,10 +102,12 @@ def coil_impedance(f, L, C, R=0.0):
     f: Hz; L: H; C: F; R: ohm.
     """
     omega = 2.0 * np.pi * np.asarray(f, dtype=float)
-    num = R + 1j * omega * L
-    den = 1.0 - omega**2 * L * C + 1j * omega * R * C
+    # |num / den| from the squared magnitudes, in real arithmetic (the choke sizing evaluates it
+    # on a grid of turns x frequencies)
+    num2 = R**2 + (omega * L) ** 2
+    den2 = (1.0 - omega**2 * L * C) ** 2 + (omega * R * C) ** 2
     with np.errstate(divide="ignore", invalid="ignore"):
-        return np.where(den == 0, np.inf, np.abs(num / den))
+        return np.where(den2 == 0, np.inf, np.sqrt(num2 / den2))
 
 
 @dataclass(frozen=True)

@@ -63,8 +63,15 @@ def wire_internal_impedance(f, d, sigma):
     Its real part tends to Rs/(pi d) + R_dc/4 when a >> delta and to R_dc when a << delta; its
     imaginary part is omega times the internal inductance (mu0/(8 pi) at low frequency).
 
-    f: frequency, Hz (> 0); d: wire diameter, m; sigma: conductivity, S/m. Broadcasts over all three.
+    f: frequency, Hz (> 0); d: wire diameter, m; sigma: conductivity, S/m. Broadcasts over all three;
+    three floats give a complex (the solves' scalar path, without numpy's array overhead).
     """
+    if isinstance(f, float) and isinstance(d, float) and isinstance(sigma, float):
+        a = d / 2.0
+        k = (1.0 - 1.0j) / float(skin_depth(f, sigma))
+        ka = k * a
+        ratio = 1.0j + 1.0 / (2.0 * ka) if abs(ka) > _KA_ASYMPTOTIC else complex(jve(0, ka) / jve(1, ka))
+        return k / (2.0 * np.pi * a * sigma) * ratio
     f, d, sigma = np.broadcast_arrays(np.asarray(f, float), np.asarray(d, float),
                                       np.asarray(sigma, float))
     a = d / 2.0

@@ -54,6 +54,8 @@ Symbols (SI; frequency arrays broadcast):
 
 from __future__ import annotations
 
+import cmath
+import math
 from dataclasses import dataclass
 from typing import NamedTuple
 
@@ -148,10 +150,10 @@ class Antenna:
             raise ValueError(f"end resistance scale must be in (0, 10], got {self.end_resistance_scale}")
 
 
-@dataclass(frozen=True)
-class _Arm:
+class _Arm(NamedTuple):
     """One arm of the asymmetric dipole as an open-ended lossy line: series impedance per metre
-    z_series = r_rad + z_wire + j omega L', shunt y_shunt = j omega C'; electrical length l_e (m)."""
+    z_series = r_rad + z_wire + j omega L', shunt y_shunt = j omega C'; electrical length l_e (m).
+    Arrays over f, or Python numbers on the scalar path (see _Prepared)."""
     z0: np.ndarray
     gamma: np.ndarray
     l_e: np.ndarray
@@ -160,7 +162,17 @@ class _Arm:
 
     def impedance(self):
         """z0 coth(gamma l_e): input impedance of the open-ended arm, ohm."""
-        return self.z0 / np.tanh(self.gamma * self.l_e)
+        return self.z0 / _tanh(self.gamma * self.l_e)
+
+
+def _sqrt(z):
+    """Principal square root of a complex number (cmath) or array (numpy)."""
+    return cmath.sqrt(z) if isinstance(z, complex) else np.sqrt(z)
+
+
+def _tanh(z):
+    """tanh of a complex number (cmath) or array (numpy)."""
+    return cmath.tanh(z) if isinstance(z, complex) else np.tanh(z)
 
 
 def _open_arm(omega, z0_avg, vf, r_rad, z_wire, l_e):
@@ -168,31 +180,42 @@ def _open_arm(omega, z0_avg, vf, r_rad, z_wire, l_e):
     r_rad + Re z_wire (telegrapher's equations: z0 = sqrt(Z'/Y'), gamma = sqrt(Z'Y'))."""
     z_series = r_rad + z_wire + 1j * omega * z0_avg / (vf * C0)
     y_shunt = 1j * omega / (z0_avg * vf * C0)
-    return _Arm(np.sqrt(z_series / y_shunt), np.sqrt(z_series * y_shunt), l_e, r_rad, np.real(z_wire))
+    return _Arm(_sqrt(z_series / y_shunt), _sqrt(z_series * y_shunt), l_e, r_rad, z_wire.real)
 
 
 class _Prepared:
-    """Frequency-only quantities of one antenna at an array of frequencies, computed once and reused
-    while lengths change (the solves call the model many times at the same frequencies)."""
+    """Frequency-only quantities of one antenna, computed once and reused while lengths change (the
+    solves call the model many times at the same frequencies), and the induced-EMF integrals at the
+    lengths visited.
+
+    f: an array of frequencies, Hz; or one frequency as a scalar, for the solves: then every quantity
+    here and every impedance the methods return is a Python float or complex. The formulas are the
+    same code either way; a solve evaluates the model some fifty times at one frequency, where
+    numpy's per-call cost on one-element arrays would be nearly all of the time.
+    """
 
     def __init__(self, ant: Antenna, f, cal: Calibration):
-        f = np.atleast_1d(np.asarray(f, dtype=float))
+        self.scalar = isinstance(f, (float, int))
+        f = float(f) if self.scalar else np.atleast_1d(np.asarray(f, dtype=float))
+        as_real, as_complex = (float, complex) if self.scalar else (np.asarray, np.asarray)
         self.ant, self.f, self.cal = ant, f, cal
         self.omega = 2 * np.pi * f
-        self.k = rad.wavenumber(f)
+        self.k = as_real(rad.wavenumber(f))
         line = ant.stub_line
-        self.zs_line = line.series_impedance(f)
-        self.ys_line = line.shunt_admittance(f)
-        self.z0_line = np.sqrt(self.zs_line / self.ys_line)
-        self.gamma_line = np.sqrt(self.zs_line * self.ys_line)
-        self.z_wire = wire_internal_impedance(f, ant.wire_d, ant.wire_sigma)
-        # the common mode flows in both stub conductors in parallel
-        self.z_cm_wire = wire_internal_impedance(f, ant.stub_conductor_d, ant.stub_sigma) / 2
+        self.zs_line = as_complex(line.series_impedance(f))
+        self.ys_line = as_complex(line.shunt_admittance(f))
+        self.z0_line = _sqrt(self.zs_line / self.ys_line)
+        self.gamma_line = _sqrt(self.zs_line * self.ys_line)
+        self.z_wire = as_complex(wire_internal_impedance(f, ant.wire_d, ant.wire_sigma))
+        # the common mode flows in both stub conductors in parallel (often of the radiator's wire)
+        same = (ant.stub_conductor_d, ant.stub_sigma) == (ant.wire_d, ant.wire_sigma)
+        z_stub = self.z_wire if same else wire_internal_impedance(f, ant.stub_conductor_d, ant.stub_sigma)
+        self.z_cm_wire = as_complex(z_stub / 2)
         self.a_eq = float(np.sqrt(ant.stub_conductor_d / 2 * ant.spacing))
         self.beta_w = self.k / ant.wire_vf
-        self.k_w = rad.resonance_factor(self.k * ant.wire_d / 2)
-        self.k_c = rad.resonance_factor(self.k * self.a_eq)
-        self.x_slope = rad.loop_reactance_slope(np.pi * self.k_w, self.k * ant.wire_d / 2)
+        self.k_w = as_real(rad.resonance_factor(self.k * ant.wire_d / 2))
+        self.k_c = as_real(rad.resonance_factor(self.k * self.a_eq))
+        self.x_slope = as_real(rad.loop_reactance_slope(np.pi * self.k_w, self.k * ant.wire_d / 2))
 
     def _rho_g(self, k):
         """Ground reflection coefficient at wavenumbers k (1 for perfect ground)."""
@@ -215,6 +238,8 @@ class _Prepared:
     def _smooth_in_f(self, compute):
         """compute(k) on all frequencies, or for a long narrow sweep on three nodes with quadratic
         interpolation: the integrals vary slowly with f (phase k R over a few-percent span)."""
+        if self.scalar:
+            return complex(compute(self.k))
         f = self.f
         if len(f) <= 3 or f.max() > 1.15 * f.min():
             return compute(self.k)
@@ -223,17 +248,28 @@ class _Prepared:
         x = (f - nodes[1]) / (nodes[2] - nodes[1])
         return vals[1] + x * (vals[2] - vals[0]) / 2 + x ** 2 * (vals[2] - 2 * vals[1] + vals[0]) / 2
 
+    @property
+    def _zero(self):
+        """A zero impedance of the shape of the results, ohm: the image in free space, the coupling
+        of a horizontal radiator."""
+        return 0j if self.scalar else np.zeros(self.f.shape, dtype=complex)
+
     def image(self, L, S):
-        return self._memo(("image", L, S), lambda k: self._image(L, S, k))
+        if self.ant.ground_kind == "free-space":
+            return self._zero
+        # a horizontal or sloping radiator and its image are the same whatever the stub's length
+        s_key = S if self.ant.orientation == "vertical" else None
+        return self._memo(("image", L, s_key), lambda k: self._image(L, S, k))
 
     def coupling(self, L, S):
+        if self.ant.orientation == "horizontal":
+            return self._zero
         return self._memo(("coupling", L, S), lambda k: self._coupling(L, S, k))
 
     def _image(self, L, S, k):
         """Mutual impedance of the radiator with its ground image times the image factor -rho_g,
-        referred to the loop current, ohm (image theory; induced EMF, Carter 1932)."""
-        if self.ant.ground_kind == "free-space":
-            return np.zeros_like(k, dtype=complex)
+        referred to the loop current, ohm (image theory; induced EMF, Carter 1932); none in free
+        space (image)."""
         p0, t = _radiator_geometry(self.ant, L, S)
         centre = p0 + t * L / 2
         mirror = np.array([1.0, 1.0, -1.0])
@@ -246,17 +282,16 @@ class _Prepared:
         junction), less its value with the radiator perpendicular to the stub, ohm (Carter 1932;
         radiator.mutual_impedance). The perpendicular part is the junction's near field, common to
         all orientations and carried by the open-top and junction constants; what remains is how
-        tilting the radiator toward (sloper) or away from (vertical) the stub couples it."""
-        if self.ant.orientation == "horizontal":
-            return np.zeros_like(k, dtype=complex)
+        tilting the radiator toward (sloper) or away from (vertical) the stub couples it, so a
+        horizontal radiator has none (coupling)."""
         p0, t = _radiator_geometry(self.ant, L, S)
         c2 = p0 - np.array([self.ant.spacing / 2, 0.0, 0.0])
         down = np.array([0.0, 0.0, -1.0])
         across = np.array([1.0, 0.0, 0.0])
-        z = rad.mutual_impedance(p0 + t * L / 2, t, L / 2, c2, down, S, k, one_sided=True)
-        z_perp = rad.mutual_impedance(p0 + across * L / 2, across, L / 2, c2, down, S, k,
-                                      one_sided=True)
-        return z - z_perp
+        # the radiator as it is and perpendicular to the stub, against the same common mode
+        z = rad.mutual_impedance(np.array([p0 + t * L / 2, p0 + across * L / 2]), np.array([t, across]),
+                                 L / 2, c2, down, S, k, one_sided=True)
+        return z[..., 0] - z[..., 1]
 
     def _own_length(self, L, S, geometry=None, x_img=1.0, x_rc=1.0):
         """(l_e, z_img, z_rc): the radiator arm's electrical length without the junction term, m,
@@ -268,7 +303,7 @@ class _Prepared:
         l_geo, s_geo = (L, S) if geometry is None else geometry
         z_img = self.image(l_geo, s_geo)
         z_rc = self.coupling(l_geo, s_geo)
-        x_add = x_img * np.imag(z_img) + x_rc * np.imag(z_rc)
+        x_add = x_img * z_img.imag + x_rc * z_rc.imag
         l_e = L + (1 - self.k_w) * np.pi / self.beta_w + x_add / self.x_slope / self.beta_w
         return l_e, z_img, z_rc
 
@@ -286,8 +321,7 @@ class _Prepared:
             l_e = l_e + cal.c_j * ant.spacing
         else:
             l_e, z_img, z_rc = self._own_length(L, S, geometry)
-        r_loop = rad.loop_radiation_resistance(self.beta_w * l_e) + cal.r_img * np.real(z_img) \
-            + cal.r_rc * np.real(z_rc)
+        r_loop = self._loop_resistance(l_e) + cal.r_img * z_img.real + cal.r_rc * z_rc.real
         z0w = rad.schelkunoff_z0(L, ant.wire_d / 2)
         z0c = rad.schelkunoff_z0(S, self.a_eq)
         z0s = ant.stub_line.z0_lossless
@@ -297,12 +331,28 @@ class _Prepared:
         # series resistance making the open arm's resonant resistance z0_q/(alpha l_e) equal r_ant
         r_rad = 2 * z0_q ** 2 / (r_ant * l_e)
         arm_r = _open_arm(self.omega, z0_q, ant.wire_vf, r_rad, self.z_wire, l_e)
-        # common mode: a fat wire of radius a_eq in air (vf 1), free end at the short; a quarter-wave
-        # arm radiates half the loop resistance of a half-wave dipole (Carter 1932)
-        l_c = S + (1 - self.k_c) * np.pi / 2 / self.k
-        r_c = rad.loop_radiation_resistance(2 * self.k * l_c) / 2
-        arm_c = _open_arm(self.omega, z0c, 1.0, 2 * r_c / l_c, self.z_cm_wire, l_c)
-        return arm_r, arm_c
+        return arm_r, self._common_mode_arm(S, z0c)
+
+    def _loop_resistance(self, l_e):
+        """Carter's loop radiation resistance of the radiator arm of electrical length l_e (m),
+        ohm; memoised per l_e on the scalar path (the match varies S, and with it nothing here)."""
+        if not self.scalar:
+            return rad.loop_radiation_resistance(self.beta_w * l_e)
+        cache = self.__dict__.setdefault("_r_loop", {})
+        if l_e not in cache:
+            cache[l_e] = rad.loop_radiation_resistance(self.beta_w * l_e)
+        return cache[l_e]
+
+    def _common_mode_arm(self, S, z0c):
+        """The stub's common mode as an arm: a fat wire of radius a_eq in air (vf 1), free end at the
+        short; a quarter-wave arm radiates half the loop resistance of a half-wave dipole (Carter
+        1932). z0c: its Schelkunoff impedance, ohm. Memoised per S: the radiator searches keep S."""
+        cache = self.__dict__.setdefault("_arm_c", {})
+        if S not in cache:
+            l_c = S + (1 - self.k_c) * np.pi / 2 / self.k
+            r_c = rad.loop_radiation_resistance(2 * self.k * l_c) / 2
+            cache[S] = _open_arm(self.omega, z0c, 1.0, 2 * r_c / l_c, self.z_cm_wire, l_c)
+        return cache[S]
 
     def z_top(self, L, S, geometry=None):
         """Differential load at the stub's open top, 4 z_ant, ohm; geometry: (L, S) used for the
@@ -320,8 +370,8 @@ class _Prepared:
         z_top = self.z_top(L, S) if z_top is None else z_top
         lower, upper = self.sections(S, T)
         z0, g = self.z0_line, self.gamma_line
-        z_low = z0 * np.tanh(g * lower)
-        t_up = np.tanh(g * upper)
+        z_low = z0 * _tanh(g * lower)
+        t_up = _tanh(g * upper)
         z_up = z0 * (z_top + z0 * t_up) / (z0 + z_top * t_up)
         return self.z_bar + z_low * z_up / (z_low + z_up)
 
@@ -345,7 +395,7 @@ def radiator_end_impedance(f, length, ant: Antenna, stub_length: float | None = 
     f: Hz (array); length: radiator L, m; stub_length: S, m, the common-mode arm (default: a
     quarter wave of the stub line at the mean of f). See the module docstring for the picture.
     """
-    prep = _Prepared(ant, f, CAL)
+    prep = _Prepared(ant, np.atleast_1d(f), CAL)
     S = _quarter_wave(ant.stub_line, float(np.mean(prep.f))) if stub_length is None else stub_length
     return prep.z_top(length, S)
 
@@ -354,19 +404,38 @@ def radiator_own_impedance(f, length, ant: Antenna, stub_length: float | None = 
     """The radiator's own end impedance, ohm (the arm cut to resonance, without the junction term
     and the stub's common mode; see resonant_radiator_length). f: Hz (array); length: L, m;
     stub_length: S, m, for the coupling to the common mode (default: a quarter wave)."""
-    prep = _Prepared(ant, f, CAL)
+    prep = _Prepared(ant, np.atleast_1d(f), CAL)
     S = _quarter_wave(ant.stub_line, float(np.mean(prep.f))) if stub_length is None else stub_length
     return prep.own_impedance(length, S)
 
 
+def at_frequency(f0: float, ant: Antenna) -> _Prepared:
+    """The model of ant at the one frequency f0 (Hz), to pass as `prepared` to
+    resonant_radiator_length, solve_match, state_at and sensitivities at that f0: one solve then
+    computes the frequency-only quantities, and the induced-EMF integrals at each length, once."""
+    return _Prepared(ant, float(f0), CAL)
+
+
+def _at(f0: float, ant: Antenna, prepared: _Prepared | None) -> _Prepared:
+    """prepared, checked to be at_frequency(f0, ant); or a new one."""
+    if prepared is None:
+        return at_frequency(f0, ant)
+    if not (prepared.scalar and prepared.f == f0 and prepared.ant is ant):
+        raise ValueError(f"`prepared` must be at_frequency(f0, ant) of this call (f0 = {f0} Hz), "
+                         f"got one at {prepared.f} Hz" + ("" if prepared.ant is ant else
+                                                          " for another antenna"))
+    return prepared
+
+
 def _resonant_length(prep: _Prepared, S: float) -> float:
-    """The radiator length whose own end impedance (prep.own_impedance) is resistive at prep.f[0]:
-    the open arm's anti-resonance, beta_w l_e = pi, solved for L by fixed-point iteration on the
-    slowly varying induced-EMF terms, then polished on the reactance itself by secant steps."""
-    beta = float(prep.beta_w[0])
-    L = float(prep.k_w[0]) * np.pi / beta
+    """The radiator length whose own end impedance (prep.own_impedance) is resistive at prep.f (a
+    scalar prep): the open arm's anti-resonance, beta_w l_e = pi, solved for L by fixed-point
+    iteration on the slowly varying induced-EMF terms, then polished on the reactance itself by
+    secant steps."""
+    beta = prep.beta_w
+    L = prep.k_w * np.pi / beta
     for _ in range(20):
-        l_e = float(prep._own_length(L, S)[0][0])
+        l_e = float(prep._own_length(L, S)[0])
         L_new = L + np.pi / beta - l_e
         if not 0.25 * np.pi / beta < L_new < 1.5 * np.pi / beta:
             break
@@ -374,7 +443,7 @@ def _resonant_length(prep: _Prepared, S: float) -> float:
         L = L_new
         if done:
             break
-    x = lambda L_: float(np.imag(prep.own_impedance(L_, S, geometry=(L, S)))[0])
+    x = lambda L_: prep.own_impedance(L_, S, geometry=(L, S)).imag
     a, b = L, L * (1 + 1e-6)
     xa, xb = x(a), x(b)
     for _ in range(8):
@@ -384,16 +453,18 @@ def _resonant_length(prep: _Prepared, S: float) -> float:
         xb = x(b)
     if not (np.isfinite(b) and 0.30 * 2 * np.pi / beta <= b <= 0.60 * 2 * np.pi / beta):
         raise ValueError(f"no radiator length within 0.30..0.60 electrical wavelengths has a "
-                         f"purely resistive end impedance at {prep.f[0]:.6g} Hz")
+                         f"purely resistive end impedance at {prep.f:.6g} Hz")
     return float(b)
 
 
-def resonant_radiator_length(f0: float, ant: Antenna, stub_length: float | None = None) -> float:
+def resonant_radiator_length(f0: float, ant: Antenna, stub_length: float | None = None,
+                             prepared: _Prepared | None = None) -> float:
     """Radiator length L (m) whose end impedance z_top is purely resistive at f0 (Hz), at the
     high-impedance (anti-)resonance near half an electrical wavelength; the common-mode arm is
-    stub_length (default: a quarter wave of the stub line). Raises ValueError if there is none."""
-    prep = _Prepared(ant, [f0], CAL)
-    S = _quarter_wave(ant.stub_line, f0) if stub_length is None else stub_length
+    stub_length (default: a quarter wave of the stub line). prepared: at_frequency(f0, ant), to
+    share with the other solves. Raises ValueError if there is none."""
+    prep = _at(f0, ant, prepared)
+    S = _quarter_wave(ant.stub_line, f0) if stub_length is None else float(stub_length)
     return _resonant_length(prep, S)
 
 
@@ -401,31 +472,34 @@ def feed_impedance(f, ant: Antenna, radiator_length, stub_length, tap_length) ->
     """Impedance at the feed on the tap bar, ohm, vectorised over f (Hz): the tap bar's series
     reactance plus the shorted lower section (tap + short bar) in parallel with the upper section
     (stub - tap + open-top effect) loaded by z_top = 4 z_ant (DESIGN.md §7 tap model). Lengths in m."""
-    return _Prepared(ant, f, CAL).z_feed(radiator_length, stub_length, tap_length)
+    return _Prepared(ant, np.atleast_1d(f), CAL).z_feed(radiator_length, stub_length, tap_length)
 
 
 def tap_impedance(f, ant: Antenna, stub_length, tap_length, z_top) -> np.ndarray:
     """The tap network alone: impedance at the feed (ohm) for a given differential load z_top (ohm)
     at the stub's open top; f in Hz, lengths in m. feed_impedance is this with z_top = 4 z_ant."""
-    return _Prepared(ant, f, CAL).z_feed(np.nan, stub_length, tap_length, np.asarray(z_top, dtype=complex))
+    return _Prepared(ant, np.atleast_1d(f), CAL).z_feed(np.nan, stub_length, tap_length,
+                                                        np.asarray(z_top, dtype=complex))
 
 
 def solve_match(f0: float, z_feed: float, ant: Antenna, radiator_length: float,
-                max_iter: int = 60) -> tuple[float, float]:
+                max_iter: int = 60, prepared: _Prepared | None = None) -> tuple[float, float]:
     """Stub and tap lengths (S, T) in m so that the feed sees z_feed + j0 ohm at f0 (Hz): a 2-D
-    root (scipy.optimize.root, hybrid Powell, at most max_iter evaluations) started from the quarter
-    wave and the textbook tap sin^2(beta T) = z_feed/R_top. Raises ValueError if no solution is found."""
-    prep = _Prepared(ant, [f0], CAL)
-    L = radiator_length
-    beta = float(prep.gamma_line[0].imag)
+    root (scipy.optimize.root, hybrid Powell, at most max_iter evaluations) started from the best
+    point of a grid around the quarter wave and the textbook tap sin^2(beta T) = z_feed/R_top.
+    prepared: at_frequency(f0, ant), to share with the other solves. Raises ValueError if no
+    solution is found."""
+    prep = _at(f0, ant, prepared)
+    L = float(radiator_length)
+    beta = prep.gamma_line.imag
     s0 = _quarter_wave(ant.stub_line, f0) - (CAL.short_bar + CAL.open_top) * ant.spacing
-    r_top = float(np.real(prep.z_top(L, s0))[0])
+    z_top0 = prep.z_top(L, s0)
+    r_top = z_top0.real
     if not r_top > z_feed:
         raise ValueError(f"end impedance {r_top:.0f} ohm is not above the feed impedance {z_feed} ohm")
     t0 = float(np.arcsin(np.sqrt(z_feed / r_top)) / beta)
     # z_top is in general reactive (the radiator is cut to its own resonance, not to the top's):
     # start from the best point of a coarse (S, T) grid with z_top frozen at s0, vectorised
-    z_top0 = prep.z_top(L, s0)
     s_grid = s0 * np.linspace(0.8, 1.2, 41)[:, None]
     t_grid = t0 * np.geomspace(0.25, 4.0, 25)[None, :]
     rho = np.abs(_reflection(prep.z_feed(L, s_grid, t_grid, z_top0), z_feed))
@@ -435,19 +509,26 @@ def solve_match(f0: float, z_feed: float, ant: Antenna, radiator_length: float,
 
     # the induced-EMF integrals barely change with S: solve with them frozen at s0 (cheap), then
     # polish on the full model by chord-Newton steps with the frozen problem's Jacobian
+    tops = {}   # the frozen z_top at each S tried (the Jacobian's T steps keep S)
 
     def resid(x, full=False):
-        z = (prep.z_feed(L, x[0], x[1]) if full else
-             prep.z_feed(L, x[0], x[1], prep.z_top(L, x[0], geometry=(L, s0))))[0]
+        S, T = float(x[0]), float(x[1])
+        if full:
+            z = prep.z_feed(L, S, T)
+        else:
+            if S not in tops:
+                tops[S] = prep.z_top(L, S, geometry=(L, s0))
+            z = prep.z_feed(L, S, T, tops[S])
         return np.array([z.real / z_feed - 1.0, z.imag / z_feed])
 
     sol = root(resid, start, method="hybr", options={"maxfev": max_iter, "xtol": 1e-12})
     x = np.asarray(sol.x, dtype=float)
-    jac = _jacobian(resid, x)
+    jac = None
     for _ in range(8):
         r = resid(x, full=True)
         if np.max(np.abs(r)) < 1e-9:
             break
+        jac = _jacobian(resid, x) if jac is None else jac
         x = x - np.linalg.solve(jac, r)
     S, T = (float(v) for v in x)
     if np.max(np.abs(resid(x, full=True))) > 1e-6 or not 0 < T < S or not 0.5 * s0 < S < 1.5 * s0:
@@ -467,31 +548,35 @@ def _jacobian(fun, x, h=1e-7):
 
 def _int_abs2(A, B, gamma, l):
     """Integral over 0..l of |A e^{gamma z} + B e^{-gamma z}|^2 dz, exact (the I^2 R and V^2 G
-    integrals of a line section)."""
-    alpha, beta = np.real(gamma), np.imag(gamma)
+    integrals of a line section); Python complex numbers."""
+    alpha, beta = gamma.real, gamma.imag
     grow = l * _exprel(2 * alpha * l)
-    decay = l * np.exp(-2 * alpha * l) * _exprel(2 * alpha * l)
+    decay = l * math.exp(-2 * alpha * l) * _exprel(2 * alpha * l)
     cross = l * _exprel(2j * beta * l)
-    return np.abs(A) ** 2 * grow + np.abs(B) ** 2 * decay + 2 * np.real(A * np.conj(B) * cross)
+    return abs(A) ** 2 * grow + abs(B) ** 2 * decay + 2 * (A * B.conjugate() * cross).real
 
 
 def _exprel(x):
-    """(e^x - 1)/x, 1 at x = 0, for real or complex x."""
-    x = np.asarray(x)
-    small = np.abs(x) < 1e-8
-    safe = np.where(small, 1.0, x)
-    return np.where(small, 1.0 + x / 2, np.expm1(safe) / safe)
+    """(e^x - 1)/x, 1 at x = 0, for a real or complex Python number; a complex e^x - 1 as numpy's
+    expm1 forms it, expm1(Re x) cos(Im x) - 2 sin^2(Im x / 2) + j e^{Re x} sin(Im x), which keeps
+    its precision for small x."""
+    if abs(x) < 1e-8:
+        return 1.0 + x / 2
+    if isinstance(x, complex):
+        return complex(math.expm1(x.real) * math.cos(x.imag) - 2 * math.sin(x.imag / 2) ** 2,
+                       math.exp(x.real) * math.sin(x.imag)) / x
+    return math.expm1(x) / x
 
 
 def _section_loss(z_series, y_shunt, z0, gamma, l, v_end, i_end):
     """(conductor, dielectric) power in W dissipated in a line section of length l (m) with rms V
     and I given at its end z = 0, I flowing toward that end: the integrals of Re(Z')|I|^2 and
-    Re(Y')|V|^2 along it (telegrapher's equations)."""
+    Re(Y')|V|^2 along it (telegrapher's equations); Python complex numbers."""
     a = (i_end + v_end / z0) / 2
     b = (i_end - v_end / z0) / 2
-    p_r = np.real(z_series) * _int_abs2(a, b, gamma, l)
+    p_r = z_series.real * _int_abs2(a, b, gamma, l)
     # V(z) = z0 (a e^{gz} - b e^{-gz})
-    p_g = np.real(y_shunt) * np.abs(z0) ** 2 * _int_abs2(a, -b, gamma, l)
+    p_g = y_shunt.real * abs(z0) ** 2 * _int_abs2(a, -b, gamma, l)
     return p_r, p_g
 
 
@@ -522,44 +607,44 @@ class State:
 
 
 def state_at(f0: float, ant: Antenna, radiator_length: float, stub_length: float, tap_length: float,
-             power_w: float) -> State:
+             power_w: float, prepared: _Prepared | None = None) -> State:
     """Line solution at f0 (Hz) with power_w (W) delivered to the feed: voltages, currents and every
-    power term integrated along the structure (rms phasors). Lengths in m."""
-    prep = _Prepared(ant, [f0], CAL)
-    L, S, T = radiator_length, stub_length, tap_length
+    power term integrated along the structure (rms phasors). Lengths in m; prepared:
+    at_frequency(f0, ant), to share with the other solves."""
+    prep = _at(f0, ant, prepared)
+    L, S, T = float(radiator_length), float(stub_length), float(tap_length)
     arm_r, arm_c = prep.arms(L, S)
     z_top = 4.0 * (arm_r.impedance() + arm_c.impedance())
     z_in = prep.z_feed(L, S, T, z_top)
     lower, upper = prep.sections(S, T)
     z0, g, zs, ys = prep.z0_line, prep.gamma_line, prep.zs_line, prep.ys_line
-    i_in = np.sqrt(power_w / np.real(z_in))              # reference phase: feed current real
+    i_in = math.sqrt(power_w / z_in.real)                # reference phase: feed current real
     v_tap = i_in * (z_in - prep.z_bar)
     # upper section: the top's V and I from V_tap and the load z_top
-    v_top = v_tap / (np.cosh(g * upper) + z0 / z_top * np.sinh(g * upper))
+    v_top = v_tap / (cmath.cosh(g * upper) + z0 / z_top * cmath.sinh(g * upper))
     i_top = v_top / z_top
     pr_up, pg_up = _section_loss(zs, ys, z0, g, upper, v_top, i_top)
     # lower section: V = 0 at the short
-    i_short = v_tap / (z0 * np.sinh(g * lower))
+    i_short = v_tap / (z0 * cmath.sinh(g * lower))
     pr_low, pg_low = _section_loss(zs, ys, z0, g, lower, 0.0 * v_tap, i_short)
     # antenna port: I_rad = 2 I_d through both arms in series; each arm open at its far end
     i_rad = 2 * i_top
     p_arm = []
     for arm in (arm_r, arm_c):
-        v_end = i_rad * arm.impedance() / np.cosh(arm.gamma * arm.l_e)
+        v_end = i_rad * arm.impedance() / cmath.cosh(arm.gamma * arm.l_e)
         i2 = _int_abs2(v_end / arm.z0 / 2, -v_end / arm.z0 / 2, arm.gamma, arm.l_e)
         p_arm.append((arm.r_rad * i2, arm.r_loss * i2, v_end))
     (rad_r, loss_r, v_far), (rad_c, loss_c, _) = p_arm
-    p_in = float(np.real(v_tap * np.conj(i_in))[0])
-    p_rad = float((rad_r + rad_c)[0])
-    p_cond = float((pr_up + pr_low + loss_c)[0])
-    p_diel = float((pg_up + pg_low)[0])
-    p_wire = float(loss_r[0])
+    p_in = (v_tap * i_in.conjugate()).real
+    p_rad = rad_r + rad_c
+    p_cond = pr_up + pr_low + loss_c
+    p_diel = pg_up + pg_low
+    p_wire = loss_r
     balance = abs(p_in - (p_rad + p_cond + p_diel + p_wire)) / p_in
-    return State(v_open_end=float(np.abs(v_top[0])), v_radiator_end=float(np.abs(v_far[0])),
-                 i_short=float(np.abs(i_short[0])), p_delivered=p_in, p_radiated=p_rad,
-                 p_stub_conductor=p_cond, p_stub_dielectric=p_diel,
-                 p_common_mode=float(loss_c[0]), p_wire=p_wire,
-                 efficiency=p_rad / p_in, balance_error=float(balance))
+    return State(v_open_end=abs(v_top), v_radiator_end=abs(v_far), i_short=abs(i_short),
+                 p_delivered=p_in, p_radiated=p_rad, p_stub_conductor=p_cond,
+                 p_stub_dielectric=p_diel, p_common_mode=loss_c, p_wire=p_wire,
+                 efficiency=p_rad / p_in, balance_error=balance)
 
 
 class Sensitivities(NamedTuple):
@@ -575,17 +660,19 @@ class Sensitivities(NamedTuple):
 
 
 def sensitivities(f0: float, ant: Antenna, radiator_length: float, stub_length: float,
-                  tap_length: float) -> Sensitivities:
-    """Central-difference derivatives of the model at f0 (Hz); lengths in m."""
-    L, S, T = radiator_length, stub_length, tap_length
+                  tap_length: float, prepared: _Prepared | None = None) -> Sensitivities:
+    """Central-difference derivatives of the model at f0 (Hz); lengths in m; prepared:
+    at_frequency(f0, ant), to share with the other solves."""
+    L, S, T = float(radiator_length), float(stub_length), float(tap_length)
+    prep = _at(f0, ant, prepared)
     df = 1e-5 * f0
-    prep = _Prepared(ant, [f0 - df, f0, f0 + df], CAL)
-    dl = 1e-5 * L
-    x_lo, x_mid, x_hi = np.imag(prep.own_impedance(L, S))
+    x_lo, x_hi = (_Prepared(ant, f, CAL).own_impedance(L, S).imag for f in (f0 - df, f0 + df))
     dx_df = (x_hi - x_lo) / (2 * df)
-    dx_dl = (np.imag(prep.own_impedance(L + dl, S))[1] - np.imag(prep.own_impedance(L - dl, S))[1]) / (2 * dl)
+    dl = 1e-5 * L
+    dx_dl = (prep.own_impedance(L + dl, S).imag - prep.own_impedance(L - dl, S).imag) / (2 * dl)
     dt = 1e-5 * S
-    z = lambda S_, T_: prep.z_feed(L, S_, T_)[1]
-    ohm_tap = (z(S, T + dt).real - z(S, T - dt).real) / (2 * dt)
+    z_top = prep.z_top(L, S)
+    ohm_tap = (prep.z_feed(L, S, T + dt, z_top).real - prep.z_feed(L, S, T - dt, z_top).real) / (2 * dt)
+    z = lambda S_, T_: prep.z_feed(L, S_, T_)
     ohm_short = (z(S - dt, T - dt).imag - z(S + dt, T + dt).imag) / (2 * dt)
     return Sensitivities(float(-dx_dl / dx_df), float(ohm_tap), float(ohm_short))

@@ -92,25 +92,33 @@ class Line:
     G: Callable[[np.ndarray], np.ndarray]
 
     def series_impedance(self, f) -> np.ndarray:
-        """Z = z_int(f) + j omega L, complex ohm/m; f in Hz."""
-        f = np.asarray(f, dtype=float)
+        """Z = z_int(f) + j omega L, complex ohm/m; f in Hz (a float stays one: the solves' scalar
+        path, where z_int can skip numpy)."""
+        f = f if isinstance(f, float) else np.asarray(f, dtype=float)
         return self.z_int(f) + 2j * np.pi * f * self.L
 
     def shunt_admittance(self, f) -> np.ndarray:
-        """Y = G(f) + j omega C, complex S/m; f in Hz."""
-        f = np.asarray(f, dtype=float)
+        """Y = G(f) + j omega C, complex S/m; f in Hz (a float stays one, as in series_impedance)."""
+        f = f if isinstance(f, float) else np.asarray(f, dtype=float)
         return self.G(f) + 2j * np.pi * f * self.C
 
-    def z0(self, f) -> np.ndarray:
-        """Characteristic impedance z0 = sqrt(Z/Y), complex ohm; f in Hz (telegrapher's equations)."""
-        return np.sqrt(self.series_impedance(f) / self.shunt_admittance(f))
-
-    def gamma(self, f) -> np.ndarray:
-        """Propagation constant gamma = sqrt(Z Y) = alpha + j beta (Np/m, rad/m); f in Hz.
+    def z0_gamma(self, f) -> tuple[np.ndarray, np.ndarray]:
+        """(z0, gamma): characteristic impedance z0 = sqrt(Z/Y), complex ohm, and propagation
+        constant gamma = sqrt(Z Y) = alpha + j beta (Np/m, rad/m), from one evaluation of Z and Y;
+        f in Hz (telegrapher's equations).
 
         Z and Y both lie in the first quadrant, so the principal square root gives alpha, beta >= 0.
         """
-        return np.sqrt(self.series_impedance(f) * self.shunt_admittance(f))
+        z, y = self.series_impedance(f), self.shunt_admittance(f)
+        return np.sqrt(z / y), np.sqrt(z * y)
+
+    def z0(self, f) -> np.ndarray:
+        """Characteristic impedance z0 = sqrt(Z/Y), complex ohm; f in Hz (see z0_gamma)."""
+        return self.z0_gamma(f)[0]
+
+    def gamma(self, f) -> np.ndarray:
+        """Propagation constant gamma = sqrt(Z Y) = alpha + j beta (Np/m, rad/m); f in Hz (see z0_gamma)."""
+        return self.z0_gamma(f)[1]
 
     def velocity_factor(self, f) -> np.ndarray:
         """vf = omega/(beta c), the phase velocity as a fraction of c; f in Hz."""
@@ -229,8 +237,8 @@ def input_impedance(line: Line, f, length, z_load) -> np.ndarray:
 
     f: Hz; length: m; z_load: ohm, 0 for a short, np.inf for an open; all broadcast together.
     """
-    z0 = line.z0(f)
-    rho_in = reflection(z_load, z0) * np.exp(-2.0 * line.gamma(f) * np.asarray(length, dtype=float))
+    z0, gamma = line.z0_gamma(f)
+    rho_in = reflection(z_load, z0) * np.exp(-2.0 * gamma * np.asarray(length, dtype=float))
     with np.errstate(divide="ignore", invalid="ignore"):
         z_in = z0 * (1.0 + rho_in) / (1.0 - rho_in)
     return np.where(rho_in == 1.0, complex(np.inf, 0.0), z_in)
@@ -253,8 +261,8 @@ def abcd(line: Line, f, length):
     [V_in, I_in] = [[A, B], [C, D]] @ [V_out, I_out], I_out flowing out into the load.
     f: Hz; length: m (broadcast). Returns the tuple (A, B, C, D) of complex arrays.
     """
-    z0 = line.z0(f)
-    gl = line.gamma(f) * np.asarray(length, dtype=float)
+    z0, gamma = line.z0_gamma(f)
+    gl = gamma * np.asarray(length, dtype=float)
     cosh, sinh = np.cosh(gl), np.sinh(gl)
     return cosh, z0 * sinh, sinh / z0, cosh
 

@@ -1,7 +1,9 @@
 """Thin-wire antenna formulas for the radiator (induced EMF, average characteristic impedance, images);
 owns wire-antenna physics only: no I/O, no design keys, nothing about the stub or the match (jpole.py).
 
-Symbols (SI throughout; functions broadcast over numpy arrays of f):
+Symbols (SI throughout; functions broadcast over numpy arrays of f; loop_radiation_resistance,
+loop_reactance(_slope), schelkunoff_z0 and wavenumber also take plain floats > 0 and then return
+floats, computed with math and one scipy call: the solves' scalar path, see jpole._Prepared):
 
     f        frequency, Hz;  lam = c/f free-space wavelength, m;  k = 2 pi/lam, rad/m
     eta0     free-space wave impedance, ohm (eta0/(4 pi) = 29.98 ohm)
@@ -18,6 +20,8 @@ Symbols (SI throughout; functions broadcast over numpy arrays of f):
 """
 
 from __future__ import annotations
+
+import math
 
 import numpy as np
 from scipy.constants import c as C0
@@ -41,6 +45,20 @@ def _si(x):
     return sici(x)[0]
 
 
+def _scalar(x) -> bool:
+    """Whether x takes the scalar path: a finite float > 0 (math functions and one scipy call)."""
+    return isinstance(x, float) and 0.0 < x < math.inf
+
+
+def _sici_pair(x):
+    """(Si(x), Ci(x), Si(2x), Ci(2x)): floats for a scalar x (_scalar), else arrays."""
+    if _scalar(x):
+        (si1, si2), (ci1, ci2) = (v.tolist() for v in sici(np.array([x, 2.0 * x])))
+        return si1, ci1, si2, ci2
+    x = np.asarray(x, dtype=float)
+    return (*sici(x), *sici(2 * x))
+
+
 def _cin(x):
     """Cin(x) = gamma_E + ln x - Ci(x) (Balanis, Antenna Theory, 4th ed., App. III)."""
     return np.euler_gamma + np.log(x) - _ci(x)
@@ -55,11 +73,15 @@ def loop_radiation_resistance(kl):
 
     kl: k times the total length, rad. Gives 73.08 ohm at kl = pi (73.13 with eta = 120 pi).
     """
-    kl = np.asarray(kl, dtype=float)
+    if _scalar(kl):
+        m = math
+    else:
+        m, kl = np, np.asarray(kl, dtype=float)
+    si1, ci1, si2, ci2 = _sici_pair(kl)
     g = np.euler_gamma
-    return 2.0 * _ETA_4PI * (g + np.log(kl) - _ci(kl)
-                             + 0.5 * np.sin(kl) * (_si(2 * kl) - 2 * _si(kl))
-                             + 0.5 * np.cos(kl) * (g + np.log(kl / 2) + _ci(2 * kl) - 2 * _ci(kl)))
+    return 2.0 * _ETA_4PI * (g + m.log(kl) - ci1
+                             + 0.5 * m.sin(kl) * (si2 - 2 * si1)
+                             + 0.5 * m.cos(kl) * (g + m.log(kl / 2) + ci2 - 2 * ci1))
 
 
 def loop_reactance(kl, ka):
@@ -72,10 +94,17 @@ def loop_reactance(kl, ka):
     kl: electrical total length, rad; ka: electrical radius, rad. X_m = 42.52 ohm at kl = pi.
     The input reactance is X_m / sin^2(kl/2).
     """
-    kl = np.asarray(kl, dtype=float)
-    ka = np.asarray(ka, dtype=float)
-    return _ETA_4PI * (2 * _si(kl) + np.cos(kl) * (2 * _si(kl) - _si(2 * kl))
-                       - np.sin(kl) * (2 * _ci(kl) - _ci(2 * kl) - _ci(2 * ka**2 / kl)))
+    if _scalar(kl) and _scalar(ka):
+        m = math
+        si, ci = (v.tolist() for v in sici(np.array([kl, 2 * kl, 2 * ka**2 / kl])))
+        (si1, si2, _), (ci1, ci2, ci_a) = si, ci
+    else:
+        m = np
+        kl = np.asarray(kl, dtype=float)
+        ka = np.asarray(ka, dtype=float)
+        si1, ci1, si2, ci2 = _sici_pair(kl)
+        ci_a = _ci(2 * ka**2 / kl)
+    return _ETA_4PI * (2 * si1 + m.cos(kl) * (2 * si1 - si2) - m.sin(kl) * (2 * ci1 - ci2 - ci_a))
 
 
 def dipole_input_impedance(kl, ka):
@@ -118,7 +147,10 @@ def loop_reactance_slope(kl, ka):
     difference of loop_reactance; used to turn a reactance added at the current maximum into the
     equivalent change of resonant length."""
     h = 1e-5
-    return (loop_reactance(kl + h, ka) - loop_reactance(kl - h, ka)) / (2 * h)
+    if _scalar(kl):
+        return (loop_reactance(kl + h, ka) - loop_reactance(kl - h, ka)) / (2 * h)
+    x_hi, x_lo = loop_reactance(np.array([kl + h, kl - h]), ka)   # one evaluation for both
+    return (x_hi - x_lo) / (2 * h)
 
 
 def side_by_side_mutual(d_over_lam, l_over_lam=0.5):
@@ -155,28 +187,29 @@ def mutual_impedance(c1, t1, h1, c2, t2, h2, k, one_sided=False, nodes=96):
     k: wavenumber(s), rad/m, any shape (the result has that shape). one_sided: wire 2 is only the
     arm from c2 along +t2 (length h2, current maximum at c2), as a counterpoise fed at c2.
     Reproduces side_by_side_mutual for parallel half-waves; valid while wire 2 keeps clear of wire 1
-    (no self term). nodes: Gauss-Legendre points along wire 2, 96 or 32.
+    (no self term). nodes: Gauss-Legendre points along wire 2, 96 or 32. c1 and t1 may also be
+    stacks of shape (m, 3), m first wires of half-length h1 against the same second wire, evaluated
+    together (numpy's per-call cost is most of the time): the result then has a last axis of m.
     """
     gl_x, gl_w = _GL[nodes]
-    k = np.asarray(k, dtype=float)[..., None]
+    k = np.asarray(k, dtype=float)
     c1, t1, c2, t2 = (np.asarray(v, dtype=float) for v in (c1, t1, c2, t2))
     u = h2 * (gl_x + 1) / 2 if one_sided else h2 * gl_x
-    pts = c2[None, :] + u[:, None] * t2[None, :]
-    rel = pts - c1[None, :]
-    z = rel @ t1
-    rho_vec = rel - z[:, None] * t1[None, :]
-    rho = np.maximum(np.linalg.norm(rho_vec, axis=1), 1e-12)
-    rho_hat = rho_vec / rho[:, None]
-    r1 = np.hypot(rho, z - h1)
-    r2 = np.hypot(rho, z + h1)
-    r0 = np.hypot(rho, z)
-    e1, e2, e0 = (np.exp(-1j * k * r) / r for r in (r1, r2, r0))
-    ckh = np.cos(k * h1)
-    e_z = -1j * _ETA_4PI * (e1 + e2 - 2 * ckh * e0)
-    e_rho = 1j * _ETA_4PI / rho * ((z - h1) * e1 + (z + h1) * e2 - 2 * z * ckh * e0)
-    e_t2 = e_z * (t1 @ t2) + e_rho * (rho_hat @ t2)
-    i2 = np.sin(k * (h2 - np.abs(u)))
-    return -np.sum(e_t2 * i2 * gl_w, axis=-1) * (h2 / 2 if one_sided else h2)
+    rel = (c2 + u[:, None] * t2) - c1[..., None, :]
+    z = (rel @ t1[..., :, None])[..., 0]
+    rho_vec = rel - z[..., None] * t1[..., None, :]
+    rho = np.maximum(np.sqrt(np.add.reduce(rho_vec * rho_vec, axis=-1)), 1e-12)
+    # last axis: the distances R1, R2, r to wire 1's ends and centre, and the weights
+    # w = t1.t2 - (z - h, z + h, z) (rho_hat.t2)/rho that give both field components at once:
+    # E . t2 = -j (eta/4 pi) I_m [w1 e^{-jkR1}/R1 + w2 e^{-jkR2}/R2 - 2 cos(kh) w0 e^{-jkr}/r]
+    dz = z[..., None] + np.array([-h1, h1, 0.0])
+    r = np.sqrt(rho[..., None] ** 2 + dz**2)
+    w = (t1 @ t2)[..., None, None] - dz * ((rho_vec @ t2) / rho**2)[..., None]
+    k = k.reshape(k.shape + (1,) * r.ndim)
+    e = np.exp(-1j * (k * r)) * (w / r)
+    field = e[..., 0] + e[..., 1] - 2 * np.cos(k[..., 0] * h1) * e[..., 2]
+    i2 = np.sin(k[..., 0] * (h2 - np.abs(u)))
+    return 1j * _ETA_4PI * (h2 / 2 if one_sided else h2) * np.sum(field * (i2 * gl_w), axis=-1)
 
 
 def ground_reflection(f, eps_r, sigma):
@@ -196,9 +229,11 @@ def schelkunoff_z0(length, radius):
         z0_avg = 60 [ln(2 l/a) - 1]
 
     length: arm length l, m; radius: a, m."""
+    if _scalar(length) and _scalar(radius):
+        return 60.0 * (math.log(2.0 * length / radius) - 1.0)
     return 60.0 * (np.log(2.0 * np.asarray(length, dtype=float) / radius) - 1.0)
 
 
 def wavenumber(f):
     """k = 2 pi f / c, rad/m; f in Hz."""
-    return 2 * np.pi * np.asarray(f, dtype=float) / C0
+    return 2 * np.pi * (f if isinstance(f, float) else np.asarray(f, dtype=float)) / C0
