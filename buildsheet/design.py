@@ -9,6 +9,7 @@ from __future__ import annotations
 
 import dataclasses
 import difflib
+import functools
 import hashlib
 import json
 import math
@@ -228,9 +229,10 @@ class Design:
                                    if k in CALIBRATION_PARAMETERS}
         return _canonical_numbers(data)
 
-    @property
+    @functools.cached_property
     def document_id(self) -> str:
-        """A short hash of the canonical form: 'XXXX-XXXX' (hex, upper case)."""
+        """A short hash of the canonical form: 'XXXX-XXXX' (hex, upper case); computed once per
+        Design (frozen, so it cannot go stale; with_changes makes a new one)."""
         text = json.dumps(self.canonical(), sort_keys=True, separators=(",", ":"), ensure_ascii=True)
         digest = hashlib.sha256(text.encode("ascii")).hexdigest()[:8].upper()
         return f"{digest[:4]}-{digest[4:]}"

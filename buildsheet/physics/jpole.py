@@ -429,20 +429,22 @@ def _at(f0: float, ant: Antenna, prepared: _Prepared | None) -> _Prepared:
 
 def _resonant_length(prep: _Prepared, S: float) -> float:
     """The radiator length whose own end impedance (prep.own_impedance) is resistive at prep.f (a
-    scalar prep): the open arm's anti-resonance, beta_w l_e = pi, solved for L by fixed-point
-    iteration on the slowly varying induced-EMF terms, then polished on the reactance itself by
-    secant steps."""
+    scalar prep): the open arm's anti-resonance, beta_w l_e = pi, solved for L by secant steps on
+    the slowly varying induced-EMF terms, then polished on the reactance itself (the terms frozen)."""
     beta = prep.beta_w
-    L = prep.k_w * np.pi / beta
+    # h(L) = pi/beta - l_e(L) = 0: one fixed-point step, then secant steps (each h costs a set of
+    # induced-EMF integrals, so fewer steps is what makes this fast)
+    h = lambda L_: np.pi / beta - float(prep._own_length(L_, S)[0])
+    a = prep.k_w * np.pi / beta
+    ha = h(a)
+    L = a + ha
     for _ in range(20):
-        l_e = float(prep._own_length(L, S)[0])
-        L_new = L + np.pi / beta - l_e
-        if not 0.25 * np.pi / beta < L_new < 1.5 * np.pi / beta:
+        if not 0.25 * np.pi / beta < L < 1.5 * np.pi / beta:
             break
-        done = abs(L_new - L) < 1e-9 * L
-        L = L_new
-        if done:
+        hL = h(L)
+        if abs(hL) < 1e-10 * L or hL == ha:
             break
+        a, ha, L = L, hL, L - hL * (L - a) / (hL - ha)
     x = lambda L_: prep.own_impedance(L_, S, geometry=(L, S)).imag
     a, b = L, L * (1 + 1e-6)
     xa, xb = x(a), x(b)
@@ -507,8 +509,9 @@ def solve_match(f0: float, z_feed: float, ant: Antenna, radiator_length: float,
     i, j = np.unravel_index(int(np.argmin(rho)), rho.shape)
     start = [float(s_grid[i, 0]), float(t_grid[0, j])]
 
-    # the induced-EMF integrals barely change with S: solve with them frozen at s0 (cheap), then
-    # polish on the full model by chord-Newton steps with the frozen problem's Jacobian
+    # the induced-EMF integrals change slowly with S: solve with them frozen at the start (cheap),
+    # then polish on the full model by quasi-Newton steps from the frozen problem's Jacobian
+    s_geo = start[0]
     tops = {}   # the frozen z_top at each S tried (the Jacobian's T steps keep S)
 
     def resid(x, full=False):
@@ -517,19 +520,25 @@ def solve_match(f0: float, z_feed: float, ant: Antenna, radiator_length: float,
             z = prep.z_feed(L, S, T)
         else:
             if S not in tops:
-                tops[S] = prep.z_top(L, S, geometry=(L, s0))
+                tops[S] = prep.z_top(L, S, geometry=(L, s_geo))
             z = prep.z_feed(L, S, T, tops[S])
         return np.array([z.real / z_feed - 1.0, z.imag / z_feed])
 
     sol = root(resid, start, method="hybr", options={"maxfev": max_iter, "xtol": 1e-12})
     x = np.asarray(sol.x, dtype=float)
+    # Broyden's rank-one update adds to the frozen Jacobian what the integrals' change with S does
+    # (large on a vertical, whose radiator rises with the stub), so each full step counts
     jac = None
+    r = resid(x, full=True)
     for _ in range(8):
-        r = resid(x, full=True)
-        if np.max(np.abs(r)) < 1e-9:
+        if np.max(np.abs(r)) < 1e-7:     # 5e-6 ohm on 50 ohm
             break
         jac = _jacobian(resid, x) if jac is None else jac
-        x = x - np.linalg.solve(jac, r)
+        dx = -np.linalg.solve(jac, r)
+        x = x + dx
+        r_new = resid(x, full=True)
+        jac = jac + np.outer(r_new - r - jac @ dx, dx) / (dx @ dx)
+        r = r_new
     S, T = (float(v) for v in x)
     if np.max(np.abs(resid(x, full=True))) > 1e-6 or not 0 < T < S or not 0.5 * s0 < S < 1.5 * s0:
         raise ValueError(f"no stub/tap match for {z_feed} ohm at {f0:.6g} Hz "
@@ -661,18 +670,18 @@ class Sensitivities(NamedTuple):
 
 def sensitivities(f0: float, ant: Antenna, radiator_length: float, stub_length: float,
                   tap_length: float, prepared: _Prepared | None = None) -> Sensitivities:
-    """Central-difference derivatives of the model at f0 (Hz); lengths in m; prepared:
-    at_frequency(f0, ant), to share with the other solves."""
+    """Derivatives of the model at f0 (Hz) by forward differences of 1e-5 of each quantity (one new
+    geometry each, for the induced-EMF integrals; the truncation error is ~1e-5 relative); lengths
+    in m; prepared: at_frequency(f0, ant), to share with the other solves."""
     L, S, T = float(radiator_length), float(stub_length), float(tap_length)
     prep = _at(f0, ant, prepared)
+    x0 = prep.own_impedance(L, S).imag
     df = 1e-5 * f0
-    x_lo, x_hi = (_Prepared(ant, f, CAL).own_impedance(L, S).imag for f in (f0 - df, f0 + df))
-    dx_df = (x_hi - x_lo) / (2 * df)
+    dx_df = (_Prepared(ant, f0 + df, CAL).own_impedance(L, S).imag - x0) / df
     dl = 1e-5 * L
-    dx_dl = (prep.own_impedance(L + dl, S).imag - prep.own_impedance(L - dl, S).imag) / (2 * dl)
+    dx_dl = (prep.own_impedance(L + dl, S).imag - x0) / dl
     dt = 1e-5 * S
     z_top = prep.z_top(L, S)
     ohm_tap = (prep.z_feed(L, S, T + dt, z_top).real - prep.z_feed(L, S, T - dt, z_top).real) / (2 * dt)
-    z = lambda S_, T_: prep.z_feed(L, S_, T_)
-    ohm_short = (z(S - dt, T - dt).imag - z(S + dt, T + dt).imag) / (2 * dt)
+    ohm_short = (prep.z_feed(L, S - dt, T - dt).imag - prep.z_feed(L, S, T, z_top).imag) / dt
     return Sensitivities(float(-dx_dl / dx_df), float(ohm_tap), float(ohm_short))
