@@ -25,7 +25,7 @@ import numpy as np
 import pypdf
 import pytest
 import skrf
-from hypothesis import HealthCheck, assume, given, settings
+from hypothesis import HealthCheck, assume, example, given, settings
 from hypothesis import strategies as st
 from reportlab.pdfgen.canvas import Canvas
 
@@ -485,6 +485,11 @@ SHARE = 0.25
 @settings(max_examples=max(5, int(settings.default.max_examples * SHARE)), deadline=None,
           suppress_health_check=[HealthCheck.filter_too_much])
 @given(design_texts())
+# found by this test: a coax length of 9' 10-1/8" broken across two lines of the SWR plot's caption
+@example(text="buildsheet: 1\nname: aaaaai-aaaaai-aabbbruw-aaaaaaaaaiww\ntitle: a\n"
+              "frequency: 28.0340 MHz\nradiator: {wire: 14 AWG}\n"
+              "stub: {line: window-450}\nfeed: {coax: RG-58, length: 3 m, choke_form: 30 mm}\n"
+              "site: {orientation: horizontal, height: 3.27 m}\noutput: {units: imperial}\n")
 def test_random_designs_print_the_solution_and_lay_out_cleanly(text):
     try:
         design = design_from_text(text)

@@ -66,7 +66,7 @@ def _wrap(text: str, width: float, size: float, bold: bool = False) -> list[str]
     alone on its line)."""
     lines: list[str] = []
     current = ""
-    for word in text.split():
+    for word in _words(text):
         trial = f"{current} {word}" if current else word
         if current and _width(trial, size, bold) > width:
             lines.append(current)
@@ -76,6 +76,22 @@ def _wrap(text: str, width: float, size: float, bold: bool = False) -> list[str]
     if current:
         lines.append(current)
     return lines
+
+
+_UNITS = {"m", "mm", "cm", "km", "ft", "in", "Hz", "kHz", "MHz", "GHz", "Ω", "ohm", "W", "V", "A", "dB"}
+
+
+def _words(text: str) -> list[str]:
+    """The words of `text`, a quantity kept in one piece: feet with their inches (9' 10-1/8") and a
+    number with its unit (3.000 m), so a line never breaks inside one."""
+    words: list[str] = []
+    for word in text.split():
+        if words and ((words[-1].endswith("'") and word[:1].isdigit())
+                      or (words[-1][-1:].isdigit() and word.rstrip(".,;:)") in _UNITS)):
+            words[-1] = f"{words[-1]} {word}"
+        else:
+            words.append(word)
+    return words
 
 
 def _fitted_size(text: str, width: float, size: float, bold: bool = False) -> float:
