@@ -289,8 +289,9 @@ class _Prepared:
         down = np.array([0.0, 0.0, -1.0])
         across = np.array([1.0, 0.0, 0.0])
         # the radiator as it is and perpendicular to the stub, against the same common mode
+        nodes = 48 if S <= 30 * self.ant.spacing else 96      # convergence: radiator._GL
         z = rad.mutual_impedance(np.array([p0 + t * L / 2, p0 + across * L / 2]), np.array([t, across]),
-                                 L / 2, c2, down, S, k, one_sided=True)
+                                 L / 2, c2, down, S, k, one_sided=True, nodes=nodes)
         return z[..., 0] - z[..., 1]
 
     def _own_length(self, L, S, geometry=None, x_img=1.0, x_rc=1.0):
@@ -442,7 +443,7 @@ def _resonant_length(prep: _Prepared, S: float) -> float:
         if not 0.25 * np.pi / beta < L < 1.5 * np.pi / beta:
             break
         hL = h(L)
-        if abs(hL) < 1e-10 * L or hL == ha:
+        if abs(hL) < 1e-9 * L or hL == ha:
             break
         a, ha, L = L, hL, L - hL * (L - a) / (hL - ha)
     x = lambda L_: prep.own_impedance(L_, S, geometry=(L, S)).imag
