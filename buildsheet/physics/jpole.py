@@ -13,10 +13,10 @@ lossy line (Schelkunoff's transmission-line model of a wire antenna) whose serie
 the arm's radiation; z_ant = z_arm1 + z_arm2. The radiator on its own resonates where a centre-fed
 dipole of the same wire does (induced-EMF end effect, Carter 1932), moved by the reactance its ground
 image (image theory) and its coupling to the common mode (induced EMF, radiator.mutual_impedance) add
-at the current maximum. That natural resonance of the wire as a free half wave is the length the
-radiator is cut to (resonant_radiator_length; NEC-2 puts the same wire's centre-fed resonance at
-that height within 0.3 %, tests/test_jpole_nec.py). It is not assumed to be where the end-fed
-radiator's load on the stub is resistive (DESIGN.md §7 cautions that it is not): the stub's open top
+at the current maximum. That resonance of the radiator in place, as a wire of its own (no junction,
+no stub line), is the length it is cut to (resonant_radiator_length; NEC-2 puts the same wire's
+centre-fed resonance at that height within 0.3 %, tests/test_jpole_nec.py). It is not assumed to
+be where the end-fed radiator's load on the stub is resistive (DESIGN.md §7 cautions that it is not): the stub's open top
 sees the arm with the junction's extra electrical length and calibrated image and coupling weights
 added, so z_top is in general reactive, and the 2-D stub/tap solve takes that up. In NEC-2 the
 matched (radiator, stub, tap) form a one-parameter family whose 2:1 band hardly changes along it
@@ -402,9 +402,10 @@ def radiator_end_impedance(f, length, ant: Antenna, stub_length: float | None = 
 
 
 def radiator_own_impedance(f, length, ant: Antenna, stub_length: float | None = None) -> np.ndarray:
-    """The radiator's own end impedance, ohm (the arm cut to resonance, without the junction term
-    and the stub's common mode; see resonant_radiator_length). f: Hz (array); length: L, m;
-    stub_length: S, m, for the coupling to the common mode (default: a quarter wave)."""
+    """The radiator's own end impedance, ohm (the arm cut to resonance: its image and its coupling to
+    the stub's common mode, without the junction term and the common-mode arm itself; see
+    resonant_radiator_length). f: Hz (array); length: L, m; stub_length: S, m, for the coupling
+    (default: a quarter wave)."""
     prep = _Prepared(ant, np.atleast_1d(f), CAL)
     S = _quarter_wave(ant.stub_line, float(np.mean(prep.f))) if stub_length is None else stub_length
     return prep.own_impedance(length, S)
