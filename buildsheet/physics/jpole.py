@@ -16,9 +16,10 @@ image (image theory) and its coupling to the common mode (induced EMF, radiator.
 at the current maximum. That resonance of the radiator in place, as a wire of its own (no junction,
 no stub line), is the length it is cut to (resonant_radiator_length; NEC-2 puts the same wire's
 centre-fed resonance at that height within 0.3 %, tests/test_jpole_nec.py). It is not assumed to
-be where the end-fed radiator's load on the stub is resistive (DESIGN.md §7 cautions that it is not): the stub's open top
-sees the arm with the junction's extra electrical length and calibrated image and coupling weights
-added, so z_top is in general reactive, and the 2-D stub/tap solve takes that up. In NEC-2 the
+be where the end-fed radiator's load on the stub is resistive (DESIGN.md §7 cautions that it is
+not): the stub's open top sees the arm with the junction's extra electrical length and calibrated
+image and coupling weights added, so z_top is in general reactive, and the 2-D stub/tap solve
+takes that up. In NEC-2 the
 matched (radiator, stub, tap) form a one-parameter family whose 2:1 band hardly changes along it
 (20 m design of tests/test_jpole_nec.py: 2.43-2.45 % for radiators from 3 % shorter to 1 % longer
 than this one), so the choice costs no bandwidth. The arm's resistance at resonance is
