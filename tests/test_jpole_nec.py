@@ -145,15 +145,7 @@ def test_nec_swr_at_design_frequency(case, results):
     assert r["swr"] <= limit, f"{case.name}: NEC SWR {r['swr']:.3f} (Z {r['z_nec']:.1f}) for {r}"
 
 
-#: known shortfall, tracked (strict: the marker must go when the model meets the target): the
-#: model's 2:1 band of the 70 cm rod sits above NEC's (the model's feed resistance is about 1.2x
-#: NEC's across the band; the reactance agrees), overlap 0.78 against the 0.8 target
-OVERLAP_SHORT = {"70cm-rod-vert-free"}
-
-
-@pytest.mark.parametrize("case", [
-    pytest.param(c, marks=pytest.mark.xfail(strict=True, reason="known shortfall: overlap 0.78 < 0.8"))
-    if c.name in OVERLAP_SHORT else c for c in CASES], ids=[c.name for c in CASES])
+@pytest.mark.parametrize("case", CASES, ids=[c.name for c in CASES])
 def test_nec_and_model_2to1_bands_overlap(case, results):
     r = results[case.name]
     assert r["overlap"] >= 0.8, f"{case.name}: bands NEC {r['band_nec']} model {r['band_model']}"
