@@ -41,6 +41,24 @@ def test_numerical_induced_emf_matches_closed_form(d):
     assert z_num == pytest.approx(complex(rad.side_by_side_mutual(d)), rel=1e-6)
 
 
+@pytest.mark.parametrize("d", [0.1, 0.25, 0.5])
+def test_several_second_wires_in_one_pass_match_one_at_a_time(d):
+    """mutual_impedances (the solves' one pass over several second wires, stacked first wires, a
+    sweep of k) gives each pair what mutual_impedance gives it, to rounding; and the first pair is
+    Carter's closed form for parallel half-waves (CHECK_VALUES §3b [C]) to 1e-6."""
+    k = 2 * np.pi * np.array([0.98, 1.0, 1.03])
+    c1 = np.array([[0, 0, 0.0], [0.2, 0.0, 0.3]])
+    t1 = np.array([[0, 0, 1.0], [1.0, 0, 0]])
+    seconds = (([d, 0, 0], [0, 0, 1.0], 0.25, False, 96), ([d, 0.1, -0.4], [0, 0, -1.0], 0.4, True, 48),
+               ([0.0, 0.3, 1.0], [0.6, 0.0, 0.8], 0.3, False, 32))
+    together = rad.mutual_impedances(c1, t1, 0.25, seconds, k)
+    for z, (c2, t2, h2, one_sided, nodes) in zip(together, seconds):
+        alone = rad.mutual_impedance(c1, t1, 0.25, c2, t2, h2, k, one_sided=one_sided, nodes=nodes)
+        assert z.shape == alone.shape == (3, 2)
+        np.testing.assert_allclose(z, alone, rtol=1e-12, atol=1e-12)
+    assert together[0][1, 0] == pytest.approx(complex(rad.side_by_side_mutual(d)), rel=1e-6)
+
+
 @pytest.mark.parametrize("h, r_in", [(0.10, 21.73), (0.125, 32.34), (0.25, 85.66), (0.375, 95.63),
                                      (0.50, 69.12), (0.75, 75.02), (1.00, 72.05)])
 def test_horizontal_half_wave_over_perfect_ground_by_image(h, r_in):

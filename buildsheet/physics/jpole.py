@@ -236,25 +236,19 @@ class _Prepared:
         """Series reactance of the tap bar holding the feed: the line's L' over tap_bar * D, ohm."""
         return 1j * self.omega * self.ant.stub_line.L * self.cal.tap_bar * self.ant.spacing
 
-    def _memo(self, key, compute):
-        # the induced-EMF integrals depend on geometry only; the solves revisit the same lengths
-        cache = self.__dict__.setdefault("_cache", {})
-        if key not in cache:
-            cache[key] = self._smooth_in_f(compute)
-        return cache[key]
-
     def _smooth_in_f(self, compute):
         """compute(k) on all frequencies, or for a long narrow sweep on three nodes with quadratic
-        interpolation: the integrals vary slowly with f (phase k R over a few-percent span)."""
+        interpolation: the integrals vary slowly with f (phase k R over a few-percent span).
+        compute returns its values along a first axis, then the shape of k."""
         if self.scalar:
-            return complex(compute(self.k))
+            return [complex(v) for v in compute(self.k)]
         f = self.f
         if len(f) <= 3 or f.max() > 1.15 * f.min():
-            return compute(self.k)
+            return list(compute(self.k))
         nodes = np.array([f.min(), 0.5 * (f.min() + f.max()), f.max()])
         vals = compute(rad.wavenumber(nodes))
         x = (f - nodes[1]) / (nodes[2] - nodes[1])
-        return vals[1] + x * (vals[2] - vals[0]) / 2 + x ** 2 * (vals[2] - 2 * vals[1] + vals[0]) / 2
+        return [v[1] + x * (v[2] - v[0]) / 2 + x ** 2 * (v[2] - 2 * v[1] + v[0]) / 2 for v in vals]
 
     @property
     def _zero(self):
@@ -263,44 +257,60 @@ class _Prepared:
         return 0j if self.scalar else np.zeros(self.f.shape, dtype=complex)
 
     def image(self, L, S):
-        if self.ant.ground_kind == "free-space":
-            return self._zero
-        # a horizontal or sloping radiator and its image are the same whatever the stub's length
-        s_key = S if self.ant.orientation == "vertical" else None
-        return self._memo(("image", L, s_key), lambda k: self._image(L, S, k))
+        return self._integrals(L, S)[0]
 
     def coupling(self, L, S):
-        if self.ant.orientation == "horizontal":
-            return self._zero
-        return self._memo(("coupling", L, S), lambda k: self._coupling(L, S, k))
+        return self._integrals(L, S)[1]
 
-    def _image(self, L, S, k):
-        """Mutual impedance of the radiator with its ground image times the image factor -rho_g,
-        referred to the loop current, ohm (image theory; induced EMF, Carter 1932); none in free
-        space (image)."""
+    def _integrals(self, L, S):
+        """(image, coupling) of radiator L and stub S, ohm (see _mutuals), memoised: they depend on
+        geometry only and the solves revisit the same lengths. The missing ones are computed in one
+        pass."""
+        ant = self.ant
+        # a horizontal or sloping radiator and its image are the same whatever the stub's length
+        keys = (("image", L, S if ant.orientation == "vertical" else None), ("coupling", L, S))
+        wanted = (ant.ground_kind != "free-space", ant.orientation != "horizontal")
+        cache = self.__dict__.setdefault("_cache", {})
+        todo = [w and key not in cache for key, w in zip(keys, wanted)]
+        if any(todo):
+            values = iter(self._smooth_in_f(lambda k: self._mutuals(L, S, k, *todo)))
+            for key, t in zip(keys, todo):
+                if t:
+                    cache[key] = next(values)
+        return tuple(cache[key] if w else self._zero for key, w in zip(keys, wanted))
+
+    def _mutuals(self, L, S, k, image, coupling):
+        """The induced-EMF integrals asked for, along a first axis (Carter 1932;
+        radiator.mutual_impedances, one pass), ohm, referred to the radiator's loop current:
+
+        image: the radiator's mutual impedance with its ground image times the image factor -rho_g
+        (image theory); none in free space.
+        coupling: its mutual impedance with the stub's common mode (current maximum at the open
+        top, on the line's centre line D/2 from the radiator's junction), less its value with the
+        radiator perpendicular to the stub. The perpendicular part is the junction's near field,
+        common to all orientations and carried by the open-top and junction constants; what remains
+        is how tilting the radiator toward (sloper) or away from (vertical) the stub couples it, so
+        a horizontal radiator has none."""
         p0, t = _radiator_geometry(self.ant, L, S)
         centre = p0 + t * L / 2
-        mirror = np.array([1.0, 1.0, -1.0])
-        z12 = rad.mutual_impedance(centre, t, L / 2, centre * mirror, t * mirror, L / 2, k, nodes=32)
-        return -self._rho_g(k) * z12
-
-    def _coupling(self, L, S, k):
-        """Induced-EMF mutual impedance between the radiator (loop current) and the stub's common
-        mode (current maximum at the open top, on the line's centre line D/2 from the radiator's
-        junction), less its value with the radiator perpendicular to the stub, ohm (Carter 1932;
-        radiator.mutual_impedance). The perpendicular part is the junction's near field, common to
-        all orientations and carried by the open-top and junction constants; what remains is how
-        tilting the radiator toward (sloper) or away from (vertical) the stub couples it, so a
-        horizontal radiator has none (coupling)."""
-        p0, t = _radiator_geometry(self.ant, L, S)
-        c2 = p0 - np.array([self.ant.spacing / 2, 0.0, 0.0])
-        down = np.array([0.0, 0.0, -1.0])
+        seconds = []
+        if image:
+            mirror = np.array([1.0, 1.0, -1.0])
+            seconds.append((centre * mirror, t * mirror, L / 2, False, 32))
+        if coupling:
+            c2 = p0 - np.array([self.ant.spacing / 2, 0.0, 0.0])
+            nodes = 48 if S <= 30 * self.ant.spacing else 96      # convergence: radiator._GL
+            seconds.append((c2, np.array([0.0, 0.0, -1.0]), S, True, nodes))
+        # the radiator as it is and, for the coupling, perpendicular to the stub
         across = np.array([1.0, 0.0, 0.0])
-        # the radiator as it is and perpendicular to the stub, against the same common mode
-        nodes = 48 if S <= 30 * self.ant.spacing else 96      # convergence: radiator._GL
-        z = rad.mutual_impedance(np.array([p0 + t * L / 2, p0 + across * L / 2]), np.array([t, across]),
-                                 L / 2, c2, down, S, k, one_sided=True, nodes=nodes)
-        return z[..., 0] - z[..., 1]
+        firsts = (np.array([centre, p0 + across * L / 2]), np.array([t, across]))
+        z = rad.mutual_impedances(*firsts, L / 2, seconds, k)
+        out = []
+        if image:
+            out.append(-self._rho_g(k) * z[0][..., 0])
+        if coupling:
+            out.append(z[-1][..., 0] - z[-1][..., 1])
+        return out
 
     def _own_length(self, L, S, geometry=None, x_img=1.0, x_rc=1.0):
         """(l_e, z_img, z_rc): the radiator arm's electrical length without the junction term, m,

@@ -193,11 +193,30 @@ def mutual_impedance(c1, t1, h1, c2, t2, h2, k, one_sided=False, nodes=96):
     stacks of shape (m, 3), m first wires of half-length h1 against the same second wire, evaluated
     together (numpy's per-call cost is most of the time): the result then has a last axis of m.
     """
-    gl_x, gl_w = _GL[nodes]
+    return mutual_impedances(c1, t1, h1, ((c2, t2, h2, one_sided, nodes),), k)[0]
+
+
+def mutual_impedances(c1, t1, h1, seconds, k):
+    """mutual_impedance of wire 1 (c1, t1, h1, as there, stacks allowed) against several second
+    wires at once, one vectorised pass over all their Gauss nodes: seconds is a sequence of
+    (c2, t2, h2, one_sided, nodes); returns a tuple, one result per second wire, each what
+    mutual_impedance(c1, t1, h1, c2, t2, h2, k, one_sided, nodes) gives."""
     k = np.asarray(k, dtype=float)
-    c1, t1, c2, t2 = (np.asarray(v, dtype=float) for v in (c1, t1, c2, t2))
-    u = h2 * (gl_x + 1) / 2 if one_sided else h2 * gl_x
-    rel = (c2 + u[:, None] * t2) - c1[..., None, :]
+    c1, t1 = np.asarray(c1, dtype=float), np.asarray(t1, dtype=float)
+    pts, dirs, us, spans, wts, starts = [], [], [], [], [], []
+    n = 0
+    for c2, t2, h2, one_sided, nodes in seconds:
+        gl_x, gl_w = _GL[nodes]
+        c2, t2 = np.asarray(c2, dtype=float), np.asarray(t2, dtype=float)
+        u = h2 * (gl_x + 1) / 2 if one_sided else h2 * gl_x
+        pts.append(c2 + u[:, None] * t2)
+        dirs.append(np.repeat(t2[None, :], nodes, axis=0))
+        us.append(h2 - np.abs(u))                      # k (h2 - |u|): the current's phase
+        wts.append(gl_w * (h2 / 2 if one_sided else h2))
+        starts.append(n)
+        n += nodes
+    pts, dirs, us, wts = (np.concatenate(v) for v in (pts, dirs, us, wts))
+    rel = pts - c1[..., None, :]
     z = (rel @ t1[..., :, None])[..., 0]
     rho_vec = rel - z[..., None] * t1[..., None, :]
     rho = np.maximum(np.sqrt(np.add.reduce(rho_vec * rho_vec, axis=-1)), 1e-12)
@@ -206,12 +225,13 @@ def mutual_impedance(c1, t1, h1, c2, t2, h2, k, one_sided=False, nodes=96):
     # E . t2 = -j (eta/4 pi) I_m [w1 e^{-jkR1}/R1 + w2 e^{-jkR2}/R2 - 2 cos(kh) w0 e^{-jkr}/r]
     dz = z[..., None] + np.array([-h1, h1, 0.0])
     r = np.sqrt(rho[..., None] ** 2 + dz**2)
-    w = (t1 @ t2)[..., None, None] - dz * ((rho_vec @ t2) / rho**2)[..., None]
+    w = (dirs @ t1[..., :, None]) - dz * (np.add.reduce(rho_vec * dirs, axis=-1) / rho**2)[..., None]
     k = k.reshape(k.shape + (1,) * r.ndim)
     e = np.exp(-1j * (k * r)) * (w / r)
     field = e[..., 0] + e[..., 1] - 2 * np.cos(k[..., 0] * h1) * e[..., 2]
-    i2 = np.sin(k[..., 0] * (h2 - np.abs(u)))
-    return 1j * _ETA_4PI * (h2 / 2 if one_sided else h2) * np.sum(field * (i2 * gl_w), axis=-1)
+    terms = field * (np.sin(k[..., 0] * us) * wts)
+    sums = np.add.reduceat(terms, starts, axis=-1)
+    return tuple(1j * _ETA_4PI * sums[..., i] for i in range(len(starts)))
 
 
 def ground_reflection(f, eps_r, sigma):
