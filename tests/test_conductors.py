@@ -98,12 +98,31 @@ def test_internal_impedance_continuous_across_asymptotic_switch():
     assert z[1].real / z[0].real == pytest.approx(expected_ratio, rel=1e-8)
 
 
+@pytest.mark.parametrize("a_over_delta", [19.7, 20.0, 25.0, 60.0, 400.0, 3e3, 1e5])
+def test_bessel_ratio_from_the_asymptotic_series_matches_scipy(a_over_delta):
+    """Where the wire impedance uses Hankel's asymptotic series for J0/J1 (|ka| >= 28, a/delta about
+    20 and up), it agrees with scipy.special's Bessel functions (an outside reference) to 1e-13;
+    just below, scipy's own value is used."""
+    from scipy.constants import mu_0
+    from scipy.special import jve
+    from buildsheet.physics import conductors
+    delta = 1e-5
+    d = 2 * a_over_delta * delta
+    sigma = 1.0 / (np.pi * 1e7 * mu_0 * delta ** 2)     # the sigma giving that delta at 10 MHz
+    ka = (1 - 1j) * a_over_delta
+    exact = (1 - 1j) / delta / (2 * np.pi * d / 2 * sigma) * (jve(0, ka) / jve(1, ka))
+    for z in (wire_internal_impedance(1e7, d, sigma), wire_internal_impedance(np.array([1e7]), d, sigma)[0]):
+        assert complex(z) == pytest.approx(complex(exact), rel=1e-13)
+    assert (abs(ka) >= conductors._KA_ASYMPTOTIC) == (a_over_delta >= 28 / np.sqrt(2))
+
+
 def test_internal_impedance_broadcasts():
     f = np.array([[1e6], [1e7]])
     d = np.array([1e-3, 2e-3, 4e-3])
     z = wire_internal_impedance(f, d, SIGMA_CU)
     assert z.shape == (2, 3)
-    assert z[1, 2] == wire_internal_impedance(1e7, 4e-3, SIGMA_CU)
+    # the scalar path (Python complex arithmetic) agrees with the array path to rounding
+    assert z[1, 2] == pytest.approx(wire_internal_impedance(1e7, 4e-3, SIGMA_CU), rel=1e-14)
 
 
 # CHECK_VALUES §2d proximity factor (Ramo-Whinnery-Van Duzer form, from memory there).
