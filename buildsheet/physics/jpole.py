@@ -256,28 +256,25 @@ class _Prepared:
         of a horizontal radiator."""
         return 0j if self.scalar else np.zeros(self.f.shape, dtype=complex)
 
-    def image(self, L, S):
-        return self._integrals(L, S)[0]
-
-    def coupling(self, L, S):
-        return self._integrals(L, S)[1]
-
     def _integrals(self, L, S):
         """(image, coupling) of radiator L and stub S, ohm (see _mutuals), memoised: they depend on
         geometry only and the solves revisit the same lengths. The missing ones are computed in one
-        pass."""
-        ant = self.ant
-        # a horizontal or sloping radiator and its image are the same whatever the stub's length
-        keys = (("image", L, S if ant.orientation == "vertical" else None), ("coupling", L, S))
-        wanted = (ant.ground_kind != "free-space", ant.orientation != "horizontal")
-        cache = self.__dict__.setdefault("_cache", {})
-        todo = [w and key not in cache for key, w in zip(keys, wanted)]
-        if any(todo):
-            values = iter(self._smooth_in_f(lambda k: self._mutuals(L, S, k, *todo)))
-            for key, t in zip(keys, todo):
-                if t:
-                    cache[key] = next(values)
-        return tuple(cache[key] if w else self._zero for key, w in zip(keys, wanted))
+        pass; the image of a horizontal or sloping radiator does not depend on the stub."""
+        pairs = self.__dict__.setdefault("_pairs", {})
+        pair = pairs.get((L, S))
+        if pair is None:
+            ant = self.ant
+            keys = (("image", L, S if ant.orientation == "vertical" else None), ("coupling", L, S))
+            wanted = (ant.ground_kind != "free-space", ant.orientation != "horizontal")
+            cache = self.__dict__.setdefault("_cache", {})
+            todo = [w and key not in cache for key, w in zip(keys, wanted)]
+            if any(todo):
+                values = iter(self._smooth_in_f(lambda k: self._mutuals(L, S, k, *todo)))
+                for key, t in zip(keys, todo):
+                    if t:
+                        cache[key] = next(values)
+            pair = pairs[(L, S)] = tuple(cache[key] if w else self._zero for key, w in zip(keys, wanted))
+        return pair
 
     def _mutuals(self, L, S, k, image, coupling):
         """The induced-EMF integrals asked for, along a first axis (Carter 1932;
@@ -320,8 +317,7 @@ class _Prepared:
         mapped to length through the dipole's reactance slope. x_img, x_rc: weights of the image and
         coupling reactances (1: induced EMF as published; the arm the stub's top sees uses CAL's)."""
         l_geo, s_geo = (L, S) if geometry is None else geometry
-        z_img = self.image(l_geo, s_geo)
-        z_rc = self.coupling(l_geo, s_geo)
+        z_img, z_rc = self._integrals(l_geo, s_geo)
         x_add = x_img * z_img.imag + x_rc * z_rc.imag
         l_e = L + (1 - self.k_w) * np.pi / self.beta_w + x_add / self.x_slope / self.beta_w
         return l_e, z_img, z_rc
