@@ -298,16 +298,14 @@ class _Prepared:
             c2 = p0 - np.array([self.ant.spacing / 2, 0.0, 0.0])
             nodes = 48 if S <= 30 * self.ant.spacing else 96      # convergence: radiator._GL
             seconds.append((c2, np.array([0.0, 0.0, -1.0]), S, True, nodes))
-        # the radiator as it is and, for the coupling, perpendicular to the stub
+        if not coupling:
+            return [-self._rho_g(k) * rad.mutual_impedances(centre, t, L / 2, seconds, k)[0]]
+        # the radiator as it is and perpendicular to the stub
         across = np.array([1.0, 0.0, 0.0])
         firsts = (np.array([centre, p0 + across * L / 2]), np.array([t, across]))
         z = rad.mutual_impedances(*firsts, L / 2, seconds, k)
-        out = []
-        if image:
-            out.append(-self._rho_g(k) * z[0][..., 0])
-        if coupling:
-            out.append(z[-1][..., 0] - z[-1][..., 1])
-        return out
+        out = [-self._rho_g(k) * z[0][..., 0]] if image else []
+        return out + [z[-1][..., 0] - z[-1][..., 1]]
 
     def _own_length(self, L, S, geometry=None, x_img=1.0, x_rc=1.0):
         """(l_e, z_img, z_rc): the radiator arm's electrical length without the junction term, m,
@@ -456,15 +454,20 @@ def _resonant_length(prep: _Prepared, S: float) -> float:
     h = lambda L_: np.pi / beta - float(prep._own_length(L_, S)[0])
     a = prep.k_w * np.pi / beta
     ha = h(a)
-    L = a + ha
+    L = geo = a + ha
     for _ in range(20):
         if not 0.25 * np.pi / beta < L < 1.5 * np.pi / beta:
             break
         hL = h(L)
+        geo = L
         if abs(hL) < 1e-9 * L or hL == ha:
             break
         a, ha, L = L, hL, L - hL * (L - a) / (hL - ha)
-    x = lambda L_: prep.own_impedance(L_, S, geometry=(L, S)).imag
+        if abs(L - a) < 1e-6 * L:
+            # the step is below the integrals' resolution: they change with L about 100 times
+            # more slowly than l_e does, so the frozen polish from geo finishes to ~1e-8
+            break
+    x = lambda L_: prep.own_impedance(L_, S, geometry=(geo, S)).imag
     a, b = L, L * (1 + 1e-6)
     xa, xb = x(a), x(b)
     for _ in range(8):
