@@ -15,11 +15,18 @@ Geometry (SI, metres; z up, ground plane z = 0):
 Symbols: f frequency (Hz), lam free-space wavelength (m), a radius (m), s spacing (m),
   L radiator length, S stub length (open top to short), T tap distance (short to tap), all m.
 
-Meshing (DESIGN.md §7, "Meshing NEC-2 for a two-wire stub"):
-  stub segments near min(lam/40, 8 s); both conductors split at the tap, with the same number of
-  segments on A and B in each section so segment ends line up across the line; about 121 radiator
-  segments per half-wave, never shorter than 3 radii; bars one segment per spacing (odd count so the
-  source sits in the middle); the extended thin-wire kernel where any segment is under 8 radii.
+Meshing (DESIGN.md §7, "Meshing NEC-2 for a two-wire stub", the corrected rule): each bar (short,
+  tap) in 3 segments (5 for refinement studies), each at least 8 conductor radii long (fewer, an odd
+  count, only where the spacing is too small for that); every stub wire graded from the bar's segment
+  length, growing by at most 1.3 per segment up to min(lam/40, 8 s); the open top is graded the same
+  way (the stub's top and the radiator's start from the bar's segment length), the radiator growing
+  to about lam/242 (never under 3 radii); both conductors split at the tap, with the same segment
+  lengths on A and B so segment ends line up across the line; the source on the tap bar's middle
+  segment; the extended thin-wire
+  kernel where any segment is under 8 radii. tests/test_nec_harness.py proves this mesh before the
+  model is judged by it: a plain shorted stub against line theory, refinement (growth, segment size,
+  bar segments) moving a J-pole's feed impedance by under 1 ohm, the average gain of lossless wires,
+  and the dipole of CHECK_VALUES §3d.
 """
 
 from __future__ import annotations
@@ -74,11 +81,32 @@ class JPoleDims:
 
 @dataclass(frozen=True)
 class Wire:
+    """A straight wire from p1 to p2 (m) of `radius` (m), in nseg equal segments, or graded: seglens
+    gives the segment lengths from p1 (they add up to the wire's length; nseg = len(seglens))."""
     tag: int
     nseg: int
     p1: tuple[float, float, float]
     p2: tuple[float, float, float]
     radius: float
+    seglens: tuple[float, ...] | None = None
+
+    def segment_lengths(self) -> tuple[float, ...]:
+        if self.seglens is not None:
+            return self.seglens
+        return (math.dist(self.p1, self.p2) / self.nseg,) * self.nseg
+
+
+@dataclass(frozen=True)
+class Mesh:
+    """The knobs of the DESIGN.md §7 mesh, for refinement studies: growth per segment away from a bar
+    (<= 1.3), a factor on the largest segments (stub and radiator; 0.5 halves them), segments per bar
+    (odd: the source sits in the middle one)."""
+    growth: float = 1.3
+    scale: float = 1.0
+    bar_segments: int = 3
+
+
+MESH = Mesh()
 
 
 @dataclass(frozen=True)
@@ -90,10 +118,11 @@ class NecResult:
     currents: tuple[dict[int, tuple[np.ndarray, np.ndarray]], ...] | None
     wires: tuple[Wire, ...]
     extended_kernel: bool
+    average_gain: np.ndarray | None = None
 
 
 def _nseg(length: float, target: float, radius: float, odd: bool = False) -> int:
-    """Segments for a wire: near `target` long, never shorter than 3 radii (DESIGN.md §7)."""
+    """Segments for a uniform wire: near `target` long, never shorter than 3 radii."""
     n = max(1, round(length / target))
     n = min(n, max(1, int(length / (3.0 * radius))))
     if odd and n % 2 == 0:
@@ -101,19 +130,65 @@ def _nseg(length: float, target: float, radius: float, odd: bool = False) -> int
     return max(1, n)
 
 
-def jpole_wires(d: JPoleDims, f_mesh: float, stub_segment: float | None = None,
-                bar_segments: int | None = None) -> tuple[Wire, ...]:
-    """Wires of the J-pole meshed for frequency f_mesh (Hz; use the highest frequency of the run).
-    stub_segment (m) and bar_segments override the DESIGN.md §7 rule, for mesh studies only."""
+def bar_segments(spacing: float, radius: float, wanted: int = 3) -> int:
+    """Segments of a bar across the line: `wanted` (odd: the source sits in the middle one).
+
+    DESIGN.md §7 asks for bar segments of at least 8 radii and fewer only where that is impossible;
+    measured on plain shorted stubs (tests/test_nec_harness.py), a one-segment bar reads the line's
+    Z0 about 10 % high even where its segment is long enough, while three segments of only 2-6 radii
+    with the extended thin-wire kernel stay within 2 %. So the bar keeps `wanted` segments down to
+    2 radii each (the extended kernel switches on below 8 radii, needs_extended_kernel) and drops to
+    fewer only below that, where the spacing is under about 6 radii and NEC-2 is no reference at
+    all (DESIGN.md §7, fat conductors)."""
+    n = wanted
+    while n > 1 and spacing / n < 2.0 * radius:
+        n -= 2
+    return n
+
+
+def graded(length: float, h_start: float | None, h_end: float | None, h_max: float,
+           growth: float) -> tuple[float, ...]:
+    """Segment lengths along a section of `length` (m): h_start at its start and h_end at its end
+    (None: no grading at that end), each next one `growth` times the last, up to h_max; between the
+    two ramps a uniform middle whose segments are within `growth` of both ramps' last ones and no
+    longer than h_max. Where that cannot be had (a short section), the ramps are cut back from their
+    long ends until it can."""
+    def ramp(h):
+        out = []
+        while h is not None and h < h_max:
+            out.append(h)
+            h *= growth
+        return out
+    left, right = ramp(h_start), ramp(h_end)
+    while True:
+        ends = [r[-1] for r in (left, right) if r]
+        rest = length - sum(left) - sum(right)
+        lo = max(ends) / growth if ends else 0.0
+        hi = min([h_max] + [e * growth for e in ends])
+        n_mid = math.ceil(rest / hi * (1 - 1e-12)) if rest > 0 else 0
+        if not ends or (n_mid > 0 and rest / n_mid >= lo * (1 - 1e-12)):
+            break
+        (left if left and (not right or left[-1] >= right[-1]) else right).pop()
+    n_mid = max(n_mid, 1)
+    return tuple(left + [rest / n_mid] * n_mid + right[::-1])
+
+
+def jpole_wires(d: JPoleDims, f_mesh: float, mesh: Mesh = MESH) -> tuple[Wire, ...]:
+    """Wires of the J-pole meshed for f_mesh (Hz; use the highest frequency of the run) by the
+    DESIGN.md §7 rule; `mesh` changes its knobs for refinement studies."""
     if not 0.0 < d.tap < d.stub:
         raise ValueError(f"tap {d.tap} m must lie between the short and the open top (stub {d.stub} m)")
     lam = C0 / f_mesh
     s, a_s, a_w = d.spacing, d.stub_d / 2.0, d.wire_d / 2.0
-    seg_stub = min(lam / 40.0, 8.0 * s) if stub_segment is None else stub_segment
-    n_low = _nseg(d.tap, seg_stub, a_s)
-    n_high = _nseg(d.stub - d.tap, seg_stub, a_s)
-    n_rad = _nseg(d.radiator, lam / 2.0 / 121.0, a_w)
-    n_bar = _nseg(s, seg_stub, a_s, odd=True) if bar_segments is None else bar_segments
+    h_stub = mesh.scale * min(lam / 40.0, 8.0 * s)
+    h_rad = max(mesh.scale * lam / 242.0, 3.0 * a_w)
+    n_bar = bar_segments(s, a_s, mesh.bar_segments)
+    h_bar = s / n_bar
+    low = graded(d.tap, h_bar, h_bar, h_stub, mesh.growth)
+    # the open top is a junction at the scale of the spacing too: the stub's top and the radiator's
+    # start are graded from the bar's segment length as well
+    high = graded(d.stub - d.tap, h_bar, h_bar, h_stub, mesh.growth)
+    rad = graded(d.radiator, max(h_bar, 3.0 * a_w), None, h_rad, mesh.growth)
 
     if d.orientation == "vertical":
         z_short, z_tap, z_top = d.height, d.height + d.tap, d.height + d.stub
@@ -131,33 +206,76 @@ def jpole_wires(d: JPoleDims, f_mesh: float, stub_segment: float | None = None,
             raise ValueError(f"structure reaches z = {lowest:.3f} m: below or touching the ground")
     xa, xb = 0.0, -s
     return (
-        Wire(TAG_RADIATOR, n_rad, (xa, 0.0, z_top), rad_end, a_w),
-        Wire(TAG_A_LOW, n_low, (xa, 0.0, z_short), (xa, 0.0, z_tap), a_s),
-        Wire(TAG_A_HIGH, n_high, (xa, 0.0, z_tap), (xa, 0.0, z_top), a_s),
-        Wire(TAG_B_LOW, n_low, (xb, 0.0, z_short), (xb, 0.0, z_tap), a_s),
-        Wire(TAG_B_HIGH, n_high, (xb, 0.0, z_tap), (xb, 0.0, z_top), a_s),
+        Wire(TAG_RADIATOR, len(rad), (xa, 0.0, z_top), rad_end, a_w, rad),
+        Wire(TAG_A_LOW, len(low), (xa, 0.0, z_short), (xa, 0.0, z_tap), a_s, low),
+        Wire(TAG_A_HIGH, len(high), (xa, 0.0, z_tap), (xa, 0.0, z_top), a_s, high),
+        Wire(TAG_B_LOW, len(low), (xb, 0.0, z_short), (xb, 0.0, z_tap), a_s, low),
+        Wire(TAG_B_HIGH, len(high), (xb, 0.0, z_tap), (xb, 0.0, z_top), a_s, high),
         Wire(TAG_SHORT, n_bar, (xa, 0.0, z_short), (xb, 0.0, z_short), a_s),
         Wire(TAG_TAP, n_bar, (xa, 0.0, z_tap), (xb, 0.0, z_tap), a_s),
     )
 
 
+def stub_wires(length: float, spacing: float, diameter: float, f_mesh: float,
+               mesh: Mesh = MESH) -> tuple[Wire, ...]:
+    """A plain shorted two-wire stub in free space, meshed as the J-pole's stub (DESIGN.md §7): the
+    short bar at z = 0, the feed bar (tag TAG_TAP, source in its middle segment) at z = length,
+    lengths between the bars' centre lines; conductors A at x = 0 and B at x = -spacing."""
+    lam = C0 / f_mesh
+    a = diameter / 2.0
+    n_bar = bar_segments(spacing, a, mesh.bar_segments)
+    h_bar = spacing / n_bar
+    segs = graded(length, h_bar, h_bar, mesh.scale * min(lam / 40.0, 8.0 * spacing), mesh.growth)
+    xb = -spacing
+    return (
+        Wire(TAG_A_LOW, len(segs), (0.0, 0.0, 0.0), (0.0, 0.0, length), a, segs),
+        Wire(TAG_B_LOW, len(segs), (xb, 0.0, 0.0), (xb, 0.0, length), a, segs),
+        Wire(TAG_SHORT, n_bar, (0.0, 0.0, 0.0), (xb, 0.0, 0.0), a),
+        Wire(TAG_TAP, n_bar, (0.0, 0.0, length), (xb, 0.0, length), a),
+    )
+
+
+def stub_model(length: float, spacing: float, diameter: float, f_hz, mesh: Mesh = MESH,
+               sigma: float | None = None) -> NecResult:
+    """Input impedance (ohm) of the plain shorted stub of stub_wires at each frequency (Hz)."""
+    f_hz = np.atleast_1d(np.asarray(f_hz, dtype=float))
+    wires = stub_wires(length, spacing, diameter, float(f_hz.max()), mesh)
+    bar = wires[-1]
+    return run(wires, f_hz, Ground(), (TAG_TAP, (bar.nseg + 1) // 2),
+               {w.tag: sigma for w in wires})
+
+
 def needs_extended_kernel(wires: tuple[Wire, ...]) -> bool:
     """True where any segment is shorter than about 8 radii (DESIGN.md §7)."""
-    return any(math.dist(w.p1, w.p2) / w.nseg < 8.0 * w.radius for w in wires)
+    return any(min(w.segment_lengths()) < 8.0 * w.radius for w in wires)
 
 
 def run(wires: tuple[Wire, ...], f_hz, ground: Ground, source: tuple[int, int],
         sigma: dict[int, float | None] | None = None, currents: bool = False,
-        extended_kernel: bool | None = None) -> NecResult:
+        extended_kernel: bool | None = None, pattern_step_deg: float | None = None) -> NecResult:
     """Run NEC-2 on `wires` at each frequency; 1 V source on (tag, segment); sigma per tag (S/m) as
     LD 5 wire conductivity. Ground: GN -1 free space, GN 1 perfect, real: GN 2 (Sommerfeld-Norton) or
-    GN 0 (reflection coefficient). Returns the input impedance at the source per frequency."""
+    GN 0 (reflection coefficient). Returns the input impedance at the source per frequency.
+    pattern_step_deg: also the radiated fraction, radiated power (over the sphere in free space, the
+    upper hemisphere over ground) over the power put in, in NecResult.average_gain: NEC's average
+    power gain from an RP card with that step in theta and phi (NEC-2 user's guide, RP card, XNDA
+    A = 1) times the solid angle it averaged over, over 4 pi."""
     f_hz = np.atleast_1d(np.asarray(f_hz, dtype=float))
     ek = needs_extended_kernel(wires) if extended_kernel is None else extended_kernel
     ctx = PyNEC.nec_context()
     geo = ctx.get_geometry()
     for w in wires:
-        geo.wire(w.tag, w.nseg, *w.p1, *w.p2, w.radius, 1.0, 1.0)
+        if w.seglens is None:
+            geo.wire(w.tag, w.nseg, *w.p1, *w.p2, w.radius, 1.0, 1.0)
+            continue
+        # a graded wire: one GW card per segment, all with the wire's tag (NEC numbers the
+        # segments of a tag in order, so EX and LD cards address them as one wire)
+        p1, p2 = np.asarray(w.p1), np.asarray(w.p2)
+        u = (p2 - p1) / np.linalg.norm(p2 - p1)
+        ends = np.concatenate([[0.0], np.cumsum(w.seglens)])
+        ends[-1] = np.linalg.norm(p2 - p1)
+        for e0, e1 in zip(ends[:-1], ends[1:]):
+            geo.wire(w.tag, 1, *(p1 + e0 * u), *(p1 + e1 * u), w.radius, 1.0, 1.0)
     ctx.geometry_complete(1 if ground.kind != "free-space" else 0)
     if ek:
         ctx.set_extended_thin_wire_kernel(True)
@@ -174,14 +292,26 @@ def run(wires: tuple[Wire, ...], f_hz, ground: Ground, source: tuple[int, int],
         raise ValueError(f"ground kind {ground.kind!r}")
     ctx.ex_card(0, source[0], source[1], 0, 1.0, 0.0, 0, 0, 0, 0)
     z = np.empty(len(f_hz), dtype=complex)
+    gain = np.empty(len(f_hz)) if pattern_step_deg else None
     cur = []
     for i, f in enumerate(f_hz):
         ctx.fr_card(0, 1, f / 1e6, 0.0)
-        ctx.xq_card(0)
+        if pattern_step_deg:
+            step = float(pattern_step_deg)
+            top = 180.0 if ground.kind == "free-space" else 90.0
+            n_th = int(round(top / step)) + 1
+            n_ph = int(round(360.0 / step)) + 1
+            ctx.rp_card(0, n_th, n_ph, 0, 0, 0, 1, 0.0, 0.0, step, step, 0.0, 0.0)
+            rp = ctx.get_radiation_pattern(i)
+            # the average over the solid angle covered, times its share of the sphere
+            # PyNEC gives the solid angle in units of pi steradians (a hemisphere reads 2)
+            gain[i] = rp.get_average_power_gain() * rp.get_average_power_solid_angle() / 4.0
+        else:
+            ctx.xq_card(0)
         z[i] = ctx.get_input_parameters(i).get_impedance()[0]
         if currents:
             cur.append(_currents(ctx.get_structure_currents(i), wires, C0 / f))
-    return NecResult(f_hz, z, tuple(cur) if currents else None, tuple(wires), ek)
+    return NecResult(f_hz, z, tuple(cur) if currents else None, tuple(wires), ek, gain)
 
 
 def _currents(sc, wires, lam):
@@ -198,16 +328,16 @@ def _currents(sc, wires, lam):
 
 
 def jpole_model(d: JPoleDims, f_hz, currents: bool = False, f_mesh: float | None = None,
-                extended_kernel: bool | None = None, stub_segment: float | None = None,
-                bar_segments: int | None = None) -> NecResult:
+                extended_kernel: bool | None = None, mesh: Mesh = MESH,
+                pattern_step_deg: float | None = None) -> NecResult:
     """NEC-2 model of the J-pole from its dimensions: feed impedance (ohm) at each frequency (Hz),
     and optionally the currents. Meshed for f_mesh (default: the highest frequency)."""
     f_hz = np.atleast_1d(np.asarray(f_hz, dtype=float))
-    wires = jpole_wires(d, f_mesh or float(f_hz.max()), stub_segment, bar_segments)
+    wires = jpole_wires(d, f_mesh or float(f_hz.max()), mesh)
     tap_bar = wires[TAG_TAP - 1]
     sigma = {TAG_RADIATOR: d.wire_sigma, **{t: d.stub_sigma for t in range(2, 8)}}
     return run(wires, f_hz, d.ground, (TAG_TAP, (tap_bar.nseg + 1) // 2), sigma, currents,
-               extended_kernel)
+               extended_kernel, pattern_step_deg)
 
 
 def dipole(length: float, diameter: float, f_hz, height: float = 0.0, nseg: int = 51,
