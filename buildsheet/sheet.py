@@ -47,6 +47,9 @@ IMPEDANCE_STEP_OHM = 10.0
 LINEAR_FRACTION = 0.3
 #: the resonance error the tuning table starts from, as a fraction of the design frequency
 FREQUENCY_STEP = 0.007
+#: the short is offered as a dip control where, within its linear range, it corrects at least this
+#: share of the dip error the radiator's row is written for
+SHORT_DIP_FRACTION = 0.2
 #: a move larger than this share of the stub means something other than the dimensions is wrong
 BIG_MOVE_FRACTION = 0.1
 #: blank rows in the as-built record when there are no entries, for writing by hand
@@ -538,12 +541,19 @@ class _Context:
         z0 = d.feed.impedance_ohm
         dims = s.dimensions
         least = MIN_MOVE_M[self.u]
-        df = _error_step(_nice(FREQUENCY_STEP * f0), sens["hz_per_m_radiator"],
+        # one dip error for both moves that correct it, each move within its part's linear range;
+        # where the short barely moves the dip (it mostly spoils the match there), the radiator alone
+        df = _error_step(_nice(FREQUENCY_STEP * f0), sens["dip_hz_per_m_radiator"],
                          LINEAR_FRACTION * dims.radiator, least)
+        df_short = _error_step(_nice(FREQUENCY_STEP * f0), sens["dip_hz_per_m_short"],
+                               LINEAR_FRACTION * dims.tap, least)
+        short_moves_dip = df_short >= SHORT_DIP_FRACTION * df
+        df = min(df, df_short) if short_moves_dip else df
         dr = _error_step(IMPEDANCE_STEP_OHM, sens["ohm_per_m_tap"], LINEAR_FRACTION * dims.tap, least)
         dx = _error_step(IMPEDANCE_STEP_OHM, sens["ohm_per_m_short"], LINEAR_FRACTION * dims.tap, least)
-        # the dip df below f0 asks for +df of resonance; R dr high for -dr; X +dx for -dx
-        radiator_move = df / sens["hz_per_m_radiator"]
+        # the dip df below f0 asks for +df of dip; R dr high for -dr; X +dx for -dx
+        radiator_move = df / sens["dip_hz_per_m_radiator"]
+        short_dip_move = df / sens["dip_hz_per_m_short"]
         tap_move = -dr / sens["ohm_per_m_tap"]
         short_move = -dx / sens["ohm_per_m_short"]
         sw = s.sweep
@@ -572,6 +582,8 @@ class _Context:
             tap_dir_high=_direction(tap_move), tap_dir_low=_direction(-tap_move),
             dx=_ohm(dx), short_move=self.length(abs(short_move)),
             short_dir_high=_direction(short_move), short_dir_low=_direction(-short_move),
+            short_moves_dip=short_moves_dip, short_dip_move=self.length(abs(short_dip_move)),
+            short_dip_dir_low=_direction(short_dip_move), short_dip_dir_high=_direction(-short_dip_move),
             dip_tolerance=_step(tolerance), stop_swr=f"{STOP_SWR:g}",
             min_move=self.length(least),
             big_move=self.length(BIG_MOVE_FRACTION * dims.stub),

@@ -281,7 +281,7 @@ def _solve(design: Design) -> Solution:
     loss_db = float(total_loss_db(matched_db, min(rho, 0.999999)))
     p_tap = design.power.transmitter_w * 10 ** (-loss_db / 10)
     state = jpole.state_at(f0, ant, radiator, stub, tap, p_tap, prepared=at_f0)
-    sens = jpole.sensitivities(f0, ant, radiator, stub, tap, prepared=at_f0)
+    sens = jpole.sensitivities(f0, ant, radiator, stub, tap, z_feed, prepared=at_f0)
 
     ch = choke_physics.design_coax_choke(f0, high, design.feed.choke_form_m,
                                          design.feed.coax_outer_diameter_m, f_band_low=low)
@@ -307,7 +307,7 @@ def _solve(design: Design) -> Solution:
         power_radiated_w=state.p_radiated,
         power_lost_w={"stub_conductors": state.p_stub_conductor, "stub_dielectric": state.p_stub_dielectric,
                       "radiator_wire": state.p_wire},
-        sensitivity={"hz_per_m_radiator": sens[0], "ohm_per_m_tap": sens[1], "ohm_per_m_short": sens[2]},
+        sensitivity=sens._asdict(),
         choke=ch, exposure=exposure,
     )
 

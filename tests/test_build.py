@@ -98,8 +98,8 @@ def test_sheet_text_carries_the_numbers_of_the_solution(outdir, design):
         assert _plain(html.unescape(measured)) in text and _plain(html.unescape(action)) in text
     # ... and its numbers are the Solution's sensitivities (DESIGN.md §5 signs)
     df = units.parse_quantity(re.search(r"lowest SWR (\S+ \S?Hz) below", text).group(1), "frequency")
-    move = units.format_length(abs(df / s.sensitivity["hz_per_m_radiator"]), u)
-    verb = "shorten" if s.sensitivity["hz_per_m_radiator"] < 0 else "lengthen"
+    move = units.format_length(abs(df / s.sensitivity["dip_hz_per_m_radiator"]), u)
+    verb = "shorten" if s.sensitivity["dip_hz_per_m_radiator"] < 0 else "lengthen"
     assert f"{verb} the radiator by {move}" in text
     dr = float(re.search(r"R (\d+) Ω above", text).group(1))
     tap = units.format_length(dr / abs(s.sensitivity["ohm_per_m_tap"]), u)

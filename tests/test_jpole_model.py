@@ -130,15 +130,29 @@ def test_two_d_solve_removes_the_textbook_residue():
     assert swr(z, 50.0) < 1.0001
 
 
+def _dip(ant, L, S, T, f0, z_feed=50.0):
+    """Frequency of lowest SWR (Hz) of the model near f0: a fine sweep, then the vertex of the
+    parabola through the least |rho|^2 and its neighbours."""
+    f = f0 * np.linspace(0.99, 1.01, 801)
+    rho2 = np.abs((lambda z: (z - z_feed) / (z + z_feed))(jpole.feed_impedance(f, ant, L, S, T))) ** 2
+    i = int(np.argmin(rho2))
+    a, b, c = rho2[i - 1:i + 2]
+    return f[i] + 0.5 * (a - c) / (a - 2 * b + c) * (f[1] - f[0])
+
+
 def test_sensitivity_signs_and_values_match_finite_moves():
-    """DESIGN.md §5 signs: positive = toward the open top. Radiator longer -> resonance lower; tap up
-    -> R up; the derivatives agree with explicit 5 mm moves of the public feed_impedance."""
+    """DESIGN.md §5 signs: positive = toward the open top. Radiator longer -> dip lower; short up
+    (stub shorter) -> dip higher; tap up -> R up; the derivatives agree with explicit moves of the
+    public feed_impedance: 5 mm for R and X, and 0.2 % of the radiator and 2 cm of the short for the
+    dip, found as the least SWR of a fine sweep."""
     ant = VARIANTS["horizontal-real"]
     f0 = 14.175e6
     _, S, T = design(f0, ant)
     L = jpole.resonant_radiator_length(f0, ant, S)
+    S, T = jpole.solve_match(f0, 50.0, ant, L)
     sens = jpole.sensitivities(f0, ant, L, S, T)
-    assert sens.hz_per_m_radiator < 0
+    assert sens.dip_hz_per_m_radiator < 0
+    assert sens.dip_hz_per_m_short > 0
     assert sens.ohm_per_m_tap > 0
     f = np.array([f0])
     d = 0.005
@@ -148,10 +162,18 @@ def test_sensitivity_signs_and_values_match_finite_moves():
     # short moved up by d: stub and tap distance both shorten by d
     dx = (z(S - d, T - d).imag - z(S + d, T + d).imag) / (2 * d)
     assert sens.ohm_per_m_short == pytest.approx(dx, rel=0.02)
-    # the radiator derivative predicts where the resonant length for a shifted frequency lies
+    assert _dip(ant, L, S, T, f0) == pytest.approx(f0, rel=2e-5)
+    dl = 0.002 * L
+    shift = (_dip(ant, L + dl, S, T, f0) - _dip(ant, L - dl, S, T, f0)) / (2 * dl)
+    assert sens.dip_hz_per_m_radiator == pytest.approx(shift, rel=0.03)
+    ds = 0.02
+    shift = (_dip(ant, L, S - ds, T - ds, f0) - _dip(ant, L, S + ds, T + ds, f0)) / (2 * ds)
+    assert sens.dip_hz_per_m_short == pytest.approx(shift, rel=0.03)
+    # the radiator's own resonance moves more than the dip does (the stub also sets the dip)
     df = 0.002 * f0
     L2 = jpole.resonant_radiator_length(f0 + df, ant, S)
-    assert (L2 - L) * sens.hz_per_m_radiator == pytest.approx(df, rel=0.05)
+    assert (L2 - L) * sens.hz_per_m_resonance == pytest.approx(df, rel=0.05)
+    assert abs(sens.hz_per_m_resonance) > abs(sens.dip_hz_per_m_radiator)
 
 
 def test_trade_half_wave_20m_length():

@@ -109,10 +109,15 @@ def test_key_dimensions_and_cut_list_are_the_solution_formatted(solved, name):
         assert all(units.format_frequency(f) in summary for f in s.band_swr2_hz)
 
 
-def _resonance(ant, length, stub, f0):
-    """The radiator's own resonance (its end impedance resistive) near f0, Hz, by root finding on the model."""
-    x = lambda f: float(np.imag(jpole.radiator_own_impedance(np.array([f]), length, ant, stub))[0])
-    return brentq(x, 0.9 * f0, 1.1 * f0, xtol=1.0)
+def _dip(ant, L, S, T, f0, z_feed):
+    """The model's SWR dip near f0 (Hz): the least |rho|^2 of a fine sweep, refined by bounded search."""
+    from scipy.optimize import minimize_scalar
+    rho2 = lambda f: float(np.abs((lambda z: (z - z_feed) / (z + z_feed))(
+        jpole.feed_impedance(np.atleast_1d(f), ant, L, S, T)))[0] ** 2)
+    f = f0 * np.linspace(0.95, 1.05, 1001)
+    i = int(np.argmin([rho2(x) for x in f]))
+    return minimize_scalar(rho2, bounds=(f[max(i - 1, 0)], f[min(i + 1, 1000)]), method="bounded",
+                           options={"xatol": 1e-3 * (f[1] - f[0])}).x
 
 
 @pytest.mark.parametrize("name", [p.stem for p in DEMOS])
@@ -138,8 +143,16 @@ def test_tuning_moves_do_what_they_say_in_the_model(solved, name):
     (low_key, low), = [(k, v) for k, v in rows.items() if k.startswith("lowest SWR") and " below " in k]
     df = units.parse_quantity(re.search(r"lowest SWR (.+?) below", low_key).group(1), "frequency")
     dl = move(low) * (-1 if low.startswith("shorten") else 1)
-    shift = _resonance(ant, dims.radiator + dl, dims.stub, f0) - _resonance(ant, dims.radiator, dims.stub, f0)
-    within(shift, df, dl, s.sensitivity["hz_per_m_radiator"])
+    zf = d.feed.impedance_ohm
+    dip0 = _dip(ant, dims.radiator, dims.stub, dims.tap, f0, zf)
+    shift = _dip(ant, dims.radiator + dl, dims.stub, dims.tap, f0, zf) - dip0
+    within(shift, df, dl, s.sensitivity["dip_hz_per_m_radiator"])
+    # the same dip error by the short, where the sheet offers it: "or move the short up/down by ..."
+    alt = re.search(r"or move the short \w+ by (.+?)$", low)
+    if alt:
+        ds = units.parse_quantity(alt.group(1), "length") * (1 if "short up" in low else -1)
+        shift = _dip(ant, dims.radiator, dims.stub - ds, dims.tap - ds, f0, zf) - dip0
+        within(shift, df, ds, s.sensitivity["dip_hz_per_m_short"])
 
     (r_key, r_row), = [(k, v) for k, v in rows.items() if k.startswith("R ") and " above " in k]
     dr = units.parse_quantity(r_key.split()[1] + " ohm", "impedance")
@@ -165,7 +178,9 @@ def test_tuning_rows_are_the_sensitivities_formatted(solved):
     for key, row in rows.items():
         if key.startswith("lowest SWR"):
             df = units.parse_quantity(key.split()[2] + " " + key.split()[3], "frequency")
-            expected = units.format_length(abs(df / sens["hz_per_m_radiator"]), "imperial")
+            expected = units.format_length(abs(df / sens["dip_hz_per_m_radiator"]), "imperial")
+            also = units.format_length(abs(df / sens["dip_hz_per_m_short"]), "imperial")
+            assert row.endswith(f"by {also}") or "short" not in row, (key, row, also)
         elif key.startswith("R "):
             expected = units.format_length(abs(float(key.split()[1]) / sens["ohm_per_m_tap"]), "imperial")
         else:

@@ -679,31 +679,56 @@ def state_at(f0: float, ant: Antenna, radiator_length: float, stub_length: float
 
 
 class Sensitivities(NamedTuple):
-    """Tuning derivatives (DESIGN.md §5 signs: positive = toward the open top).
-    hz_per_m_radiator: shift of the radiator's own resonance (radiator_own_impedance resistive) per
-    metre added to it,
-    Hz/m (negative: longer is lower); ohm_per_m_tap: d R_feed / d tap, the tap moved up, ohm/m;
-    ohm_per_m_short: d X_feed / d (short moved up with the tap clamp left in place, so the stub and
-    the tap distance both shorten), ohm/m."""
-    hz_per_m_radiator: float
+    """Tuning derivatives as the builder sees them (DESIGN.md §5 signs: positive = toward the open
+    top), at the solved dimensions.
+
+    dip_hz_per_m_radiator: shift of the SWR dip at the feed (the frequency of lowest SWR against the
+    feed impedance) per metre added to the radiator, Hz/m (negative: longer is lower);
+    dip_hz_per_m_short: the dip's shift per metre the short is moved up with the tap clamps left in
+    place (the stub and the tap distance both shorten), Hz/m (positive: the dip rises);
+    ohm_per_m_tap: d R_feed / d tap, the tap moved up, ohm/m;
+    ohm_per_m_short: d X_feed / d (short moved up, tap clamps left in place), ohm/m;
+    hz_per_m_resonance: shift of the radiator's own resonance (radiator_own_impedance resistive)
+    per metre added to it, Hz/m: what the radiator alone does, which the dip follows only in part."""
+    dip_hz_per_m_radiator: float
+    dip_hz_per_m_short: float
     ohm_per_m_tap: float
     ohm_per_m_short: float
+    hz_per_m_resonance: float
+
+
+def dip_shift(drho_dp: complex, drho_df: complex) -> float:
+    """Shift of the SWR dip, Hz per unit of a parameter p, at a matched point: near the match the
+    reflection coefficient is rho(f, p) ~ (f - f0) drho/df + (p - p0) drho/dp (rho(f0, p0) = 0), and
+    |rho|^2 is least at f - f0 = -Re(drho/dp conj(drho/df)) / |drho/df|^2 per unit of p (the
+    minimum of a complex-linear function's magnitude)."""
+    return float(-(drho_dp * drho_df.conjugate()).real / abs(drho_df) ** 2)
 
 
 def sensitivities(f0: float, ant: Antenna, radiator_length: float, stub_length: float,
-                  tap_length: float, prepared: _Prepared | None = None) -> Sensitivities:
-    """Derivatives of the model at f0 (Hz) by forward differences of 1e-5 of each quantity (one new
-    geometry each, for the induced-EMF integrals; the truncation error is ~1e-5 relative); lengths
-    in m; prepared: at_frequency(f0, ant), to share with the other solves."""
+                  tap_length: float, z_feed: float = 50.0,
+                  prepared: _Prepared | None = None) -> Sensitivities:
+    """Derivatives of the model at f0 (Hz) at a match to z_feed (ohm), by central differences of
+    1e-5 of each quantity (each a new geometry for the induced-EMF integrals), the frequency
+    derivative by a central difference of 1e-5 f0; lengths in m; prepared: at_frequency(f0, ant), to
+    share with the other solves."""
     L, S, T = float(radiator_length), float(stub_length), float(tap_length)
     prep = _at(f0, ant, prepared)
-    x0 = prep.own_impedance(L, S).imag
     df = 1e-5 * f0
-    dx_df = (_Prepared(ant, f0 + df, CAL).own_impedance(L, S).imag - x0) / df
+    above, below = _Prepared(ant, f0 + df, CAL), _Prepared(ant, f0 - df, CAL)
+    z0 = prep.z_feed(L, S, T)
+    # d rho / dz at the feed, rho = (z - z_feed)/(z + z_feed)
+    k = 2 * z_feed / (z0 + z_feed) ** 2
+    dz_df = (above.z_feed(L, S, T) - below.z_feed(L, S, T)) / (2 * df)
     dl = 1e-5 * L
-    dx_dl = (prep.own_impedance(L + dl, S).imag - x0) / dl
+    dz_dl = (prep.z_feed(L + dl, S, T) - prep.z_feed(L - dl, S, T)) / (2 * dl)
     dt = 1e-5 * S
     z_top = prep.z_top(L, S)
-    ohm_tap = (prep.z_feed(L, S, T + dt, z_top).real - prep.z_feed(L, S, T - dt, z_top).real) / (2 * dt)
-    ohm_short = (prep.z_feed(L, S - dt, T - dt).imag - prep.z_feed(L, S, T, z_top).imag) / dt
-    return Sensitivities(float(-dx_dl / dx_df), float(ohm_tap), float(ohm_short))
+    dz_dt = (prep.z_feed(L, S, T + dt, z_top) - prep.z_feed(L, S, T - dt, z_top)) / (2 * dt)
+    # the short moved up by dt with the tap clamps in place: S and T both shorten
+    dz_ds = (prep.z_feed(L, S - dt, T - dt) - prep.z_feed(L, S + dt, T + dt)) / (2 * dt)
+    x_own = lambda p, L_: p.own_impedance(L_, S).imag
+    dx_df = (x_own(above, L) - x_own(below, L)) / (2 * df)
+    dx_dl = (x_own(prep, L + dl) - x_own(prep, L - dl)) / (2 * dl)
+    return Sensitivities(dip_shift(k * dz_dl, k * dz_df), dip_shift(k * dz_ds, k * dz_df),
+                         float(dz_dt.real), float(dz_ds.imag), float(-dx_dl / dx_df))
