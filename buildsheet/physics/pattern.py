@@ -268,7 +268,7 @@ def _gl01(n):
 
 _TH_LOW = _gl01(24)     # theta in [0, 60 deg]
 _TH_HIGH = _gl01(32)    # theta in [60, 90 deg]: grazing, where the Fresnel coefficients turn fast
-_KAPPA = _gl01(64)
+_KAPPA = _gl01(32)      # kappa: each of [0, kappa_b] and [kappa_b, kappa_max]
 
 
 def _theta_nodes():
@@ -349,10 +349,13 @@ def powers(wires, f: float, ground_kind: str = "free-space", eps_r: float = 13.0
 
 def _evanescent(wires, geo, k, eps_c, extent, z_min):
     """P_refl,evan, W: the evanescent part (k_rho > k) of the reflected field's power, kappa = |k_z|
-    from 0 to 12/z_min (e^{-2 kappa z_min} < e^{-24})."""
+    from 0 to 12/z_min (e^{-2 kappa z_min} < e^{-24}), split at kappa_b = 1.5 k |sqrt(eps_c - 1)|
+    (past the waves that still propagate in the ground, k_rho < k |n|, where the Fresnel
+    coefficients turn) when that is shorter."""
     kappa_max = 12.0 / z_min
-    kap = kappa_max * _KAPPA[0]
-    w_k = kappa_max * _KAPPA[1]
+    kappa_b = min(1.5 * k * abs(np.sqrt(eps_c - 1)), kappa_max / 2)
+    kap = np.concatenate([kappa_b * _KAPPA[0], kappa_b + (kappa_max - kappa_b) * _KAPPA[0]])
+    w_k = np.concatenate([kappa_b * _KAPPA[1], (kappa_max - kappa_b) * _KAPPA[1]])
     k_rho = np.sqrt(k * k + kap * kap)
     n_az = _n_azimuth(float(k_rho[-1]), extent)
     al = 2 * np.pi * np.arange(n_az) / n_az
@@ -378,3 +381,55 @@ def ground_efficiency(wires, f: float, ground_kind: str = "free-space", eps_r: f
     currents put into the field that leaves as the space wave over the upper hemisphere (1 in free
     space and over perfect ground). See powers() and the module docstring."""
     return powers(wires, f, ground_kind, eps_r, sigma).eta_ground
+
+
+def gain_dbi(wires, f: float, theta, phi, p_in: float, ground_kind: str = "free-space",
+             eps_r: float = 13.0, sigma: float = 0.005):
+    """Gain in dBi at polar angle theta and azimuth phi (rad, broadcast arrays; over ground theta <=
+    pi/2) relative to the input power p_in (W rms, for the wires' rms currents):
+    G = 4 pi r^2 |E|^2 / (eta0 p_in). -300 dBi where the field vanishes."""
+    e_th, e_ph = far_field(wires, f, theta, phi, ground_kind, eps_r, sigma)
+    g = 4 * np.pi * (np.abs(e_th) ** 2 + np.abs(e_ph) ** 2) / (ETA0 * p_in)
+    return 10 * np.log10(np.maximum(g, 1e-30))
+
+
+def pattern(wires, f: float, ground_kind: str = "free-space", eps_r: float = 13.0,
+            sigma: float = 0.005, p_in: float | None = None, step_deg: float = 1.0) -> Pattern:
+    """The pattern of the wires' currents at f (Hz) over the ground: the maximum gain (dBi, relative
+    to p_in, W; default the power the currents put into the field, P_field, so lossless), its
+    elevation (the take-off angle) and azimuth, found on a step_deg grid (elevation; twice that in
+    azimuth) and polished by a Nelder-Mead search; the elevation cut through the maximum and the
+    azimuth cut at the take-off angle, every step_deg degrees. See Pattern for the angles."""
+    _check_ground(ground_kind)
+    pw = powers(wires, f, ground_kind, eps_r, sigma)
+    p_in = pw.p_field if p_in is None else float(p_in)
+    lo = 0.0 if ground_kind != "free-space" else -90.0
+    el = np.radians(np.arange(lo, 90.0 + step_deg / 2, step_deg))
+    az = np.radians(np.arange(0.0, 360.0, 2 * step_deg))
+    g = gain_dbi(wires, f, np.pi / 2 - el[:, None], az[None, :], p_in, ground_kind, eps_r, sigma)
+    i, j = np.unravel_index(int(np.argmax(g)), g.shape)
+
+    def neg_gain(x):
+        e = np.clip(x[0], lo, 90.0)
+        return -float(gain_dbi(wires, f, np.radians(90.0 - e), np.radians(x[1]), p_in,
+                               ground_kind, eps_r, sigma))
+
+    start = np.degrees([el[i], az[j]])
+    res = minimize(neg_gain, start, method="Nelder-Mead",
+                   options={"xatol": 0.01, "fatol": 1e-6, "initial_simplex":
+                            [start, start + [step_deg / 2, 0], start + [0, step_deg]]})
+    e_max = float(np.clip(res.x[0], lo, 90.0))
+    a_max = float(res.x[1] % 360.0)
+    g_max = -float(res.fun)
+    if g_max < g[i, j]:                      # the polish never makes it worse
+        e_max, a_max, g_max = float(start[0]), float(start[1]), float(g[i, j])
+    # the elevation cut: elevation e in [lo, 180 - lo] toward a_max (beyond 90: the far side)
+    e_cut = np.arange(lo, 180.0 - lo + step_deg / 2, step_deg)
+    far = e_cut > 90.0
+    th_cut = np.radians(np.where(far, e_cut - 90.0, 90.0 - e_cut))
+    ph_cut = np.radians(np.where(far, a_max + 180.0, a_max))
+    g_el = gain_dbi(wires, f, th_cut, ph_cut, p_in, ground_kind, eps_r, sigma)
+    a_cut = np.arange(0.0, 360.0, step_deg)
+    g_az = gain_dbi(wires, f, np.radians(90.0 - e_max), np.radians(a_cut), p_in, ground_kind,
+                    eps_r, sigma)
+    return Pattern(g_max, e_max, a_max, e_cut, g_el, a_cut, g_az, p_in, pw.eta_ground)
