@@ -150,9 +150,10 @@ def _eps_c(f: float, eps_r: float, sigma: float) -> complex:
 
 
 def _geometry(wires):
-    """Per wire: start (shifted so the wires' horizontal centroid is at the origin: the powers do
-    not depend on a horizontal shift, and the phases of the spectrum stay small), unit direction,
-    lowest z; and the largest horizontal distance of any wire point from the centroid, m."""
+    """Per wire: start (shifted so the centre of the wires' horizontal extent is at the origin: the
+    powers do not depend on a horizontal shift, and the spectrum's phases stay small), unit
+    direction, length; the largest horizontal distance of any wire end from that centre, m; the
+    lowest z, m."""
     pts = []
     for w in wires:
         p0, t = np.asarray(w.start, dtype=float), np.asarray(w.direction, dtype=float)
@@ -160,7 +161,8 @@ def _geometry(wires):
         l = w.length if isinstance(w, Wire) else float(np.sum(w.seglens))
         pts.append((p0, t, l))
     ends = np.array([p for p0, t, l in pts for p in (p0, p0 + l * t)])
-    centre = np.array([ends[:, 0].mean(), ends[:, 1].mean(), 0.0])
+    centre = np.array([(ends[:, 0].min() + ends[:, 0].max()) / 2,
+                       (ends[:, 1].min() + ends[:, 1].max()) / 2, 0.0])
     extent = float(np.max(np.hypot(ends[:, 0] - centre[0], ends[:, 1] - centre[1])))
     z_min = float(ends[:, 2].min())
     return [(p0 - centre, t, l) for p0, t, l in pts], extent, z_min
@@ -175,8 +177,9 @@ def _sinusoid_transform(q, k, l):
     if not np.any(near):
         return closed(q)
     d = 1e-3 * k
-    q_safe = np.where(near, q + 10 * d, q)
-    return np.where(near, 0.5 * (closed(q + d) + closed(q - d)), closed(q_safe))
+    out = closed(np.where(near, q + 10 * d, q))
+    out[near] = 0.5 * (closed(q[near] + d) + closed(q[near] - d))
+    return out
 
 
 def _sampled_transform(q, centres, seglens, currents):
