@@ -42,26 +42,45 @@ from buildsheet.physics import pattern as P  # noqa: E402
 from buildsheet.physics.conductors import wire_internal_impedance  # noqa: E402
 
 NAMES = ("20m-horiz-10m-avg", "40m-horiz-12m-avg", "2m-pipe-vert-3m-avg", "6m-horiz-6m-avg",
-         "10m-sloper-30deg-avg")
+         "10m-sloper-30deg-avg", "15m-600ohm-8m-perfect", "2m-wire-vert-3m-avg")
+# one thin-wire vertical beside the test's pipe: #10 AWG radiator and stub, 25 mm spacing
+EXTRA = (acc.Case("2m-wire-vert-3m-avg", 146.0e6, (144.0e6, 148.0e6), acc.AWG(10), acc.AWG(10), 0.025,
+                  "vertical", 3.0, acc.AVERAGE),)
 
 
-def model_wires(case, ant, L, S, T):
-    """The two currents of the line model as pattern.Wire: the radiator arm (junction at conductor A,
-    along the radiator, length L, open at the far end) and the stub's common mode (from the open top
-    on the line's centre line, D/2 from A, straight down to the short, length S). Loop currents from
-    the arms of jpole (an open-ended line: I(z) = (V_end/z0) sinh(gamma z) from the open end, so the
-    loop current is j V_end/z0); the common mode flows up the stub into the radiator, so along its
-    wire's downward direction it is the negative. Scaled by the radiator current at the junction
-    i_rad of state_at; for eta_ground any common factor will do, so i_rad = 1 here."""
+def model_wires(case, ant, L, S, form="line"):
+    """The two currents of the line model as pattern.Wire, as jpole.state_at would pass them: the
+    radiator (junction at conductor A, along the radiator, length L) and the stub's common mode
+    (from the open top on the line's centre line, D/2 from A, straight down to the short, length S).
+
+    Each is the standing wave of its arm of the line model, the radiator's own arm (prep.arms with
+    junction=False: the wire cut to resonance, without the lumped junction length c_j D, which
+    stands for what the stub's top sees, not for the wire's current): an open-ended line carries
+    I(z) = (V_end/z0) sinh(gamma z) from its open end z = 0, so the loop current is
+    I_m = j V_end/z0, with V_end = i_rad Z_arm / cosh(gamma l_e) for the current i_rad into the arm.
+    form "line": that current itself (gamma, open end at l_e); "sine": the lossless sinusoid
+    I_m sin k(l - s) on the physical wire. The common mode flows up the stub into the radiator, so
+    along its wire's downward direction it is the negative. The scale i_rad (state_at: 2 i_top) is a
+    common factor; 1 here."""
     prep = jpole.at_frequency(case.f0, ant)
-    arm_r, arm_c = prep.arms(L, S)
+    arm_r, arm_c = prep.arms(L, S, junction=False)
     i_rad = 1.0
-    v_end_r = i_rad * arm_r.impedance() / cmath.cosh(arm_r.gamma * arm_r.l_e)
-    v_end_c = i_rad * arm_c.impedance() / cmath.cosh(arm_c.gamma * arm_c.l_e)
     p0, t = jpole._radiator_geometry(ant, L, S)
     cm_start = p0 - np.array([ant.spacing / 2, 0.0, 0.0])
-    return [P.Wire(tuple(p0), tuple(t), L, 1j * v_end_r / arm_r.z0),
-            P.Wire(tuple(cm_start), (0.0, 0.0, -1.0), S, -1j * v_end_c / arm_c.z0)]
+    out = []
+    for arm, start, direction, length, sign in ((arm_r, p0, t, L, 1), (arm_c, cm_start, (0.0, 0.0, -1.0), S, -1)):
+        v_end = i_rad * arm.impedance() / cmath.cosh(arm.gamma * arm.l_e)
+        i_m = sign * 1j * v_end / arm.z0
+        extra = dict(gamma=arm.gamma, open_length=arm.l_e) if form == "line" else {}
+        out.append(P.Wire(tuple(start), tuple(direction), length, i_m, **extra))
+    return out
+
+
+def wire_current(w, s, k):
+    """The current of pattern.Wire w at distance s (m) from its start, A."""
+    if w.gamma is None:
+        return w.loop_current * np.sin(k * (w.length - s))
+    return -1j * w.loop_current * cmath.sinh(w.gamma * (w.open_length - s))
 
 
 def nec_sampled(res, wires):
@@ -75,17 +94,17 @@ def nec_sampled(res, wires):
 
 
 def study(name):
-    case = next(c for c in acc.CASES if c.name == name)
+    case = next(c for c in acc.CASES + EXTRA if c.name == name)
     ant, L, S, T = acc.model_design(case)
     g = case.ground
-    ground = necref.Ground("real", g["ground_eps_r"], g["ground_sigma"])
+    kind, eps_r, sigma = g["ground_kind"], g.get("ground_eps_r", 13.0), g.get("ground_sigma", 0.005)
     dims = case.nec_dims(L, S, T)
     wires = necref.jpole_wires(dims, case.f0)
     source = (necref.TAG_TAP, (wires[necref.TAG_TAP - 1].nseg + 1) // 2)
     sig_cu = {necref.TAG_RADIATOR: case.wire_sigma, **{t: case.stub_sigma for t in range(2, 8)}}
     t0 = time.perf_counter()
-    cu = necref.pattern(wires, case.f0, ground, source, sig_cu, theta_step=1.0, phi_step=5.0)
-    lossless = necref.pattern(wires, case.f0, ground, source, None, theta_step=1.0, phi_step=5.0)
+    cu = necref.pattern(wires, case.f0, dims.ground, source, sig_cu, theta_step=1.0, phi_step=5.0)
+    lossless = necref.pattern(wires, case.f0, dims.ground, source, None, theta_step=1.0, phi_step=5.0)
     # NEC-2's own energy balance on this structure: lossless, free space, sphere
     free_dims = necref.with_dims(dims, ground=necref.Ground("free-space"))
     free = necref.pattern(necref.jpole_wires(free_dims, case.f0), case.f0, free_dims.ground, source,
@@ -95,73 +114,63 @@ def study(name):
     p_struct = 0.0
     for w in wires:
         pos, seglens, cur = cu.currents[w.tag]
-        d = case.wire_d if w.tag == necref.TAG_RADIATOR else case.stub_d
-        s = case.wire_sigma if w.tag == necref.TAG_RADIATOR else case.stub_sigma
-        r = wire_internal_impedance(case.f0, d, s).real
+        rad = w.tag == necref.TAG_RADIATOR
+        r = wire_internal_impedance(case.f0, case.wire_d if rad else case.stub_d,
+                                    case.wire_sigma if rad else case.stub_sigma).real
         p_struct += 0.5 * float(np.sum(np.abs(cur) ** 2 * seglens)) * r
     p_upper = cu.radiated_fraction * p_in
     i, j = np.unravel_index(int(np.argmax(cu.gain_dbi)), cu.gain_dbi.shape)
-
-    eps_r, sigma = g["ground_eps_r"], g["ground_sigma"]
-    eta_nec_currents = P.ground_efficiency(nec_sampled(cu, wires), case.f0, "real", eps_r, sigma)
-    mw = model_wires(case, ant, L, S, T)
-    t1 = time.perf_counter()
-    pw = P.powers(mw, case.f0, "real", eps_r, sigma)
-    t_model = time.perf_counter() - t1
-    st = jpole.state_at(case.f0, ant, L, S, T, 1.0)
-    pat = P.pattern(mw, case.f0, "real", eps_r, sigma, p_in=pw.p_field * st.p_delivered / st.p_radiated)
-    # the common mode against the radiator in NEC: peak of I_A + I_B over the radiator's peak
     cur = cu.currents
-    i_cm = np.concatenate([cur[necref.TAG_A_LOW][2] + cur[necref.TAG_B_LOW][2],
-                           cur[necref.TAG_A_HIGH][2] + cur[necref.TAG_B_HIGH][2]])
-    cm_nec = float(np.max(np.abs(i_cm)) / np.max(np.abs(cur[necref.TAG_RADIATOR][2])))
-    k_s = 2 * np.pi * case.f0 / necref.C0 * S       # the common mode's peak: at the open top if kS < pi/2
-    cm_model = float(abs(mw[1].loop_current) * (np.sin(k_s) if k_s < np.pi / 2 else 1.0)
-                     / abs(mw[0].loop_current))
-    # complex ratio: common mode flowing up at the open top over the radiator's current a quarter
-    # wave from its far end (NEC: nearest segment; model: -I_m,c sin kS / I_m,r)
     pos_r, _, cur_r = cur[necref.TAG_RADIATOR]
     i_peak = cur_r[int(np.argmin(np.abs(pos_r - (L - necref.C0 / case.f0 / 4))))]
     top_nec = (cur[necref.TAG_A_HIGH][2][-1] + cur[necref.TAG_B_HIGH][2][-1]) / i_peak
-    top_model = -mw[1].loop_current * np.sin(k_s) / mw[0].loop_current
-    return dict(
-        name=name, f0_hz=case.f0, dims_m=dict(radiator=L, stub=S, tap=T, spacing=case.spacing),
-        ground=dict(eps_r=eps_r, sigma=sigma),
-        nec=dict(z_in=[cu.z_in.real, cu.z_in.imag], p_struct_frac=p_struct / p_in,
-                 p_upper_frac=p_upper / p_in, ground_loss_frac=(p_in - p_struct - p_upper) / p_in,
-                 eta_ground=p_upper / (p_in - p_struct), eta_ground_lossless=lossless.radiated_fraction,
-                 max_gain_dbi=float(cu.gain_dbi[i, j]), takeoff_deg=float(90.0 - cu.theta_deg[i]),
-                 azimuth_deg=float(cu.phi_deg[j]), common_mode_ratio=cm_nec, seconds=t_nec,
-                 free_space_lossless_fraction=free.radiated_fraction,
-                 cm_top_over_radiator=[top_nec.real, top_nec.imag]),
-        pattern_nec_currents=dict(eta_ground=eta_nec_currents),
-        model=dict(eta_ground=pw.eta_ground, seconds_powers=t_model,
-                   struct_efficiency=st.p_radiated / st.p_delivered,
-                   max_gain_dbi=pat.max_gain_dbi, takeoff_deg=pat.takeoff_deg, azimuth_deg=pat.azimuth_deg,
-                   common_mode_ratio=cm_model, cm_top_over_radiator=[top_model.real, top_model.imag],
-                   loop_currents=[[complex(w.loop_current).real, complex(w.loop_current).imag] for w in mw]),
-    )
+    nec = dict(z_in=[cu.z_in.real, cu.z_in.imag], p_struct_frac=p_struct / p_in,
+               p_upper_frac=p_upper / p_in, ground_loss_frac=(p_in - p_struct - p_upper) / p_in,
+               eta_ground=p_upper / (p_in - p_struct), eta_ground_lossless=lossless.radiated_fraction,
+               free_space_lossless_fraction=free.radiated_fraction,
+               max_gain_dbi=float(cu.gain_dbi[i, j]), takeoff_deg=float(90.0 - cu.theta_deg[i]),
+               azimuth_deg=float(cu.phi_deg[j]), cm_top_over_radiator=[top_nec.real, top_nec.imag],
+               eta_ground_from_its_currents=P.ground_efficiency(nec_sampled(cu, wires), case.f0, kind,
+                                                                eps_r, sigma),
+               seconds=t_nec)
+    st = jpole.state_at(case.f0, ant, L, S, T, 1.0)
+    model = dict(struct_efficiency=st.p_radiated / st.p_delivered)
+    for form in ("line", "sine"):
+        mw = model_wires(case, ant, L, S, form)
+        t1 = time.perf_counter()
+        pw = P.powers(mw, case.f0, kind, eps_r, sigma)
+        t_model = time.perf_counter() - t1
+        # gains relative to the power delivered: P_field over the line model's own efficiency
+        pat = P.pattern(mw, case.f0, kind, eps_r, sigma, p_in=pw.p_field * st.p_delivered / st.p_radiated)
+        # the common mode flowing up at the open top over the radiator's loop current
+        i_top = -wire_current(mw[1], 0.0, 2 * np.pi * case.f0 / necref.C0)
+        model[form] = dict(eta_ground=pw.eta_ground, seconds_powers=t_model, max_gain_dbi=pat.max_gain_dbi,
+                           takeoff_deg=pat.takeoff_deg, azimuth_deg=pat.azimuth_deg,
+                           cm_top_over_radiator=[(i_top / mw[0].loop_current).real,
+                                                 (i_top / mw[0].loop_current).imag])
+    return dict(name=name, f0_hz=case.f0, dims_m=dict(radiator=L, stub=S, tap=T, spacing=case.spacing),
+                ground=dict(kind=kind, eps_r=eps_r, sigma=sigma), nec=nec, model=model)
 
 
 def main(argv):
     rows = []
+    print(f"{'design':22s} | NEC-2 GN 2: struct  ground  eta_g  (lossless, free-space balance)  "
+          f"G dBi @ take-off | eta_g of NEC's currents | model line / sine: eta_g  G @ take-off")
     for name in NAMES:
         r = study(name)
         rows.append(r)
         n, m = r["nec"], r["model"]
-        print(f"{name:22s} NEC: loss struct {n['p_struct_frac']:.3f} ground {n['ground_loss_frac']:.3f} "
-              f"eta_g {n['eta_ground']:.3f} (lossless {n['eta_ground_lossless']:.3f}) "
-              f"G {n['max_gain_dbi']:.2f} dBi @ {n['takeoff_deg']:.0f} deg az {n['azimuth_deg']:.0f}, "
-              f"CM {n['common_mode_ratio']:.2f} | NEC currents eta_g {r['pattern_nec_currents']['eta_ground']:.3f} "
-              f"| model eta_g {m['eta_ground']:.3f} G {m['max_gain_dbi']:.2f} dBi @ {m['takeoff_deg']:.1f} "
-              f"az {m['azimuth_deg']:.0f}, CM {m['common_mode_ratio']:.2f} ({m['seconds_powers'] * 1e3:.1f} ms)\n"
-              f"{'':22s} NEC free-space lossless fraction {n['free_space_lossless_fraction']:.3f}; "
-              f"CM top/radiator NEC {complex(*n['cm_top_over_radiator']):.3f} model "
-              f"{complex(*m['cm_top_over_radiator']):.3f}; model struct eff {m['struct_efficiency']:.3f}",
-              flush=True)
+        ml, ms = m["line"], m["sine"]
+        print(f"{name:22s} | {n['p_struct_frac']:.3f} {n['ground_loss_frac']:.3f} {n['eta_ground']:.3f} "
+              f"({n['eta_ground_lossless']:.3f}, {n['free_space_lossless_fraction']:.3f}) "
+              f"{n['max_gain_dbi']:.2f} @ {n['takeoff_deg']:.0f} | {n['eta_ground_from_its_currents']:.3f} | "
+              f"{ml['eta_ground']:.3f} {ml['max_gain_dbi']:.2f} @ {ml['takeoff_deg']:.1f} / "
+              f"{ms['eta_ground']:.3f} {ms['max_gain_dbi']:.2f} @ {ms['takeoff_deg']:.1f} "
+              f"({ml['seconds_powers'] * 1e3:.1f} ms); CM top/I_m NEC {complex(*n['cm_top_over_radiator']):.3f} "
+              f"model {complex(*ml['cm_top_over_radiator']):.3f}", flush=True)
     if len(argv) > 1:
         record = dict(script="bench/ground_loss.py", date=datetime.datetime.now(datetime.timezone.utc)
-                      .isoformat(timespec="seconds"), pynec=getattr(PyNEC, "__version__", "2.4.6 (pip)"),
+                      .isoformat(timespec="seconds"), pynec="PyNEC 2.4.6 (pip)",
                       mesh="necref.MESH (DESIGN.md §7)", rp="theta 1 deg, phi 5 deg, GN 2", rows=rows)
         Path(argv[1]).write_text(json.dumps(record, indent=1))
 

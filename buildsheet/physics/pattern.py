@@ -94,15 +94,23 @@ GROUND_KINDS = ("free-space", "perfect", "real")
 
 @dataclass(frozen=True)
 class Wire:
-    """A straight wire with a sinusoidal standing-wave current, open at its far end.
+    """A straight wire with a standing-wave current, open at its far end.
 
     start: (x, y, z) of its start, m; direction: unit vector along it; length: l, m;
     loop_current: I_m, A rms, complex. The current flowing along `direction` at distance s from the
-    start is I_m sin k(l - s): zero at the far (open) end, I_m a quarter wave from it."""
+    start is I_m sin k(l - s): zero at the far (open) end, I_m a quarter wave from it.
+
+    gamma, open_length (optional): the standing wave of an open-ended lossy line instead,
+    I(s) = -j I_m sinh(gamma (l_o - s)) on 0 <= s <= l, with propagation constant gamma (1/m,
+    complex, alpha + j beta) and its open end at l_o = open_length (m; default l), as the antenna
+    model's arms carry it (its electrical length l_o includes the end effect, so the current at the
+    wire's physical end need not vanish). gamma = jk and l_o = l give the sinusoid above."""
     start: tuple[float, float, float]
     direction: tuple[float, float, float]
     length: float
     loop_current: complex
+    gamma: complex | None = None
+    open_length: float | None = None
 
 
 @dataclass(frozen=True)
@@ -173,7 +181,25 @@ def _sinusoid_transform(q, k, l):
     singularity at q^2 = k^2 taken as the mean of q +- 1e-3 k, error ~1e-6 relative)."""
     def closed(q):
         return (-1j * q * np.sin(k * l) - k * np.cos(k * l) + k * np.exp(1j * q * l)) / (k * k - q * q)
-    near = np.abs(k * k - q * q) < 1e-4 * k * k
+    return _removable(closed, q, k * k - q * q, k)
+
+
+def _line_transform(q, gamma, l, l_o, k):
+    """integral_0^l -j sinh(gamma (l_o - s)) e^{j q s} ds for complex q (closed form; the removable
+    singularities at j q = +-gamma as in _sinusoid_transform)."""
+    def closed(q):
+        jq = 1j * q
+        e = np.exp(jq * l)
+        up = np.exp(gamma * l_o) * (e * np.exp(-gamma * l) - 1) / (jq - gamma)
+        down = np.exp(-gamma * l_o) * (e * np.exp(gamma * l) - 1) / (jq + gamma)
+        return -0.5j * (up - down)
+    return _removable(closed, q, (gamma - 1j * q) * (gamma + 1j * q), k)
+
+
+def _removable(closed, q, denominator, k):
+    """closed(q), with the points where `denominator` nearly vanishes (relative to k^2) taken as
+    the mean of closed(q +- 1e-3 k): the singularity there is removable."""
+    near = np.abs(denominator) < 1e-4 * k * k
     if not np.any(near):
         return closed(q)
     d = 1e-3 * k
@@ -197,7 +223,12 @@ def _radiation_vector(wires, geo, kvec, k):
         q = kvec @ t
         phase = np.exp(1j * (kvec @ p0))
         if isinstance(w, Wire):
-            s = complex(w.loop_current) * _sinusoid_transform(q, k, l)
+            if w.gamma is None and w.open_length is None:
+                s = complex(w.loop_current) * _sinusoid_transform(q, k, l)
+            else:
+                gamma = 1j * k if w.gamma is None else complex(w.gamma)
+                l_o = l if w.open_length is None else float(w.open_length)
+                s = complex(w.loop_current) * _line_transform(q, gamma, l, l_o, k)
         else:
             s = _sampled_transform(q, np.asarray(w.centres, dtype=float),
                                    np.asarray(w.seglens, dtype=float), np.asarray(w.currents, dtype=complex))
