@@ -67,12 +67,14 @@ def model_wires(case, ant, L, S, form="line"):
     i_rad = 1.0
     p0, t = jpole._radiator_geometry(ant, L, S)
     cm_start = p0 - np.array([ant.spacing / 2, 0.0, 0.0])
+    down = (0.0, 0.0, -1.0)
+    if form == "line":
+        return [P.open_line_wire(p0, t, L, i_rad, arm_r.gamma, arm_r.l_e),
+                P.open_line_wire(cm_start, down, S, -i_rad, arm_c.gamma, arm_c.l_e)]
     out = []
-    for arm, start, direction, length, sign in ((arm_r, p0, t, L, 1), (arm_c, cm_start, (0.0, 0.0, -1.0), S, -1)):
+    for arm, start, direction, length, sign in ((arm_r, p0, t, L, 1), (arm_c, cm_start, down, S, -1)):
         v_end = i_rad * arm.impedance() / cmath.cosh(arm.gamma * arm.l_e)
-        i_m = sign * 1j * v_end / arm.z0
-        extra = dict(gamma=arm.gamma, open_length=arm.l_e) if form == "line" else {}
-        out.append(P.Wire(tuple(start), tuple(direction), length, i_m, **extra))
+        out.append(P.Wire(tuple(start), tuple(direction), length, sign * 1j * v_end / arm.z0))
     return out
 
 

@@ -291,3 +291,13 @@ def test_lossy_line_current_reduces_to_the_sinusoid():
     th, ph = np.radians([10.0, 40.0, 70.0, 89.0]), np.radians([0.0, 30.0, 100.0, 250.0])
     for x, y in zip(P.far_field([line], F, th, ph, "real"), P.far_field([sampled], F, th, ph, "real")):
         assert np.allclose(x, y, rtol=1e-5, atol=1e-9 * np.max(np.abs(y)))
+
+
+def test_open_line_wire_carries_its_input_current():
+    """open_line_wire: I(0) = i_in (the current into the arm), and the current vanishes at l_e
+    (telegrapher's equations for an open-ended line: I(z) ~ sinh(gamma z) from the open end)."""
+    gamma, l_e = 0.01 + 1.02j * K, 0.48 * LAM
+    w = P.open_line_wire((0.0, 0.0, 8.0), (1.0, 0.0, 0.0), 0.46 * LAM, 0.3 - 0.1j, gamma, l_e)
+    current = lambda s: -1j * w.loop_current * np.sinh(w.gamma * (w.open_length - s))
+    assert current(0.0) == pytest.approx(0.3 - 0.1j, abs=1e-12)
+    assert abs(current(l_e)) < 1e-12
