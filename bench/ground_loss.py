@@ -1,6 +1,7 @@
 """Ground loss and pattern of J-poles: NEC-2 against physics/pattern.py. Prints figures; not a test.
 
-  python3 bench/ground_loss.py [OUT.json]     (NEC-2 runs one at a time; about a minute)
+  python3 bench/ground_loss.py [OUT.json]           J-poles (NEC-2 runs one at a time; about a minute)
+  python3 bench/ground_loss.py dipoles [OUT.json]   half-wave dipoles over three grounds (tests/test_pattern.py)
 
 For each design (the acceptance designs of tests/test_jpole_nec.py over real ground, at the
 dimensions the current model gives them, model_design) NEC-2 (tests/necref.py, DESIGN.md §7 mesh,
@@ -154,7 +155,43 @@ def study(name):
                 ground=dict(kind=kind, eps_r=eps_r, sigma=sigma), nec=nec, model=model)
 
 
+def dipoles(argv):
+    """Thin exact half-wave (radius 1e-5 lambda, 51 segments, lossless, 14.2 MHz), horizontal (centre
+    at h) and vertical (lower end at h), over average, poor and very good ground: NEC-2's radiated
+    fraction with GN 2 and GN 0, pattern.py's eta_ground from the sinusoid and from NEC's currents,
+    and both maximum gains and take-off angles (NEC: RP grid, theta 0.5 deg, phi 5 deg)."""
+    import test_pattern as tp
+    rows = []
+    print(f"{'':10s} {'h/lam':>5s} {'ground':9s} | eta_g: NEC GN2   GN0 | sinusoid  NEC-currents | "
+          f"G max dBi @ take-off: NEC GN2 | sinusoid")
+    for o in ("horizontal", "vertical"):
+        for h in (0.1, 0.25, 0.5, 1.0):
+            for g in sorted(tp.GROUNDS):
+                eps_r, sigma = tp.GROUNDS[g]
+                centre = tp._centre(o, h)
+                gn2 = tp._nec(o, h, g, theta_step=0.5)
+                gn0 = tp._nec(o, h, g, method="reflection")
+                w = necref.dipole_wires(0.5 * tp.LAM, tp.THIN_D, centre, o)
+                eta_nec_cur = P.ground_efficiency(nec_sampled(gn2, w), tp.F, "real", eps_r, sigma)
+                pat = P.pattern(tp.half_wave(centre, o), tp.F, "real", eps_r, sigma)
+                i, j = np.unravel_index(int(np.argmax(gn2.gain_dbi)), gn2.gain_dbi.shape)
+                r = dict(orientation=o, h_over_lam=h, ground=g, eta_gn2=gn2.radiated_fraction,
+                         eta_gn0=gn0.radiated_fraction, eta_sine=pat.eta_ground, eta_nec_currents=eta_nec_cur,
+                         gain_nec=float(gn2.gain_dbi[i, j]), takeoff_nec=float(90 - gn2.theta_deg[i]),
+                         gain_sine=pat.max_gain_dbi, takeoff_sine=pat.takeoff_deg)
+                rows.append(r)
+                print(f"{o:10s} {h:5.2f} {g:9s} | {r['eta_gn2']:.4f} {r['eta_gn0']:.4f} | {r['eta_sine']:.4f} "
+                      f"{r['eta_nec_currents']:.4f} | {r['gain_nec']:.2f} @ {r['takeoff_nec']:.1f} | "
+                      f"{r['gain_sine']:.2f} @ {r['takeoff_sine']:.2f}", flush=True)
+    if len(argv) > 2:
+        record = dict(script="bench/ground_loss.py dipoles", date=datetime.datetime.now(datetime.timezone.utc)
+                      .isoformat(timespec="seconds"), pynec="PyNEC 2.4.6 (pip)", rows=rows)
+        Path(argv[2]).write_text(json.dumps(record, indent=1))
+
+
 def main(argv):
+    if len(argv) > 1 and argv[1] == "dipoles":
+        return dipoles(argv)
     rows = []
     print(f"{'design':22s} | NEC-2 GN 2: struct  ground  eta_g  (lossless, free-space balance)  "
           f"G dBi @ take-off | eta_g of NEC's currents | model line / sine: eta_g  G @ take-off")
