@@ -409,32 +409,55 @@ def powers(wires, f: float, ground_kind: str = "free-space", eps_r: float = 13.0
     return Powers(p_free, p_upper, p_field, p_refl_prop, p_evan, p_trans, p_upper / p_field)
 
 
+def _extent_below(geo, z_cut):
+    """The largest horizontal distance from the centre of any wire point at or below z_cut, m (the
+    wires' parts that the evanescent waves of a given kappa still see)."""
+    ext = 0.0
+    for p0, t, l in geo:
+        if abs(t[2]) < 1e-12:
+            ends = (0.0, l) if p0[2] <= z_cut else ()
+        else:
+            s_cut = (z_cut - p0[2]) / t[2]
+            lo, hi = (0.0, min(l, s_cut)) if t[2] > 0 else (max(0.0, s_cut), l)
+            ends = (lo, hi) if lo <= hi else ()
+        for s in ends:
+            ext = max(ext, float(np.hypot(p0[0] + s * t[0], p0[1] + s * t[1])))
+    return ext
+
+
 def _evanescent(wires, geo, k, eps_c, extent, z_min):
     """P_refl,evan, W: the evanescent part (k_rho > k) of the reflected field's power, kappa = |k_z|
     from 0 to 12/z_min (e^{-2 kappa z_min} < e^{-24}), split at kappa_b = 1.5 k |sqrt(eps_c - 1)|
     (past the waves that still propagate in the ground, k_rho < k |n|, where the Fresnel
-    coefficients turn) when that is shorter."""
+    coefficients turn) when that is shorter. The kappa nodes go in groups of 16, each with its own
+    azimuth count, from the horizontal extent of the wires' parts within 16/kappa of the lowest
+    point (higher parts are weighted by e^{-2 kappa dz} < e^{-32} there)."""
     kappa_max = 12.0 / z_min
     kappa_b = min(1.5 * k * abs(np.sqrt(eps_c - 1)), kappa_max / 2)
     kap = np.concatenate([kappa_b * _KAPPA[0], kappa_b + (kappa_max - kappa_b) * _KAPPA[0]])
     w_k = np.concatenate([kappa_b * _KAPPA[1], (kappa_max - kappa_b) * _KAPPA[1]])
-    k_rho = np.sqrt(k * k + kap * kap)
-    n_az = _n_azimuth(float(k_rho[-1]), extent)
-    al = 2 * np.pi * np.arange(n_az) / n_az
-    KR, AL = np.meshgrid(k_rho, al, indexing="ij")
-    KA = np.broadcast_to(kap[:, None], KR.shape)
-    ca, sa = np.cos(AL), np.sin(AL)
-    kvec = np.stack([KR * ca, KR * sa, 1j * KA], axis=-1)     # k^- = (k_rho rho_hat, -k_z), k_z = -j kappa
-    n_dn = _radiation_vector(wires, geo, kvec, k)
-    a_s = -n_dn[..., 0] * sa + n_dn[..., 1] * ca
-    a_p = (-1j * KA * (n_dn[..., 0] * ca + n_dn[..., 1] * sa) + KR * n_dn[..., 2]) / k
-    k_z = -1j * KA
-    k_z2 = np.sqrt(eps_c * k * k - KR * KR + 0j)
-    k_z2 = np.where(k_z2.imag > 0, -k_z2, k_z2)
-    r_te = (k_z - k_z2) / (k_z + k_z2)
-    r_tm = (eps_c * k_z - k_z2) / (eps_c * k_z + k_z2)
-    integrand = (r_te * np.abs(a_s) ** 2 + r_tm * np.abs(a_p) ** 2).imag
-    return float(-ETA0 * k / (8 * np.pi ** 2) * np.sum(w_k[:, None] * integrand) * (2 * np.pi / n_az))
+    total = 0.0
+    for g in range(0, len(kap), 16):
+        kap_g, w_g = kap[g:g + 16], w_k[g:g + 16]
+        ext = extent if kap_g[0] <= 0 else min(extent, _extent_below(geo, z_min + 16.0 / kap_g[0]))
+        k_rho = np.sqrt(k * k + kap_g * kap_g)
+        n_az = _n_azimuth(float(k_rho[-1]), ext)
+        al = 2 * np.pi * np.arange(n_az) / n_az
+        KR, AL = np.meshgrid(k_rho, al, indexing="ij")
+        KA = np.broadcast_to(kap_g[:, None], KR.shape)
+        ca, sa = np.cos(AL), np.sin(AL)
+        kvec = np.stack([KR * ca, KR * sa, 1j * KA], axis=-1)   # k^- = (k_rho rho_hat, -k_z), k_z = -j kappa
+        n_dn = _radiation_vector(wires, geo, kvec, k)
+        a_s = -n_dn[..., 0] * sa + n_dn[..., 1] * ca
+        a_p = (-1j * KA * (n_dn[..., 0] * ca + n_dn[..., 1] * sa) + KR * n_dn[..., 2]) / k
+        k_z = -1j * KA
+        k_z2 = np.sqrt(eps_c * k * k - KR * KR + 0j)
+        k_z2 = np.where(k_z2.imag > 0, -k_z2, k_z2)
+        r_te = (k_z - k_z2) / (k_z + k_z2)
+        r_tm = (eps_c * k_z - k_z2) / (eps_c * k_z + k_z2)
+        integrand = (r_te * np.abs(a_s) ** 2 + r_tm * np.abs(a_p) ** 2).imag
+        total += float(np.sum(w_g[:, None] * integrand)) * (2 * np.pi / n_az)
+    return -ETA0 * k / (8 * np.pi ** 2) * total
 
 
 def ground_efficiency(wires, f: float, ground_kind: str = "free-space", eps_r: float = 13.0,
