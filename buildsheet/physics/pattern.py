@@ -46,7 +46,10 @@ perfect ground R_TE = -1, R_TM = 1 for every k_rho and the sum is the image's mu
 image is weighted plane wave by plane wave, not by one coefficient, so the near field's coupling
 into the ground (the evanescent waves, k_rho > k, which carry the loss of a low antenna and which
 a single normal-incidence coefficient gets wrong) is included: it is the same physics as NEC-2's
-GN 2 (Sommerfeld-Norton) for the given currents. With the spectrum N^- = N(k_rho, -k_z) of the
+GN 2 (Sommerfeld-Norton) for the given currents. (A horizontal half-wave 0.1 lambda over average
+ground: eta_ground 0.380 here, 0.382 from NEC-2 GN 2; the image weighted by the one normal-incidence
+coefficient of radiator.ground_reflection gives 0.47, NEC-2's GN 0 0.44; from 0.25 lambda up all
+agree within 0.01. tests/test_pattern.py.) With the spectrum N^- = N(k_rho, -k_z) of the
 downward waves, s_hat = z_hat x rho_hat and p^- = (k_z rho_hat + k_rho z_hat)/k:
 
     P_field = P_free + P_refl,prop + P_refl,evan
