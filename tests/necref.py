@@ -27,6 +27,10 @@ Meshing (DESIGN.md §7, "Meshing NEC-2 for a two-wire stub", the corrected rule)
   model is judged by it: a plain shorted stub against line theory, refinement (growth, segment size,
   bar segments) moving a J-pole's feed impedance by under 1 ohm, the average gain of lossless wires,
   and the dipole of CHECK_VALUES §3d.
+
+Patterns (physics/pattern.py's checks): pattern() runs one frequency with an RP card and returns NEC's
+power-gain grid, radiated fraction and segment currents with their lengths; dipole_wires() builds a
+horizontal or vertical centre-fed dipole for it.
 """
 
 from __future__ import annotations
