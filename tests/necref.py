@@ -27,6 +27,10 @@ Meshing (DESIGN.md §7, "Meshing NEC-2 for a two-wire stub", the corrected rule)
   model is judged by it: a plain shorted stub against line theory, refinement (growth, segment size,
   bar segments) moving a J-pole's feed impedance by under 1 ohm, the average gain of lossless wires,
   and the dipole of CHECK_VALUES §3d.
+
+Patterns (physics/pattern.py's checks): pattern() runs one frequency with an RP card and returns NEC's
+power-gain grid, radiated fraction and segment currents with their lengths; dipole_wires() builds a
+horizontal or vertical centre-fed dipole for it.
 """
 
 from __future__ import annotations
@@ -359,3 +363,85 @@ def common_mode_ratio(res: NecResult, index: int = 0) -> float:
 def with_dims(d: JPoleDims, **changes) -> JPoleDims:
     """A copy of d with some fields changed (for sweeps in studies)."""
     return replace(d, **changes)
+
+
+# ---- Radiation patterns (for physics/pattern.py's checks) ----
+
+@dataclass(frozen=True)
+class NecPattern:
+    """One NEC-2 run with an RP card over the upper hemisphere (over ground) or the sphere (free space).
+
+    theta_deg, phi_deg: the grid (theta from the zenith); gain_dbi: NEC's power gain, dBi, relative to
+    the power put in, shape (len(theta_deg), len(phi_deg)) (-999 where NEC gives no field);
+    radiated_fraction: NEC's average power gain times the solid angle it averaged over, over 4 pi
+    (the space wave's power over the power put in); z_in: input impedance, ohm; currents: as
+    NecResult.currents for this frequency, with the segment lengths: tag -> (positions from p1 (m),
+    segment lengths (m), currents (A, for the 1 V drive))."""
+    theta_deg: np.ndarray
+    phi_deg: np.ndarray
+    gain_dbi: np.ndarray
+    radiated_fraction: float
+    z_in: complex
+    currents: dict
+
+
+def dipole_wires(length: float, diameter: float, height: float, orientation: str = "horizontal",
+                 nseg: int = 51) -> tuple[Wire, ...]:
+    """A straight dipole of `length` (m) with its centre at `height` (m): along x (horizontal) or z
+    (vertical); tag 1, source on the middle segment."""
+    if orientation == "horizontal":
+        p1, p2 = (-length / 2, 0.0, height), (length / 2, 0.0, height)
+    elif orientation == "vertical":
+        p1, p2 = (0.0, 0.0, height - length / 2), (0.0, 0.0, height + length / 2)
+    else:
+        raise ValueError(f"orientation {orientation!r}: expected horizontal or vertical")
+    return (Wire(1, nseg, p1, p2, diameter / 2),)
+
+
+def pattern(wires: tuple[Wire, ...], f: float, ground: Ground, source: tuple[int, int],
+            sigma: dict[int, float | None] | None = None, theta_step: float = 1.0,
+            phi_step: float = 5.0, extended_kernel: bool | None = None) -> NecPattern:
+    """NEC-2 run of `wires` at f (Hz) with a 1 V source on (tag, segment), LD 5 conductivity per tag,
+    the ground as in run(), and an RP card of power gain over theta 0..90 (0..180 in free space) by
+    theta_step and phi 0..360 by phi_step degrees, averaged (XNDA = 0001: NEC-2 user's guide, RP)."""
+    ek = needs_extended_kernel(wires) if extended_kernel is None else extended_kernel
+    ctx = PyNEC.nec_context()
+    geo = ctx.get_geometry()
+    for w in wires:
+        if w.seglens is None:
+            geo.wire(w.tag, w.nseg, *w.p1, *w.p2, w.radius, 1.0, 1.0)
+            continue
+        p1, p2 = np.asarray(w.p1), np.asarray(w.p2)
+        u = (p2 - p1) / np.linalg.norm(p2 - p1)
+        ends = np.concatenate([[0.0], np.cumsum(w.seglens)])
+        ends[-1] = np.linalg.norm(p2 - p1)
+        for e0, e1 in zip(ends[:-1], ends[1:]):
+            geo.wire(w.tag, 1, *(p1 + e0 * u), *(p1 + e1 * u), w.radius, 1.0, 1.0)
+    ctx.geometry_complete(1 if ground.kind != "free-space" else 0)
+    if ek:
+        ctx.set_extended_thin_wire_kernel(True)
+    for tag, sg in (sigma or {}).items():
+        if sg is not None:
+            ctx.ld_card(5, tag, 0, 0, sg, 0.0, 0.0)
+    if ground.kind == "free-space":
+        ctx.gn_card(-1, 0, 0, 0, 0, 0, 0, 0)
+    elif ground.kind == "perfect":
+        ctx.gn_card(1, 0, 0, 0, 0, 0, 0, 0)
+    else:
+        ctx.gn_card(2 if ground.method == "sommerfeld" else 0, 0, ground.eps_r, ground.sigma, 0, 0, 0, 0)
+    ctx.ex_card(0, source[0], source[1], 0, 1.0, 0.0, 0, 0, 0, 0)
+    ctx.fr_card(0, 1, f / 1e6, 0.0)
+    top = 180.0 if ground.kind == "free-space" else 90.0
+    n_th = int(round(top / theta_step)) + 1
+    n_ph = int(round(360.0 / phi_step)) + 1
+    ctx.rp_card(0, n_th, n_ph, 0, 0, 0, 1, 0.0, 0.0, theta_step, phi_step, 0.0, 0.0)
+    rp = ctx.get_radiation_pattern(0)
+    gain = np.asarray(rp.get_gain(), dtype=float).reshape(n_th, n_ph)
+    frac = rp.get_average_power_gain() * rp.get_average_power_solid_angle() / 4.0
+    z_in = ctx.get_input_parameters(0).get_impedance()[0]
+    sc = ctx.get_structure_currents(0)
+    cur = _currents(sc, wires, C0 / f)
+    cur = {t: (pos, np.asarray(next(w for w in wires if w.tag == t).segment_lengths()), i)
+           for t, (pos, i) in cur.items()}
+    return NecPattern(np.asarray(rp.get_theta_angles(), dtype=float),
+                      np.asarray(rp.get_phi_angles(), dtype=float), gain, float(frac), complex(z_in), cur)
