@@ -7,6 +7,9 @@ the model's global constants (buildsheet.physics.jpole.CAL). Prints figures; not
   python3 bench/nec_study.py fit DATA.json...    least-squares fit of CAL on the data, with the
                                                  held-out half reported separately
   python3 bench/nec_study.py speed               model solve time against a NEC sweep
+  python3 bench/nec_study.py accept OUT.json N START
+                                                 acceptance on N unseen random designs (seeds START..)
+  python3 bench/nec_study.py report OUT.json     the acceptance figures of a stored run
 
 Data: for each random design, NEC-2 (tests/necref.py, meshed per DESIGN.md §7) is run at the
 dimensions where NEC itself matches 50 ohm for the model's radiator, and around them (frequency,
@@ -145,8 +148,9 @@ def collect_one(seed: int):
         (S1, T1), z = nec_match(case, L, S, T)
         if abs(z - 50) > 1.0:
             raise ValueError(f"NEC found no match near the model's dimensions (z {z:.1f})")
-    except (ValueError, np.linalg.LinAlgError) as exc:
-        return dict(seed=seed, error=str(exc))
+    except (ValueError, np.linalg.LinAlgError, RuntimeError) as exc:
+        # RuntimeError: PyNEC refusing a geometry (a search that wandered to a degenerate stub)
+        return dict(seed=seed, error=f"{type(exc).__name__}: {exc}")
     wide = case.pipe or case.f0 > 100e6
     df = np.array([-0.04, -0.02, 0.0, 0.02, 0.04]) if wide else np.array([-0.02, -0.01, 0.0, 0.01, 0.02])
     pts = [(L, S1, T1, case.f0 * (1 + d)) for d in df]
@@ -189,9 +193,19 @@ def provenance(**extra) -> dict:
                 date=datetime.date.today().isoformat(), **extra)
 
 
-def collect(out: str, n: int, start: int = 0):
+def _pool_map(fn, seeds):
+    """fn over seeds in 2 processes, in seed order, with a progress line every 20 designs."""
+    rows = []
     with Pool(2) as pool:
-        rows = pool.map(collect_one, range(start, start + n))
+        for i, r in enumerate(pool.imap(fn, seeds, chunksize=2)):
+            rows.append(r)
+            if (i + 1) % 20 == 0:
+                print(f"  {i + 1} of {len(seeds)}", flush=True)
+    return rows
+
+
+def collect(out: str, n: int, start: int = 0):
+    rows = _pool_map(collect_one, list(range(start, start + n)))
     meta = provenance(command=f"collect {out} {n} {start}", seeds=[start, start + n - 1])
     Path(out).write_text(json.dumps(dict(meta=meta, rows=rows)))
     print(f"{sum('points' in r for r in rows)} designs written to {out}")
@@ -298,6 +312,64 @@ def at_match_error(cal, r):
     return abs((z - 50) / (z + 50))
 
 
+def accept_one(seed: int):
+    """One unseen design: the model's dimensions in NEC-2; NEC SWR at f0, both 2:1 bands."""
+    case = random_case(seed)
+    try:
+        ant, L, S, T = acc.model_design(case)
+    except ValueError as exc:
+        return dict(seed=seed, case=_case_dict(case), refused=str(exc))
+    span = 0.05 if case.f0 > 100e6 else 0.03
+    f = case.f0 * np.linspace(1 - span, 1 + span, 61)
+    f_all = np.concatenate([[case.f0], f])
+    z = necref.jpole_model(case.nec_dims(L, S, T), f_all).z_feed
+    swr_nec = acc.swr(z, 50.0)
+    f_fine = case.f0 * np.linspace(1 - span, 1 + span, 601)
+    swr_mod = acc.swr(jpole.feed_impedance(f_fine, ant, L, S, T), 50.0)
+    b_nec, b_mod = acc.band_2to1(f, swr_nec[1:]), acc.band_2to1(f_fine, swr_mod)
+    edge = None
+    if b_nec and b_mod:
+        edge = max(abs(b_nec[0] - b_mod[0]), abs(b_nec[1] - b_mod[1])) / (b_nec[1] - b_nec[0])
+    return dict(seed=seed, case=_case_dict(case), L=L, S=S, T=T, z_nec=[z[0].real, z[0].imag],
+                swr=float(swr_nec[0]), band_nec=b_nec, band_model=b_mod,
+                overlap=acc.overlap(b_nec, b_mod), edge_error=edge)
+
+
+def accept(out: str, n: int, start: int):
+    """Acceptance on unseen random designs (seeds START.. never used in a fit): NEC SWR at the design
+    frequency with the model's dimensions, 2:1 overlap and edge error (fraction of NEC's 2:1 width)."""
+    rows = _pool_map(accept_one, list(range(start, start + n)))
+    meta = provenance(command=f"accept {out} {n} {start}", seeds=[start, start + n - 1], cal=asdict(jpole.CAL))
+    Path(out).write_text(json.dumps(dict(meta=meta, rows=rows)))
+    report(rows)
+
+
+def report(rows):
+    ok = [r for r in rows if "swr" in r]
+    refused = [r for r in rows if "refused" in r]
+    print(f"{len(ok)} designs solved, {len(refused)} refused by the model")
+    for r in refused:
+        print(f"  refused seed {r['seed']}: {r['refused'][:120]}")
+    if not ok:
+        return
+    swr_ = np.array([r["swr"] for r in ok])
+    ov = np.array([r["overlap"] for r in ok])
+    ed = np.array([r["edge_error"] for r in ok if r["edge_error"] is not None])
+    print(f"NEC SWR at f0: median {np.median(swr_):.3f}, 90 % {np.quantile(swr_, 0.9):.3f}, max {swr_.max():.3f}; "
+          f"over 1.2: {int(np.sum(swr_ > 1.2))}, over 1.5: {int(np.sum(swr_ > 1.5))}")
+    print(f"2:1 overlap: median {np.median(ov):.3f}, 10 % {np.quantile(ov, 0.1):.3f}, min {ov.min():.3f}")
+    if len(ed):
+        print(f"2:1 edge error / NEC width: median {np.median(ed):.3f}, 90 % {np.quantile(ed, 0.9):.3f}, "
+              f"max {ed.max():.3f}; within 10 %: {int(np.sum(ed <= 0.1))} of {len(ed)}")
+    worst = sorted(ok, key=lambda r: -r["swr"])[:8]
+    for r in worst:
+        c = r["case"]
+        print(f"  seed {r['seed']}: {c['f0']/1e6:.2f} MHz {c['orientation']} h {c['height']:.1f} m "
+              f"D {c['spacing']*1e3:.1f} mm D/d {c['spacing']/c['stub_d']:.1f} wire {c['wire_d']*1e3:.2f} mm "
+              f"{c['ground'].get('ground_kind')} slope {np.degrees(c['slope']):.0f}: SWR {r['swr']:.3f} "
+              f"overlap {r['overlap']:.2f}")
+
+
 def table(cases=acc.CASES):
     for case in cases:
         t = time.perf_counter()
@@ -341,5 +413,9 @@ if __name__ == "__main__":
         fit(sys.argv[2:])
     elif cmd == "speed":
         speed()
+    elif cmd == "accept":
+        accept(sys.argv[2], int(sys.argv[3]), int(sys.argv[4]))
+    elif cmd == "report":
+        report(load_rows(sys.argv[2]))
     else:
         sys.exit(__doc__)

@@ -191,8 +191,11 @@ def jpole_wires(d: JPoleDims, f_mesh: float, mesh: Mesh = MESH) -> tuple[Wire, .
     low = graded(d.tap, h_bar, h_bar, h_stub, mesh.growth)
     # the open top is a junction at the scale of the spacing too: the stub's top and the radiator's
     # start are graded from the bar's segment length as well
-    high = graded(d.stub - d.tap, h_bar, h_bar, h_stub, mesh.growth)
-    rad = graded(d.radiator, max(h_bar, 3.0 * a_w), None, h_rad, mesh.growth)
+    # (a segment meeting the radiator is kept at least 3 radiator radii long: NEC-2 refuses a
+    # shorter one at a junction with a much thicker wire)
+    h_top = max(h_bar, 3.0 * a_w)
+    high = graded(d.stub - d.tap, h_bar, h_top, h_stub, mesh.growth)
+    rad = graded(d.radiator, h_top, None, h_rad, mesh.growth)
 
     if d.orientation == "vertical":
         z_short, z_tap, z_top = d.height, d.height + d.tap, d.height + d.stub
