@@ -102,34 +102,44 @@ def nec_z(case, L, S, T, f):
     return necref.jpole_model(case.nec_dims(L, S, T), np.atleast_1d(f)).z_feed
 
 
-def nec_match(case, L, S, T):
-    """(S, T) where NEC sees 50 + j0 for radiator L: coarse scan, then damped Newton."""
-    best = None
-    for s_ in S * np.array([0.94, 0.97, 0.99, 1.01, 1.03, 1.06]):
-        for t_ in T * np.array([0.6, 1.0, 1.6, 2.4]):
-            if not 0 < t_ < 0.8 * s_:
-                continue
-            z = nec_z(case, L, s_, t_, case.f0)[0]
-            e = abs((z - 50) / (z + 50))
-            if best is None or e < best[0]:
-                best = (e, s_, t_)
-    x = np.array(best[1:])
-    for _ in range(15):
-        z = nec_z(case, L, *x, case.f0)[0]
-        r = np.array([z.real - 50, z.imag])
+def nec_match(case, L, S, T, scan=False):
+    """(S, T) where NEC sees 50 + j0 for radiator L, from the model's (S, T): Newton steps on a
+    finite-difference Jacobian, then Broyden's rank-one updates (one NEC run a step); scan: first
+    a coarse scan around (S, T) (when the model found no match of its own to start from)."""
+    def resid(x):
+        z = nec_z(case, L, x[0], x[1], case.f0)[0]
+        return np.array([z.real - 50, z.imag]), z
+    x = np.array([S, T], dtype=float)
+    if scan:
+        best = None
+        for s_ in S * np.array([0.94, 0.97, 0.99, 1.01, 1.03, 1.06]):
+            for t_ in T * np.array([0.6, 1.0, 1.6, 2.4]):
+                if 0 < t_ < 0.8 * s_:
+                    r, _ = resid([s_, t_])
+                    if best is None or np.hypot(*r) < best[0]:
+                        best = (np.hypot(*r), s_, t_)
+        x = np.array(best[1:])
+    r, z = resid(x)
+    jac = None
+    for _ in range(20):
         if np.max(np.abs(r)) < 0.05:
             break
-        jac = np.zeros((2, 2))
-        for j in range(2):
-            h = 2e-4 * x[0]
-            xp = x.copy()
-            xp[j] += h
-            zp = nec_z(case, L, *xp, case.f0)[0]
-            jac[:, j] = [(zp.real - z.real) / h, (zp.imag - z.imag) / h]
+        if jac is None:
+            jac = np.zeros((2, 2))
+            for j in range(2):
+                h = 2e-4 * x[0]
+                xp = x.copy()
+                xp[j] += h
+                jac[:, j] = (resid(xp)[0] - r) / h
         dx = np.linalg.solve(jac, -r)
         lim = np.array([0.02 * x[0], 0.3 * x[1]])
-        x = x + np.clip(dx, -lim, lim)
-        x[1] = max(x[1], 0.2 * best[2])
+        dx = np.clip(dx, -lim, lim)
+        x_new = x + dx
+        x_new[1] = max(x_new[1], 0.2 * x[1])
+        dx = x_new - x
+        r_new, z = resid(x_new)
+        jac = jac + np.outer(r_new - r - jac @ dx, dx) / (dx @ dx)
+        x, r = x_new, r_new
     return x, z
 
 
@@ -138,14 +148,16 @@ def collect_one(seed: int):
     try:
         ant = case.antenna()
         L = jpole.resonant_radiator_length(case.f0, ant)
+        scan = False
         try:
             S, T = jpole.solve_match(case.f0, 50.0, ant, L)
         except ValueError:
+            scan = True
             # the model (as calibrated) finds no match: start NEC's own search from a quarter wave
             # and the textbook tap for a 3 kohm top, scanned widely by nec_match
             S = jpole._quarter_wave(ant.stub_line, case.f0)
             T = float(np.arcsin(np.sqrt(50.0 / 3000.0)) * S / (np.pi / 2))
-        (S1, T1), z = nec_match(case, L, S, T)
+        (S1, T1), z = nec_match(case, L, S, T, scan)
         if abs(z - 50) > 1.0:
             raise ValueError(f"NEC found no match near the model's dimensions (z {z:.1f})")
     except (ValueError, np.linalg.LinAlgError, RuntimeError) as exc:

@@ -527,10 +527,11 @@ class _Context:
         conductor and dielectric loss (physics/lines.py), so its two parts are given as one."""
         lost = self.s.power_lost_w
         wire = f"radiator wire {_watts(lost['radiator_wire'])}"
+        ground = f", ground {_watts(lost['ground'])}" if lost["ground"] > 0 else ""
         if self.d.stub.kind == "nominal":
-            return f"stub line {_watts(lost['stub_conductors'] + lost['stub_dielectric'])}, {wire}"
+            return f"stub line {_watts(lost['stub_conductors'] + lost['stub_dielectric'])}, {wire}{ground}"
         return (f"stub conductors {_watts(lost['stub_conductors'])}, stub dielectric "
-                f"{_watts(lost['stub_dielectric'])}, {wire}")
+                f"{_watts(lost['stub_dielectric'])}, {wire}{ground}")
 
     # -- 7. tuning procedure and log ---------------------------------------------------------
     def tuning_values(self) -> dict:

@@ -285,7 +285,9 @@ def _solve(design: Design) -> Solution:
 
     ch = choke_physics.design_coax_choke(f0, high, design.feed.choke_form_m,
                                          design.feed.coax_outer_diameter_m, f_band_low=low)
-    exposure = _exposure(design, state.efficiency, loss_db)
+    # exposure takes no credit for the power the ground absorbs (that happens in the ground's near
+    # field under the antenna, where people stand): the field's share of what reaches the tap
+    exposure = _exposure(design, state.p_field / state.p_delivered, loss_db)
     wrap = _wrap_allowance(design)
     line = ant.stub_line
     z0_line, gamma_line = line.z0_gamma(f0)
@@ -306,7 +308,8 @@ def _solve(design: Design) -> Solution:
         current_short_a_rms=state.i_short, efficiency=state.efficiency,
         power_radiated_w=state.p_radiated,
         power_lost_w={"stub_conductors": state.p_stub_conductor, "stub_dielectric": state.p_stub_dielectric,
-                      "radiator_wire": state.p_wire},
+                      "radiator_wire": state.p_wire, "ground": state.p_ground,
+                      "coax": design.power.transmitter_w - p_tap},
         sensitivity=sens._asdict(),
         choke=ch, exposure=exposure,
     )

@@ -617,23 +617,31 @@ class State:
 
     v_open_end: across the stub conductors at the open top; v_radiator_end: at the radiator's far end
     (the arm voltage of the line model); i_short: differential current through the short;
-    p_delivered: power into the feed; p_radiated: each arm's radiation resistance per metre times
-    |I|^2, integrated along the radiator and the stub's common mode; p_stub_conductor: the stub's
-    differential line plus the common-mode current in the stub conductors; p_stub_dielectric: the
-    line's shunt conductance; p_common_mode: the part of p_stub_conductor due to the common-mode
-    current; p_wire: radiator wire; efficiency = p_radiated / p_delivered;
-    balance_error = |delivered - radiated - losses| / delivered, every term integrated separately
+    p_delivered: power into the feed; p_field: each arm's radiation resistance per metre times
+    |I|^2, integrated along the radiator and the stub's common mode: the power the currents give
+    to the field; p_radiated: the part of it that leaves as the space wave, p_field times the
+    ground efficiency of the same currents (pattern.ground_efficiency: the far field over the
+    Fresnel ground against the power into the field with Sommerfeld's reflected spectrum); p_ground:
+    the rest, absorbed in real ground (0 in free space and over perfect ground);
+    p_stub_conductor: the stub's differential line plus the common-mode current in the stub
+    conductors; p_stub_dielectric: the line's shunt conductance; p_common_mode: the part of
+    p_stub_conductor due to the common-mode current; p_wire: radiator wire;
+    efficiency = p_radiated / p_delivered; ground_efficiency = p_radiated / p_field;
+    balance_error = |delivered - field - losses| / delivered, every term integrated separately
     from the currents, so this is a real check of the solution."""
     v_open_end: float
     v_radiator_end: float
     i_short: float
     p_delivered: float
+    p_field: float
     p_radiated: float
+    p_ground: float
     p_stub_conductor: float
     p_stub_dielectric: float
     p_common_mode: float
     p_wire: float
     efficiency: float
+    ground_efficiency: float
     balance_error: float
 
 
@@ -667,15 +675,44 @@ def state_at(f0: float, ant: Antenna, radiator_length: float, stub_length: float
         p_arm.append((arm.r_rad * i2, arm.r_loss * i2, v_end))
     (rad_r, loss_r, v_far), (rad_c, loss_c, _) = p_arm
     p_in = (v_tap * i_in.conjugate()).real
-    p_rad = rad_r + rad_c
+    p_field = rad_r + rad_c
     p_cond = pr_up + pr_low + loss_c
     p_diel = pg_up + pg_low
     p_wire = loss_r
-    balance = abs(p_in - (p_rad + p_cond + p_diel + p_wire)) / p_in
+    balance = abs(p_in - (p_field + p_cond + p_diel + p_wire)) / p_in
+    eta_g = ground_efficiency(prep, L, S, i_rad)
+    p_rad = p_field * eta_g
     return State(v_open_end=abs(v_top), v_radiator_end=abs(v_far), i_short=abs(i_short),
-                 p_delivered=p_in, p_radiated=p_rad, p_stub_conductor=p_cond,
-                 p_stub_dielectric=p_diel, p_common_mode=loss_c, p_wire=p_wire,
-                 efficiency=p_rad / p_in, balance_error=balance)
+                 p_delivered=p_in, p_field=p_field, p_radiated=p_rad, p_ground=p_field - p_rad,
+                 p_stub_conductor=p_cond, p_stub_dielectric=p_diel, p_common_mode=loss_c,
+                 p_wire=p_wire, efficiency=p_rad / p_in, ground_efficiency=eta_g,
+                 balance_error=balance)
+
+
+def current_wires(prep: _Prepared, L: float, S: float, i_rad: complex) -> list:
+    """The antenna's two radiating currents as pattern.Wire: the radiator from the junction to its far
+    end and the stub's common mode from the open top down to the short, each the standing wave of
+    its arm as an open-ended lossy line (I_rad into the radiator; the common mode flows up into it).
+    The arms are the radiator's own (no junction term): c_j D describes what the stub's top sees,
+    not the current on the wire, and with it the common mode's phase against the radiator comes
+    out 33-74 deg where NEC-2 shows about 95 (the own arm: about 87; bench/ground_loss.py)."""
+    from buildsheet.physics import pattern
+    own_r, own_c = prep.arms(L, S, junction=False)
+    p0, t = _radiator_geometry(prep.ant, L, S)
+    top = p0 - np.array([prep.ant.spacing / 2, 0.0, 0.0])
+    return [pattern.open_line_wire(p0, t, L, i_rad, own_r.gamma, own_r.l_e),
+            pattern.open_line_wire(top, (0.0, 0.0, -1.0), S, -i_rad, own_c.gamma, own_c.l_e)]
+
+
+def ground_efficiency(prep: _Prepared, L: float, S: float, i_rad: complex = 1.0) -> float:
+    """Share of the power the currents give the field that leaves as the space wave (1 in free space
+    and over perfect ground): pattern.ground_efficiency of current_wires (a scalar prep)."""
+    if prep.ant.ground_kind != "real":
+        return 1.0
+    from buildsheet.physics import pattern
+    ant = prep.ant
+    return float(pattern.ground_efficiency(current_wires(prep, L, S, i_rad), prep.f, ant.ground_kind,
+                                           ant.ground_eps_r, ant.ground_sigma))
 
 
 class Sensitivities(NamedTuple):
