@@ -252,17 +252,26 @@ def test_choke_no_coil_works_gives_no_impedance(band, form, cable):
 
 
 def test_choke_best_reachable_is_the_best_clearing_margin():
-    # 10 m band on a 150 mm form with RG-213: no N reaches 1 kohm with the margin; the best that clears it
-    f_low, f_design, f_high = 28.0e6, 28.5e6, 29.7e6
-    d = design_coax_choke(f_design, f_high, 150e-3, RG213_OD, f_band_low=f_low)
+    # 6 m band on a 150 mm form with RG-213: no N reaches 1 kohm with the margin; the best that clears it
+    f_low, f_design, f_high = 50.0e6, 50.1e6, 54.0e6
+    form, cable = 150e-3, RG213_OD
+    d = design_coax_choke(f_design, f_high, form, cable, f_band_low=f_low)
     assert d.warning is not None and d.self_resonance_hz >= 1.2 * f_high
+    assert "smaller form" in d.warning and "sleeve" in d.warning
     f = np.linspace(f_low, f_high, 201)
     for n in range(1, 41):
-        fr = coil_self_resonance(150e-3 + RG213_OD, RG213_OD, RG213_OD, n)
+        fr = coil_self_resonance(form + cable, cable, cable, n)
         if fr >= 1.2 * f_high:
-            L = coil_inductance(150e-3 + RG213_OD, RG213_OD, RG213_OD, n)
-            z = np.abs(coil_impedance_line(f, L, fr, shield_resistance(f, 150e-3 + RG213_OD, RG213_OD, n)))
+            L = coil_inductance(form + cable, cable, cable, n)
+            z = np.abs(coil_impedance_line(f, L, fr, shield_resistance(f, form + cable, cable, n)))
             assert z.min() <= d.impedance_low_edge_ohm * (1 + 1e-9)
+
+
+def test_choke_short_of_turns_advises_a_larger_form():
+    # 160 m on a 110 mm form with RG-213: 40 turns (the most tried) stay short of 1 kohm
+    d = design_coax_choke(1.9e6, 2.0e6, 110e-3, RG213_OD, f_band_low=1.8e6)
+    assert d.turns == 40 and d.impedance_low_edge_ohm < 1000
+    assert "larger form" in d.warning and "smaller form" not in d.warning and "quarter-wave" not in d.warning
 
 
 def test_choke_outside_the_checked_forms_gives_no_resonance_or_impedance():
@@ -296,4 +305,114 @@ def test_choke_json_keys(name):
         assert c["warning"] and "Do not wind" in c["warning"]
     else:
         assert c["impedance_low_edge_ohm"] <= c["impedance_ohm"]
-#@@NEC@@
+
+# --- NEC-2 reference: the harness proven first ------------------------------------------------------
+#
+# necref.coil_model: the coax's outside as a wire helix of radius OD/2, pitch 1.01 OD (touching
+# turns trip PyNEC's connection check), driven between its ends through leads 8 radii out; see its
+# docstring. Runs here take 0.01-1 s each.
+
+PITCH = 1.01                                              # x OD, as in the NEC data of the fit
+
+
+@pytest.mark.parametrize("d_mean, radius", [(0.1161, 3.05e-3), (0.3, 1e-3)])
+def test_nec_ring_matches_loop_formula(d_mean, radius):
+    # a flat ring fed in one segment, circumference lam/100: NEC-2 against mu0 R (ln(8R/a) - 2)
+    # (Rosa/Grover, from memory); at 24-48 segments NEC moved by under 0.5 % (measured), so 1 %
+    f = necref.C0 / (np.pi * d_mean) / 100
+    z = necref.coil_model(1, d_mean, radius, 0.0, [f], per_turn=36).z_feed[0]
+    assert z.imag / (2 * np.pi * f) == pytest.approx(loop_formula(d_mean, radius), rel=1e-2)
+
+
+def test_nec_air_coil_matches_wheeler_and_nagaoka():
+    # 8 turns of 1 mm wire, 50 mm across, pitch 3 mm (l/D = 0.48: Wheeler's l >= 0.4 D holds; the
+    # round-wire correction A + B nearly cancels at this pitch, so Wheeler, Nagaoka and Nagaoka less
+    # Rosa agree within 0.5 %). NEC-2 at wire length lam/40, plus its leads (`coil_lead_loop`, about
+    # 21 nH). NEC's helix is not mesh-converged below a few %: 20-79 segments a turn gave
+    # -3.2 ... +1.6 % about Wheeler (measured), so 3 % at 26 and 39 segments a turn.
+    n, d, a, p = 8, 0.05, 0.5e-3, 3e-3
+    f = necref.C0 / (n * np.pi * d) / 40
+    lead = necref.coil_lead_loop(n, d, a, p, f, 36).imag / (2 * np.pi * f)
+    for per_turn in (26, 39):
+        L = necref.coil_model(n, d, a, p, [f], per_turn=per_turn).z_feed[0].imag / (2 * np.pi * f) - lead
+        assert L == pytest.approx(wheeler_inductance(d, n * p, n), rel=3e-2)
+        assert L == pytest.approx(current_sheet_inductance(d, n * p, n), rel=3e-2)
+        assert L == pytest.approx(coil_inductance(d, p, 2 * a, n), rel=3e-2)
+
+
+def test_nec_data_of_the_fit_reproduce():
+    # two coils of tests/data/choke_nec_srf.json run again with the same settings (0.3 % bisection)
+    data = json.loads((Path(__file__).parent / "data" / "choke_nec_srf.json").read_text())
+    for cab, form, n in (("RG-8X", 0.11, 6), ("RG-213", 0.06, 3)):
+        r = next(c for c in data["coils"] if c["cab"] == cab and c["form"] == form and c["N"] == n)
+        fw = necref.C0 / (2 * n * np.pi * r["D"])
+        fr = necref.coil_resonance(n, r["D"], r["od"] / 2, r["p"], 0.35 * fw, 1.2 * fw, per_turn=r["n"],
+                                   points=12, rtol=3e-3)
+        assert fr == pytest.approx(r["fr"], rel=3e-3)
+
+
+def test_srf_fit_holds_on_the_held_out_nec_data():
+    # the fit's own claim (choke.py, _C_END): held-out coils (N = 3, 6, 13, 25, segments under 4.6
+    # radii) within 1.8 %, fitted ones within 3.1 %; one turn within 0.13 %
+    data = json.loads((Path(__file__).parent / "data" / "choke_nec_srf.json").read_text())
+    held, fitted, one = [], [], []
+    for c in data["coils"]:
+        if c["fr"] is None or np.pi * c["D"] / c["n"] / (c["od"] / 2) >= 4.6:
+            continue
+        err = coil_self_resonance(c["D"], c["p"], c["od"], c["N"]) / c["fr"] - 1
+        (one if c["N"] == 1 else held if c["N"] in (3, 6, 13, 25) else fitted).append(abs(err))
+    assert len(held) >= 45 and len(fitted) >= 50 and len(one) >= 10
+    assert max(held) < 0.019 and np.median(held) < 0.01
+    assert max(fitted) < 0.032
+    assert max(one) < 0.0015
+
+
+# --- the model against NEC-2 on chokes the solver designs -----------------------------------------------
+#
+# Tolerances from what the reference can deliver: NEC-2's inductance of close-wound turns converges
+# from below and slowly (9 turns of RG-58 on 110 mm: 9804/9878/9944/9996 nH at segments of 6/4/3/2.5
+# radii, against 10313 nH for Nagaoka less Rosa plus the leads; measured), so at 4 radii the model's
+# L reads 3-8 % above NEC's; the SRF fit holds within 3.1 % on its data; |Z| carries the L offset plus
+# about 3x the SRF error near 0.8 f_srf: 8 %.
+
+NEC_CHOKES = [  # cable OD, form, (low edge, f0, top edge), turns the sizing gives
+    (RG58_OD, 110e-3, (14.0e6, 14.2e6, 14.35e6), 9),
+    (RG213_OD, 110e-3, (14.0e6, 14.2e6, 14.35e6), 11),
+    (RG213_OD, 150e-3, (7.0e6, 7.1e6, 7.2e6), 13),
+    (RG8X_OD, 110e-3, (28.0e6, 28.5e6, 29.7e6), 5),
+    (RG58_OD, 110e-3, (50.0e6, 50.1e6, 54.0e6), 3),
+    (RG8X_OD, 110e-3, (144e6, 146e6, 148e6), 1),
+]
+
+
+@pytest.mark.parametrize("cable, form, band, turns", NEC_CHOKES)
+def test_choke_against_nec_helix(cable, form, band, turns):
+    f_low, f0, f_high = band
+    d = design_coax_choke(f0, f_high, form, cable, f_band_low=f_low)
+    assert d.turns == turns
+    dm, a, p = form + cable, cable / 2, PITCH * cable
+    n = necref.coil_per_turn(dm, a, f_high)
+    fr = necref.coil_resonance(turns, dm, a, p, 0.7 * d.self_resonance_hz, 1.4 * d.self_resonance_hz,
+                               per_turn=n, points=8, rtol=2e-3)
+    assert d.self_resonance_hz == pytest.approx(fr, rel=0.031)
+    z = necref.coil_model(turns, dm, a, p, [f_low, f0, 0.25 * fr], sigma=SIGMA_COPPER, per_turn=n).z_feed
+    x = np.pi / 8                                         # L from X at 0.25 f_srf, line shape removed
+    L_nec = z[2].imag / (2 * np.pi * 0.25 * fr) * x / np.tan(x)
+    assert 1.0 <= d.inductance_h / L_nec <= 1.08
+    assert d.impedance_low_edge_ohm == pytest.approx(abs(z[0]), rel=0.08)
+    assert d.impedance_ohm == pytest.approx(abs(z[1]), rel=0.08)
+
+
+def test_one_turn_against_loop_formula_and_nec():
+    # the VHF path: one turn of RG-8X on 110 mm. L is the loop formula (221 nH, not the current
+    # sheet's 280 nH); NEC-2's one-turn helix with its leads resonates at 289 MHz, where the model
+    # says so within 1 % (one-turn fit within 0.13 % on its data), not Medhurst's 79 MHz
+    d = design_coax_choke(146e6, 148e6, 110e-3, RG8X_OD, f_band_low=144e6)
+    assert d.turns == 1
+    assert d.inductance_h == pytest.approx(loop_formula(0.1161, 3.05e-3), rel=2e-3)
+    assert current_sheet_inductance(0.1161, RG8X_OD, 1) == pytest.approx(280e-9, rel=5e-3)
+    fr = necref.coil_resonance(1, 0.1161, 3.05e-3, PITCH * RG8X_OD, 150e6, 500e6, points=12, rtol=2e-3)
+    assert d.self_resonance_hz == pytest.approx(fr, rel=1e-2)
+    medhurst = 1 / (2 * np.pi * np.sqrt(current_sheet_inductance(0.1161, RG8X_OD, 1)
+                                        * self_capacitance(0.1161, RG8X_OD)))
+    assert medhurst < 0.3 * fr

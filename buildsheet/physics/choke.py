@@ -151,32 +151,36 @@ def coil_impedance(f, L, C, R=0.0):
 # --- the coiled coax's self-resonance, fitted to NEC-2 -------------------------------------------
 #
 # NEC-2 reference (tests/necref.py, coil_model): the shield's outside as a wire helix of the coax's
-# outer radius, pitch = OD (turns 1 % of the OD apart), driven between its ends, in free space, no
-# jacket. 116 coils (RG-58, RG-8X, RG-213 on 30-250 mm forms, 2-34 turns, l/D up to 4): fitted on
-# N = 2, 4, 9, 18, 34 (61 coils), held out N = 3, 6, 13, 25 (55 coils): the SRF's error median 0.5 %,
-# 90th percentile 1.2 %, worst 4.1 % (RG-213 on a 30 mm form). Checked beyond the fitted forms on
-# 37 coils on 15, 400 and 600 mm forms (1-8 turns): within 3.4 % for D/OD 4-82, up to 14 % at
-# D/OD 100-122, which is therefore outside the range. See `coil_self_resonance`.
-_C_END = (2.8227, 7.3260, 0.06234)       # C_eff / (eps0 D) = c0 + c1 (OD/D) + c2 (l/D)^2, N >= 2
-_LOOP_K = (0.4279, 0.09925)              # one turn: f_srf 2 pi D / c = k0 + k1 ln(D/OD)
-# The range of the NEC-2 fit: outside it the SRF (and so |Z|) is not supported.
-FIT_D_OVER_OD = (4.0, 82.0)
-FIT_L_OVER_D = 4.0
-FIT_TURNS = 40
+# outer radius, pitch = OD (turns 1 % of the OD apart), driven between its ends through short leads,
+# in free space, no jacket; segments about 4 radii long (coil_per_turn). 118 coils of RG-58, RG-8X
+# and RG-213 on 30-250 mm forms with 2-34 turns (l/D up to 3.7), their first self-resonance found
+# to 0.3 % (the data and the script that made them: tests/data/choke_nec_srf.json). Fitted on the
+# 55 coils with N = 2, 4, 9, 18, 34 whose segments are under 4.6 radii; held out the 49 with
+# N = 3, 6, 13, 25: SRF error median 0.9 %, 90th percentile 1.4 %, worst 1.8 % (train worst 3.1 %).
+# The 14 coils on 250 mm forms with thin cable (segments 5.5-6.7 radii, not in the fit) agree
+# within 2.5 % from 4 turns up and read 5-10 % lower in NEC at 2-3 turns, where NEC's coarser mesh
+# is the likelier culprit (its few-turn inductance there is 10 % short of the loop formula).
+_C_END = (2.7690, 5.8300, 0.59714, 1.0219)   # C_eff/(eps0 D) = c0 + c1 OD/D + c2 l/D + c3/N, N >= 2
+# One turn (15 coils, D/OD 3.9-52): within 0.13 %.
+_LOOP_K = (0.40185, 0.10228)                 # f_srf 2 pi D / c = k0 + k1 ln(D/OD)
+# The range of the NEC-2 data: outside it no SRF (and so no |Z|) is given.
+FIT_D_OVER_OD = (3.9, 52.0)
+FIT_L_OVER_D = 3.7
+FIT_TURNS = 40                               # the data reach 34 turns; 40 where l/D is inside
 
 
 def coil_self_resonance(d_mean, pitch, cable_od, turns):
     """First self-resonance of a close-wound coil of coax, free space, driven between its ends, Hz.
 
     N >= 2: the coil's inductance (`coil_inductance`) with an effective end-to-end capacitance
-    C_eff = eps0 D [c0 + c1 (OD/D) + c2 (l/D)^2]: about 3 eps0 D, nearly independent of N, the
-    capacitance of the coil's end turns across it; OD/D adds the close turns' share for thick cable
-    on a small form, (l/D)^2 the long coil's. The three constants are fitted to NEC-2 (see _C_END;
-    held-out SRF within 4 %). Medhurst's formula (`self_capacitance`) gives 2-3x this C: his coils
+    C_eff = eps0 D [c0 + c1 OD/D + c2 l/D + c3/N]: about 3 eps0 D, nearly independent of N, the
+    capacitance between the coil's end turns across it; OD/D adds the close turns' share for thick
+    cable on a small form, l/D a long coil's length, 1/N the larger share of neighbouring turns in a
+    coil of few. The four constants are fitted to NEC-2 (see _C_END; held-out SRF within 1.8 %). Medhurst's formula (`self_capacitance`) gives 2-3x this C: his coils
     stood on an earthed plane with one end grounded (from memory), not a coil floating in a feed line.
-    N = 1: a single turn resonates as a loop, near the frequency where its circumference is half a
-    wavelength (less for thicker wire): f_srf = c/(2 pi D) [k0 + k1 ln(D/OD)], fitted to NEC-2 on
-    15 one-turn coils (within 1 %), leads included.
+    N = 1: a single turn resonates as a loop, somewhat below the frequency where its circumference is
+    half a wavelength (the lower the thicker the wire): f_srf = c/(2 pi D) [k0 + k1 ln(D/OD)], fitted
+    to NEC-2 on 15 one-turn coils (within 0.13 %), with its leads.
     NEC-2's thin wire has no jacket dielectric and does not see the extra capacitance of touching
     turns, so a real coil of jacketed coax resonates lower than this (not modelled: NEC-2 cannot
     check it); the 20 % margin of the sizing is there for that too.
@@ -188,7 +192,7 @@ def coil_self_resonance(d_mean, pitch, cable_od, turns):
     if n == 1:
         return C0 / (2.0 * np.pi * d) * (_LOOP_K[0] + _LOOP_K[1] * np.log(d / cable_od))
     l_over_d = n * pitch / d
-    c_eff = epsilon_0 * d * (_C_END[0] + _C_END[1] * cable_od / d + _C_END[2] * l_over_d**2)
+    c_eff = epsilon_0 * d * (_C_END[0] + _C_END[1] * cable_od / d + _C_END[2] * l_over_d + _C_END[3] / n)
     return 1.0 / (2.0 * np.pi * np.sqrt(coil_inductance(d, pitch, cable_od, n) * c_eff))
 
 
@@ -264,7 +268,7 @@ def design_coax_choke(f_design, f_band_high, form_od, cable_od, z_target=1000.0,
     of this coax is no choke here: one turn is reported, its |Z| figures are None (the band is at or
     above its resonance, where these models do not hold) and `warning` says what to use instead.
     The figures are also None for a form outside the range the model was checked against NEC-2
-    (D/OD 4-82, l/D <= 4).
+    (D/OD 3.9-52, l/D <= 3.7).
 
     f_design: design frequency, Hz; f_band_high: top edge of the band, Hz; form_od: form outside
     diameter, m; cable_od: coax outside diameter, m; z_target: ohm; srf_margin: ratio >= 1;
@@ -300,11 +304,16 @@ def design_coax_choke(f_design, f_band_high, form_od, cable_od, z_target=1000.0,
     elif clears.any():
         i = int(np.argmax(np.where(clears, z_least, -np.inf)))
         n_txt = f"{i + 1} turn{'s' if i else ''}"
+        if i + 1 == len(turns):      # still short at the most turns tried: more inductance needed
+            advice = (f"Wind it on a larger form, or add ferrite sleeves over the coax at the tap "
+                      f"(common practice).")
+        else:                        # limited by the resonance: a smaller form lets more turns clear it
+            advice = ("Use a smaller form (more turns then clear the resonance), or ferrite sleeves"
+                      + (" or a quarter-wave sleeve choke" if f_band_high >= 30e6 else "")
+                      + " over the coax at the tap (common practice).")
         warning = (f"A coil of this coax on this form cannot reach {z_target:.0f} ohm across the band: "
                    f"with its self-resonance {srf_margin:g} x above the band, the best is {n_txt} "
-                   f"giving {z_least[i]:.0f} ohm at the band's low edge. Use a quarter-wave sleeve "
-                   f"choke or ferrite sleeves over the coax instead (common practice)"
-                   + (", or a smaller form." if i + 1 < len(turns) else "."))
+                   f"giving {z_least[i]:.0f} ohm at the band's low edge. " + advice)
     else:
         i = 0
     in_fit = (FIT_D_OVER_OD[0] <= d_mean / cable_od <= FIT_D_OVER_OD[1]
