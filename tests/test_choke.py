@@ -247,7 +247,7 @@ def test_choke_no_coil_works_gives_no_impedance(band, form, cable):
     d = design_coax_choke(f_design, f_high, form, cable, f_band_low=f_low)
     assert d.self_resonance_hz < 1.2 * f_high
     assert d.impedance_ohm is None and d.impedance_low_edge_ohm is None
-    assert "cannot work as a choke" in d.warning and "Do not wind a coil" in d.warning
+    assert "cannot work as a choke" in d.warning and "instead of the coil" in d.warning
     assert "sleeve" in d.warning and "ohm" not in d.warning
 
 
@@ -257,7 +257,7 @@ def test_choke_best_reachable_is_the_best_clearing_margin():
     form, cable = 150e-3, RG213_OD
     d = design_coax_choke(f_design, f_high, form, cable, f_band_low=f_low)
     assert d.warning is not None and d.self_resonance_hz >= 1.2 * f_high
-    assert "smaller form" in d.warning and "sleeve" in d.warning
+    assert "quarter-wave sleeve" in d.warning and "smaller form" not in d.warning   # VHF: not a coil
     f = np.linspace(f_low, f_high, 201)
     for n in range(1, 41):
         fr = coil_self_resonance(form + cable, cable, cable, n)
@@ -265,6 +265,14 @@ def test_choke_best_reachable_is_the_best_clearing_margin():
             L = coil_inductance(form + cable, cable, cable, n)
             z = np.abs(coil_impedance_line(f, L, fr, shield_resistance(f, form + cable, cable, n)))
             assert z.min() <= d.impedance_low_edge_ohm * (1 + 1e-9)
+
+
+def test_choke_limited_by_resonance_at_hf_advises_a_smaller_form():
+    # 10 m on a 250 mm form with RG-58: two turns are the most that clear the margin, short of 1 kohm
+    d = design_coax_choke(28.5e6, 29.7e6, 250e-3, RG58_OD, f_band_low=28.0e6)
+    assert d.turns < 40 and d.impedance_low_edge_ohm < 1000
+    assert "smaller form" in d.warning and "quarter-wave" not in d.warning
+    assert coil_self_resonance(250e-3 + RG58_OD, RG58_OD, RG58_OD, d.turns + 1) < 1.2 * 29.7e6
 
 
 def test_choke_short_of_turns_advises_a_larger_form():
@@ -280,6 +288,7 @@ def test_choke_outside_the_checked_forms_gives_no_resonance_or_impedance():
     assert (10e-3 + RG213_OD) / RG213_OD < FIT_D_OVER_OD[0]
     assert d.self_resonance_hz is None and d.impedance_ohm is None and d.impedance_low_edge_ohm is None
     assert "outside the range" in d.warning and "analyzer" in d.warning
+    assert "ohm" not in d.warning and "MHz" not in d.warning        # no figure the model cannot give
 
 
 @pytest.mark.parametrize("args, kwargs", [
@@ -302,7 +311,7 @@ def test_choke_json_keys(name):
     assert {"turns", "form_diameter_m", "coil_length_m", "inductance_h", "self_resonance_hz",
             "impedance_ohm", "warning"} <= set(c)
     if c["impedance_ohm"] is None:
-        assert c["warning"] and "Do not wind" in c["warning"]
+        assert c["warning"] and "instead of the coil" in c["warning"]
     else:
         assert c["impedance_low_edge_ohm"] <= c["impedance_ohm"]
 

@@ -201,10 +201,11 @@ def coil_impedance_line(f, L, f_srf, R=0.0):
 
     Z = Zc tanh(gamma), per unit of the line's length: series R + j omega L, shunt j omega C' with
     C' = 1/((4 f_srf)^2 L), Zc = sqrt((R + j omega L)/(j omega C')), gamma = sqrt((R + j omega L)
-    j omega C'). Low frequency: R + j omega L; lossless: j omega L tan(x)/x with x = (pi/2) f/f_srf,
-    which follows NEC-2's |Z| of coax coils within about 1.5 % up to 0.8 f_srf, where the lumped
-    L parallel C (`coil_impedance`) reads 3-15 % high (telegrapher's equations; the shape is checked
-    against NEC-2 in the tests). f: Hz; L: H; f_srf: Hz; R: total series loss, ohm.
+    j omega C'). Low frequency: R + j omega L; lossless: j omega L tan(x)/x with x = (pi/2) f/f_srf
+    (telegrapher's equations). With NEC-2's own L and f_srf it gave NEC-2's |Z| of three coax coils
+    (7-23 turns, 0.25-0.42 f_srf) within 1.5 %, where the lumped L parallel C (`coil_impedance`)
+    read 2.5-4 % high; the two shapes part further towards resonance (16 % at 0.83 f_srf). The
+    tests check the sized chokes' |Z| against NEC-2. f: Hz; L: H; f_srf: Hz; R: total series loss, ohm.
     """
     omega = 2.0 * np.pi * np.asarray(f, dtype=float)
     c_line = 1.0 / ((4.0 * f_srf) ** 2 * L)
@@ -298,44 +299,49 @@ def design_coax_choke(f_design, f_band_high, form_od, cable_od, z_target=1000.0,
     clears = srf >= srf_margin * f_band_high
     meets = clears & (z_least >= z_target)
 
-    warning = None
     if meets.any():
         i = int(np.argmax(meets))
     elif clears.any():
         i = int(np.argmax(np.where(clears, z_least, -np.inf)))
-        n_txt = f"{i + 1} turn{'s' if i else ''}"
-        if i + 1 == len(turns):      # still short at the most turns tried: more inductance needed
-            advice = (f"Wind it on a larger form, or add ferrite sleeves over the coax at the tap "
-                      f"(common practice).")
-        else:                        # limited by the resonance: a smaller form lets more turns clear it
-            advice = ("Use a smaller form (more turns then clear the resonance), or ferrite sleeves"
-                      + (" or a quarter-wave sleeve choke" if f_band_high >= 30e6 else "")
-                      + " over the coax at the tap (common practice).")
-        warning = (f"A coil of this coax on this form cannot reach {z_target:.0f} ohm across the band: "
-                   f"with its self-resonance {srf_margin:g} x above the band, the best is {n_txt} "
-                   f"giving {z_least[i]:.0f} ohm at the band's low edge. " + advice)
     else:
         i = 0
+    n_best = i + 1
     in_fit = (FIT_D_OVER_OD[0] <= d_mean / cable_od <= FIT_D_OVER_OD[1]
-              and (i + 1) * pitch / d_mean <= FIT_L_OVER_D and i + 1 <= FIT_TURNS)
-    supported = clears[i] and in_fit and f_band_high <= _MAX_F_OVER_SRF * srf[i]
-    if not clears.any():
+              and n_best * pitch / d_mean <= FIT_L_OVER_D and n_best <= FIT_TURNS)
+    supported = bool(clears[i]) and in_fit and f_band_high <= _MAX_F_OVER_SRF * srf[i]
+
+    warning = None
+    if not in_fit:
+        lo_mm = (FIT_D_OVER_OD[0] - 1) * cable_od * 1e3
+        hi_mm = (FIT_D_OVER_OD[1] - 1) * cable_od * 1e3
+        warning = (f"The coil's mean diameter is {d_mean / cable_od:.1f} x the cable's OD and its length "
+                   f"{n_best * pitch / d_mean:.2f} x its diameter: outside the range the choke model was "
+                   f"checked over with NEC-2 (diameter {FIT_D_OVER_OD[0]:g}-{FIT_D_OVER_OD[1]:g} x the OD, "
+                   f"length up to {FIT_L_OVER_D:g} x the diameter), so no self-resonance or |Z| is given "
+                   f"and the turns are a rough guide. Measure the choke's resonance with an antenna "
+                   f"analyzer (common practice), or use a form {lo_mm:.0f}-{hi_mm:.0f} mm across.")
+    elif not clears.any():
         warning = (f"A coil of this coax cannot work as a choke here: even one turn on this form "
                    f"self-resonates at about {srf[0] / 1e6:.3g} MHz, "
                    + ("below the band" if srf[0] <= f_band_high else
                       f"less than {srf_margin:g} x the band's top edge")
-                   + ", so it would not block the shield current. Do not wind a coil; use a "
-                     "quarter-wave sleeve choke or ferrite sleeves over the coax at the tap "
+                   + ", so a coil of it would not block the shield current. Use a quarter-wave "
+                     "sleeve choke or ferrite sleeves over the coax at the tap instead of the coil "
                      "(common practice).")
-    elif not in_fit:
-        warning = ((warning + " ") if warning else "") + (
-            f"This form ({d_mean / cable_od:.1f} x the cable's OD across the coil's centre, coil "
-            f"{(i + 1) * pitch / d_mean:.2f} x as long as wide) is outside the range the choke model "
-            f"was checked over (D/OD {FIT_D_OVER_OD[0]:g}-{FIT_D_OVER_OD[1]:g}, length up to "
-            f"{FIT_L_OVER_D:g} D), so no self-resonance or |Z| is given: measure the choke's "
-            f"resonance with an antenna analyzer (common practice) or use a form "
-            f"{FIT_D_OVER_OD[0] * cable_od - cable_od:.3g}-{FIT_D_OVER_OD[1] * cable_od - cable_od:.3g} m "
-            f"across.")
+    elif not meets.any():
+        n_txt = f"{n_best} turn{'s' if i else ''}"
+        if n_best == len(turns):     # still short at the most turns tried: more inductance needed
+            advice = ("Wind it on a larger form, or add ferrite sleeves over the coax at the tap "
+                      "(common practice).")
+        elif f_band_high < 30e6:     # limited by the resonance: a smaller form lets more turns clear it
+            advice = ("Use a smaller form (more turns then clear the resonance), or ferrite sleeves "
+                      "over the coax at the tap (common practice).")
+        else:                        # VHF/UHF: a coil of coax is not the tool
+            advice = ("Use ferrite sleeves or a quarter-wave sleeve choke over the coax at the tap "
+                      "instead (common practice).")
+        warning = (f"A coil of this coax on this form cannot reach {z_target:.0f} ohm across the band: "
+                   f"with its self-resonance {srf_margin:g} x above the band, the best is {n_txt} "
+                   f"giving {z_least[i]:.0f} ohm at the band's low edge. " + advice)
     k_f0 = int(np.argmin(np.abs(band - f_design)))
     return ChokeDesign(turns=i + 1, form_diameter_m=float(form_od), mean_diameter_m=float(d_mean),
                        coil_length_m=float((i + 1) * pitch), inductance_h=float(L[i]),
