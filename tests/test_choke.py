@@ -291,6 +291,14 @@ def test_choke_outside_the_checked_forms_gives_no_resonance_or_impedance():
     assert "ohm" not in d.warning and "MHz" not in d.warning        # no figure the model cannot give
 
 
+def test_choke_longer_than_the_checked_coils_gives_no_impedance():
+    # 15 m on a 30 mm form with RG-58: the turns needed make the coil longer than 3.7 diameters
+    d = design_coax_choke(21.0e6, 21.45e6, 30e-3, RG58_OD, f_band_low=21.0e6)
+    assert d.coil_length_m / d.mean_diameter_m > 3.7
+    assert d.self_resonance_hz is None and d.impedance_ohm is None
+    assert "larger form" in d.warning and "ohm" not in d.warning
+
+
 @pytest.mark.parametrize("args, kwargs", [
     ((14.2e6, 14.0e6, 0.1, RG58_OD), {}),                  # design above the band top
     ((14.2e6, 14.35e6, 0.0, RG58_OD), {}),

@@ -312,14 +312,13 @@ def design_coax_choke(f_design, f_band_high, form_od, cable_od, z_target=1000.0,
 
     warning = None
     if not in_fit:
-        lo_mm = (FIT_D_OVER_OD[0] - 1) * cable_od * 1e3
-        hi_mm = (FIT_D_OVER_OD[1] - 1) * cable_od * 1e3
+        bigger = d_mean / cable_od < FIT_D_OVER_OD[0] or n_best * pitch / d_mean > FIT_L_OVER_D
         warning = (f"The coil's mean diameter is {d_mean / cable_od:.1f} x the cable's OD and its length "
                    f"{n_best * pitch / d_mean:.2f} x its diameter: outside the range the choke model was "
                    f"checked over with NEC-2 (diameter {FIT_D_OVER_OD[0]:g}-{FIT_D_OVER_OD[1]:g} x the OD, "
                    f"length up to {FIT_L_OVER_D:g} x the diameter), so no self-resonance or |Z| is given "
                    f"and the turns are a rough guide. Measure the choke's resonance with an antenna "
-                   f"analyzer (common practice), or use a form {lo_mm:.0f}-{hi_mm:.0f} mm across.")
+                   f"analyzer (common practice), or use a {'larger' if bigger else 'smaller'} form.")
     elif not clears.any():
         warning = (f"A coil of this coax cannot work as a choke here: even one turn on this form "
                    f"self-resonates at about {srf[0] / 1e6:.3g} MHz, "
