@@ -176,8 +176,9 @@ def coil_self_resonance(d_mean, pitch, cable_od, turns):
     C_eff = eps0 D [c0 + c1 OD/D + c2 l/D + c3/N]: about 3 eps0 D, nearly independent of N, the
     capacitance between the coil's end turns across it; OD/D adds the close turns' share for thick
     cable on a small form, l/D a long coil's length, 1/N the larger share of neighbouring turns in a
-    coil of few. The four constants are fitted to NEC-2 (see _C_END; held-out SRF within 1.8 %). Medhurst's formula (`self_capacitance`) gives 2-3x this C: his coils
-    stood on an earthed plane with one end grounded (from memory), not a coil floating in a feed line.
+    coil of few. The four constants are fitted to NEC-2 (see _C_END; held-out SRF within 1.8 %).
+    Medhurst's formula (`self_capacitance`) gives 2-3x this C: his coils stood on an earthed plane
+    with one end grounded (from memory), not a coil floating in a feed line.
     N = 1: a single turn resonates as a loop, somewhat below the frequency where its circumference is
     half a wavelength (the lower the thicker the wire): f_srf = c/(2 pi D) [k0 + k1 ln(D/OD)], fitted
     to NEC-2 on 15 one-turn coils (within 0.13 %), with its leads.
