@@ -172,8 +172,8 @@ def test_one_turn_of_rg8x_on_110_mm_is_221_nh():
 def test_rosa_correction_sign_and_size_for_coax_coils():
     # close-wound coax (A = 3/2 - ln 2 = 0.81, B 0.17-0.33): the round wire sits 4-12 % below the
     # current sheet for 3-40 turns on a 110 mm form, the more the fewer the turns
-    ratios = [coil_inductance(0.11495, 4.95e-3, 4.95e-3, n) / current_sheet_inductance(0.11495, n * 4.95e-3, n)
-              for n in (3, 9, 40)]
+    d, od = 0.11495, 4.95e-3
+    ratios = [coil_inductance(d, od, od, n) / current_sheet_inductance(d, n * od, n) for n in (3, 9, 40)]
     assert 0.88 < ratios[0] < ratios[1] < ratios[2] < 0.97
 
 

@@ -93,7 +93,8 @@ def rosa_correction(d_mean, pitch, wire_diameter, turns):
           is the same with the solid wire's GMD a e^(-1/4);
       B = (2/N) sum_{k=1}^{N-1} (N - k) [ln(k p) - ln(GMD of two strips k pitches apart)], with the
           exact GMD of two collinear strips (Maxwell): ln g = [(k+1)^2 ln(k+1) + (k-1)^2 ln(k-1)
-          - 2 k^2 ln k]/2 - 3/2 + ln p; B -> ln(2 pi) - 3/2 = 0.3379 for many turns, B(2) = 0.1137 (Grover's table).
+          - 2 k^2 ln k]/2 - 3/2 + ln p; B -> ln(2 pi) - 3/2 = 0.3379 for many turns,
+          B(2) = 0.1137 (Grover's table).
     For one turn the corrected sheet is the ring of the loop formula, mu0 r (ln(8 r/a) - 2), to
     O((p/D)^2). Uniform current around each wire is assumed (no proximity effect), as in NEC-2.
 
