@@ -261,8 +261,9 @@ def coil_wires(turns: int, d_mean: float, wire_radius: float, pitch: float, per_
     source in the middle segment of the first radial lead (gap defaults to 8 wire radii: 6 radii of
     clearance between the return's surface and the turns'). The leads' own series inductance
     (radial stubs plus the return, which closes with the helix's net axial current a hairpin of
-    length turns * pitch) stays in the result: `coil_lead_loop` gives an upper bound for it to compare with. A single flat turn
-    (pitch 0) is driven in its own segment instead, with no leads (the loop formula's geometry).
+    length turns * pitch) stays in the result: `coil_lead_loop` gives an upper bound for it to
+    compare with. A single flat turn (pitch 0) is driven in its own segment instead, with no leads
+    (the loop formula's geometry).
     """
     r = d_mean / 2.0
     rp = _polygon_radius(r, per_turn)
