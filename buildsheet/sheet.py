@@ -495,8 +495,12 @@ class _Context:
                             "long")),
                 ("inductance", _e(f"{c.inductance_h * 1e6:.3g} µH")),
                 ("self-resonance", _e(f"{_freq(c.self_resonance_hz)} "
-                                      f"({c.self_resonance_hz / s.band_hz[1]:.2f} × the band's top edge)")),
-                ("impedance", _e(f"|Z| at least {_ohm(c.impedance_ohm)} across the band")),
+                                      f"({c.self_resonance_hz / s.band_hz[1]:.2f} × the band's top edge)"
+                                      if c.self_resonance_hz is not None else
+                                      "not given: see the choke warning")),
+                ("impedance", _e(f"|Z| {_ohm(c.impedance_ohm)} at {self.f0}, "
+                                 f"{_ohm(c.impedance_low_edge_ohm)} at the band's low edge"
+                                 if c.impedance_ohm is not None else "not given: see the choke warning")),
             )),
         ]
         if c.warning:

@@ -166,7 +166,7 @@ class Solution:
             "choke": {"turns": c.turns, "form_diameter_m": c.form_diameter_m,
                       "coil_length_m": c.coil_length_m, "inductance_h": c.inductance_h,
                       "self_resonance_hz": c.self_resonance_hz, "impedance_ohm": c.impedance_ohm,
-                      "warning": c.warning},
+                      "impedance_low_edge_ohm": c.impedance_low_edge_ohm, "warning": c.warning},
             "exposure": {"standard": e.standard, "average_power_w": e.average_power_w,
                          "gain_dbi": e.gain_dbi, "eirp_w": e.eirp_w,
                          "distance_controlled_m": e.distance_controlled_m,

@@ -54,10 +54,14 @@ def summary_text(design: Design, s: Solution) -> str:
     add(f"  current through the short: {units.format_current(s.current_short_a_rms)} rms")
     add(f"  efficiency (radiated / delivered to the tap): {units.format_percent(s.efficiency)}")
     c = s.choke
-    add(f"  choke: {c.turns} turns of {design.feed.coax} on a {L(c.form_diameter_m)} form, coil "
-        f"{L(c.coil_length_m)} long, {c.inductance_h * 1e6:.2f} uH, self-resonant at "
-        f"{units.format_frequency(c.self_resonance_hz)}, |Z| at least {units.format_impedance(c.impedance_ohm)}"
-        " across the band")
+    coil = (f"  choke: {c.turns} turn{'s' if c.turns != 1 else ''} of {design.feed.coax} on a "
+            f"{L(c.form_diameter_m)} form, coil {L(c.coil_length_m)} long, {c.inductance_h * 1e6:.2f} uH")
+    if c.self_resonance_hz is not None:
+        coil += f", self-resonant at {units.format_frequency(c.self_resonance_hz)}"
+    if c.impedance_ohm is not None:
+        coil += (f", |Z| {units.format_impedance(c.impedance_ohm)} at the design frequency, "
+                 f"{units.format_impedance(c.impedance_low_edge_ohm)} at the band's low edge")
+    add(coil)
     if c.warning:
         add(f"  choke warning: {c.warning}")
     e = s.exposure

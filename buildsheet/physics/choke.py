@@ -13,8 +13,10 @@ Symbols (SI throughout unless a formula says otherwise):
     H          Medhurst's coefficient, pF per cm of diameter
     R          series loss resistance of the winding, ohm
     f, omega   frequency (Hz) and 2*pi*f
-    f_srf      self-resonant frequency 1/(2 pi sqrt(L C)), Hz
+    f_srf      first self-resonant (parallel) frequency, Hz
     Z          impedance of the coil, ohm
+    p          pitch (turn to turn), m; a coax coil is close-wound: p = cable OD
+    a          wire radius, m (for coax: the outside radius, OD/2)
 """
 
 from __future__ import annotations
@@ -22,7 +24,8 @@ from __future__ import annotations
 from dataclasses import dataclass
 
 import numpy as np
-from scipy.constants import inch, mu_0
+from scipy.constants import c as C0
+from scipy.constants import epsilon_0, inch, mu_0
 from scipy.special import ellipe, ellipk
 
 from buildsheet.errors import DesignError
@@ -79,6 +82,42 @@ def current_sheet_inductance(d_mean, length, turns):
     return mu_0 * np.pi * r**2 * n**2 * nagaoka_coefficient(d_mean, length) / l
 
 
+def rosa_correction(d_mean, pitch, wire_diameter, turns):
+    """Rosa's round-wire correction to the current sheet, H: L = L_sheet - mu0 r N (A + B).
+
+    E. B. Rosa, "The self and mutual inductances of linear conductors", Bull. Bureau of Standards 4
+    (1908), as tabulated by F. W. Grover, "Inductance Calculations" (1946) (both from memory). Each turn
+    is a round wire instead of a strip of the sheet one pitch wide; by geometric mean distances (GMD):
+      A = ln(GMD of the wire) - ln(GMD of a strip of width p) = ln(a/p) + 3/2 for the current on the
+          wire's surface (skin effect; the shield's outside); Rosa's low-frequency A = 5/4 - ln(2p/d)
+          is the same with the solid wire's GMD a e^(-1/4);
+      B = (2/N) sum_{k=1}^{N-1} (N - k) [ln(k p) - ln(GMD of two strips k pitches apart)], with the
+          exact GMD of two collinear strips (Maxwell): ln g = [(k+1)^2 ln(k+1) + (k-1)^2 ln(k-1)
+          - 2 k^2 ln k]/2 - 3/2 + ln p; B -> ln(2 pi) - 3/2 = 0.3379 for many turns,
+          B(2) = 0.1137 (Grover's table).
+    For one turn the corrected sheet is the ring of the loop formula, mu0 r (ln(8 r/a) - 2), to
+    O((p/D)^2). Uniform current around each wire is assumed (no proximity effect), as in NEC-2.
+
+    d_mean: D, m; pitch: p, m; wire_diameter: d = 2a, m (here the coax's outside); turns: N.
+    """
+    n = int(turns)
+    r = float(d_mean) / 2.0
+    a_term = np.log(float(wire_diameter) / 2.0 / float(pitch)) + 1.5
+    k = np.arange(1, n, dtype=float)
+    xlogx = lambda x: np.where(x > 0, x**2 * np.log(np.where(x > 0, x, 1.0)), 0.0)  # noqa: E731
+    b_k = np.log(k) + 1.5 - (xlogx(k + 1) + xlogx(k - 1) - 2 * xlogx(k)) / 2.0
+    b_term = 2.0 / n * float(np.sum((n - k) * b_k))
+    return mu_0 * r * n * (a_term + b_term)
+
+
+def coil_inductance(d_mean, pitch, wire_diameter, turns):
+    """Inductance of a single-layer coil of round wire (here coax) at RF, H: the current sheet of
+    Nagaoka less Rosa's round-wire correction (`rosa_correction`). Valid from one turn (where it is
+    the loop formula of Rosa/Grover) to long coils. d_mean, pitch, wire_diameter in m; turns: N."""
+    return (current_sheet_inductance(d_mean, int(turns) * pitch, turns)
+            - rosa_correction(d_mean, pitch, wire_diameter, turns))
+
+
 def self_capacitance(d_mean, length):
     """Self-capacitance of a single-layer solenoid by Medhurst's empirical fit, F.
 
@@ -110,14 +149,92 @@ def coil_impedance(f, L, C, R=0.0):
         return np.where(den2 == 0, np.inf, np.sqrt(num2 / den2))
 
 
+# --- the coiled coax's self-resonance, fitted to NEC-2 -------------------------------------------
+#
+# NEC-2 reference (tests/necref.py, coil_model): the shield's outside as a wire helix of the coax's
+# outer radius, pitch = OD (turns 1 % of the OD apart), driven between its ends through short leads,
+# in free space, no jacket; segments about 4 radii long (coil_per_turn). 118 coils of RG-58, RG-8X
+# and RG-213 on 30-250 mm forms with 2-34 turns (l/D up to 3.7), their first self-resonance found
+# to 0.3 % (the data and the script that made them: tests/data/choke_nec_srf.json). Fitted on the
+# 55 coils with N = 2, 4, 9, 18, 34 whose segments are under 4.6 radii; held out the 49 with
+# N = 3, 6, 13, 25: SRF error median 0.9 %, 90th percentile 1.4 %, worst 1.8 % (train worst 3.1 %).
+# The 14 coils on 250 mm forms with thin cable (segments 5.5-6.7 radii, not in the fit) agree
+# within 2.5 % from 4 turns up and read 5-10 % lower in NEC at 2-3 turns, where NEC's coarser mesh
+# is the likelier culprit (its few-turn inductance there is 10 % short of the loop formula).
+_C_END = (2.7690, 5.8300, 0.59714, 1.0219)   # C_eff/(eps0 D) = c0 + c1 OD/D + c2 l/D + c3/N, N >= 2
+# One turn (15 coils, D/OD 3.9-52): within 0.13 %.
+_LOOP_K = (0.40185, 0.10228)                 # f_srf 2 pi D / c = k0 + k1 ln(D/OD)
+# The range of the NEC-2 data: outside it no SRF (and so no |Z|) is given.
+FIT_D_OVER_OD = (3.9, 52.0)
+FIT_L_OVER_D = 3.7
+FIT_TURNS = 40                               # the data reach 34 turns; 40 where l/D is inside
+
+
+def coil_self_resonance(d_mean, pitch, cable_od, turns):
+    """First self-resonance of a close-wound coil of coax, free space, driven between its ends, Hz.
+
+    N >= 2: the coil's inductance (`coil_inductance`) with an effective end-to-end capacitance
+    C_eff = eps0 D [c0 + c1 OD/D + c2 l/D + c3/N]: about 3 eps0 D, nearly independent of N, the
+    capacitance between the coil's end turns across it; OD/D adds the close turns' share for thick
+    cable on a small form, l/D a long coil's length, 1/N the larger share of neighbouring turns in a
+    coil of few. The four constants are fitted to NEC-2 (see _C_END; held-out SRF within 1.8 %).
+    Medhurst's formula (`self_capacitance`) gives 2-3x this C: his coils stood on an earthed plane
+    with one end grounded (from memory), not a coil floating in a feed line.
+    N = 1: a single turn resonates as a loop, somewhat below the frequency where its circumference is
+    half a wavelength (the lower the thicker the wire): f_srf = c/(2 pi D) [k0 + k1 ln(D/OD)], fitted
+    to NEC-2 on 15 one-turn coils (within 0.13 %), with its leads.
+    NEC-2's thin wire has no jacket dielectric and does not see the extra capacitance of touching
+    turns, so a real coil of jacketed coax resonates lower than this (not modelled: NEC-2 cannot
+    check it); the 20 % margin of the sizing is there for that too.
+
+    d_mean: D, m; pitch: p, m; cable_od: m; turns: N.
+    """
+    n = int(turns)
+    d = float(d_mean)
+    if n == 1:
+        return C0 / (2.0 * np.pi * d) * (_LOOP_K[0] + _LOOP_K[1] * np.log(d / cable_od))
+    l_over_d = n * pitch / d
+    c_eff = epsilon_0 * d * (_C_END[0] + _C_END[1] * cable_od / d + _C_END[2] * l_over_d + _C_END[3] / n)
+    return 1.0 / (2.0 * np.pi * np.sqrt(coil_inductance(d, pitch, cable_od, n) * c_eff))
+
+
+def coil_impedance_line(f, L, f_srf, R=0.0):
+    """Complex impedance of a coil as a shorted line a quarter wave long at its self-resonance, ohm.
+
+    Z = Zc tanh(gamma), per unit of the line's length: series R + j omega L, shunt j omega C' with
+    C' = 1/((4 f_srf)^2 L), Zc = sqrt((R + j omega L)/(j omega C')), gamma = sqrt((R + j omega L)
+    j omega C'). Low frequency: R + j omega L; lossless: j omega L tan(x)/x with x = (pi/2) f/f_srf
+    (telegrapher's equations). With NEC-2's own L and f_srf it gave NEC-2's |Z| of three coax coils
+    (7-23 turns, 0.25-0.42 f_srf) within 1.5 %, where the lumped L parallel C (`coil_impedance`)
+    read 2.5-4 % high; the two shapes part further towards resonance (16 % at 0.83 f_srf). The
+    tests check the sized chokes' |Z| against NEC-2. f: Hz; L: H; f_srf: Hz; R: total series loss, ohm.
+    """
+    omega = 2.0 * np.pi * np.asarray(f, dtype=float)
+    c_line = 1.0 / ((4.0 * f_srf) ** 2 * L)
+    z_series = R + 1j * omega * L
+    y_shunt = 1j * omega * c_line
+    gamma = np.sqrt(z_series * y_shunt)
+    return np.sqrt(z_series / y_shunt) * np.tanh(gamma)
+
+
+def shield_resistance(f, d_mean, cable_od, turns):
+    """Skin-effect resistance of the shield's outside along the coil, ohm: copper surface resistance
+    over the coax length N pi D, the current around the cable's circumference pi OD (an upper bound
+    on |Z| at resonance: braid and proximity effect lose more)."""
+    return surface_resistance(f, SIGMA_COPPER) * turns * np.pi * d_mean / (np.pi * cable_od)
+
+
 @dataclass(frozen=True)
 class ChokeDesign:
     """A close-wound coiled-coax choke and what it gives.
 
     turns: N; form_diameter_m: form OD, m; mean_diameter_m: D = form OD + cable OD, m;
-    coil_length_m: l = N x cable OD, m; inductance_h: L (current sheet), H; capacitance_f: C
-    (Medhurst), F; self_resonance_hz: f_srf, Hz; impedance_ohm: the least |Z| over the band, ohm;
-    warning: why the target could not be met and what would help, or None.
+    coil_length_m: l = N x cable OD, m; inductance_h: L (current sheet less Rosa's correction), H;
+    capacitance_f: the lumped C that resonates L at f_srf, F; self_resonance_hz: f_srf, Hz, or None
+    where the model cannot give it; impedance_ohm: |Z| at the design frequency, ohm;
+    impedance_low_edge_ohm: |Z| at the band's low edge (the least in the band below resonance), ohm;
+    either None where the model cannot support it; warning: why the target could not be met and
+    what to do instead, or None.
     """
 
     turns: int
@@ -126,9 +243,14 @@ class ChokeDesign:
     coil_length_m: float
     inductance_h: float
     capacitance_f: float
-    self_resonance_hz: float
-    impedance_ohm: float
+    self_resonance_hz: float | None
+    impedance_ohm: float | None
+    impedance_low_edge_ohm: float | None
     warning: str | None
+
+
+# The lumped/line models hold below resonance; above this fraction of f_srf a figure is not given.
+_MAX_F_OVER_SRF = 0.9
 
 
 def design_coax_choke(f_design, f_band_high, form_od, cable_od, z_target=1000.0, srf_margin=1.2,
@@ -137,14 +259,19 @@ def design_coax_choke(f_design, f_band_high, form_od, cable_od, z_target=1000.0,
     |Z| >= z_target at every frequency of the band with the self-resonance >= srf_margin x f_band_high.
 
     Target |Z| >= 1 kohm with the resonance 20 % above the band is common practice. The coil is
-    close-wound: D = form OD + cable OD, l = N x cable OD. L is the current-sheet value (Nagaoka),
-    which holds for the short, wide coils of few turns where Wheeler's formula (l >= 0.4 D) does not;
-    C is Medhurst's; the loss R is the skin-effect resistance of the shield's outer surface. |Z| is
-    computed from L, C and R at each frequency, never set from the target.
+    close-wound: D = form OD + cable OD, l = N x cable OD, pitch = cable OD. L is the current sheet
+    (Nagaoka) less Rosa's round-wire correction, which is the loop formula for one turn
+    (`coil_inductance`); f_srf is `coil_self_resonance` (fitted to NEC-2); |Z| is the coil as a
+    quarter-wave line at f_srf with the shield's skin-effect loss (`coil_impedance_line`), computed
+    at each frequency, never set from the target.
 
-    When no N meets both conditions (always at VHF/UHF for an air coil of coax), the N with the best
-    least |Z| across the band whose resonance still clears the margin is chosen (N = 1 if none does)
-    and `warning` says so.
+    When no N meets both conditions, the N with the best least |Z| across the band whose resonance
+    still clears the margin is chosen and `warning` says plainly that the target is not reached and
+    what to use instead. When not even one turn clears the margin (VHF/UHF on a usual form), a coil
+    of this coax is no choke here: one turn is reported, its |Z| figures are None (the band is at or
+    above its resonance, where these models do not hold) and `warning` says what to use instead.
+    The figures are also None for a form outside the range the model was checked against NEC-2
+    (D/OD 3.9-52, l/D <= 3.7).
 
     f_design: design frequency, Hz; f_band_high: top edge of the band, Hz; form_od: form outside
     diameter, m; cable_od: coax outside diameter, m; z_target: ohm; srf_margin: ratio >= 1;
@@ -161,36 +288,66 @@ def design_coax_choke(f_design, f_band_high, form_od, cable_od, z_target=1000.0,
         raise DesignError(f"choke target must be positive with a margin >= 1 and at least one turn, "
                           f"got {z_target} ohm, margin {srf_margin}, {max_turns} turns")
 
-    n = np.arange(1, int(max_turns) + 1, dtype=float)[:, None]
-    band = np.union1d(np.linspace(f_low, f_band_high, _BAND_POINTS), [f_design])[None, :]
+    band = np.union1d(np.linspace(f_low, f_band_high, _BAND_POINTS), [f_design])
     d_mean = form_od + cable_od
-    length = n * cable_od
-    L = current_sheet_inductance(d_mean, length, n)
-    C = self_capacitance(d_mean, length)
-    # shield surface over the coax length N pi D, current around the cable's circumference pi OD
-    R = surface_resistance(band, SIGMA_COPPER) * n * np.pi * d_mean / (np.pi * cable_od)
-    z_least = coil_impedance(band, L, C, R).min(axis=1)
-    srf = 1.0 / (2.0 * np.pi * np.sqrt(L * C))[:, 0]
+    pitch = cable_od
+    turns = np.arange(1, int(max_turns) + 1)
+    L = np.array([coil_inductance(d_mean, pitch, cable_od, n) for n in turns])
+    srf = np.array([coil_self_resonance(d_mean, pitch, cable_od, n) for n in turns])
+    z = np.abs(np.array([coil_impedance_line(band, L[k], srf[k],
+                                             shield_resistance(band, d_mean, cable_od, n))
+                         for k, n in enumerate(turns)]))
+    z_least = z.min(axis=1)
     clears = srf >= srf_margin * f_band_high
     meets = clears & (z_least >= z_target)
 
-    warning = None
     if meets.any():
         i = int(np.argmax(meets))
     elif clears.any():
         i = int(np.argmax(np.where(clears, z_least, -np.inf)))
-        turns = f"{i + 1} turn{'s' if i else ''}"
-        warning = (f"No coil of up to {int(max_turns)} turns on this form reaches {z_target:.0f} ohm "
-                   f"across the band with its self-resonance {srf_margin:g} x above the band; the best "
-                   f"is {turns} giving {z_least[i]:.0f} ohm. A smaller form or a ferrite sleeve choke "
-                   f"over the coax (common practice) would help.")
     else:
         i = 0
-        warning = (f"Even one turn on this form self-resonates at {srf[0] / 1e6:.3g} MHz, below "
-                   f"{srf_margin:g} x the band top, so an air coil of this coax cannot reach "
-                   f"{z_target:.0f} ohm here (one turn gives {z_least[0]:.0f} ohm). Use a ferrite sleeve "
-                   f"choke over the coax (common practice) or a much smaller form.")
+    n_best = i + 1
+    in_fit = (FIT_D_OVER_OD[0] <= d_mean / cable_od <= FIT_D_OVER_OD[1]
+              and n_best * pitch / d_mean <= FIT_L_OVER_D and n_best <= FIT_TURNS)
+    supported = bool(clears[i]) and in_fit and f_band_high <= _MAX_F_OVER_SRF * srf[i]
+
+    warning = None
+    if not in_fit:
+        bigger = d_mean / cable_od < FIT_D_OVER_OD[0] or n_best * pitch / d_mean > FIT_L_OVER_D
+        warning = (f"The coil's mean diameter is {d_mean / cable_od:.1f} x the cable's OD and its length "
+                   f"{n_best * pitch / d_mean:.2f} x its diameter: outside the range the choke model was "
+                   f"checked over with NEC-2 (diameter {FIT_D_OVER_OD[0]:g}-{FIT_D_OVER_OD[1]:g} x the OD, "
+                   f"length up to {FIT_L_OVER_D:g} x the diameter), so no self-resonance or |Z| is given "
+                   f"and the turns are a rough guide. Measure the choke's resonance with an antenna "
+                   f"analyzer (common practice), or use a {'larger' if bigger else 'smaller'} form.")
+    elif not clears.any():
+        warning = (f"A coil of this coax cannot work as a choke here: even one turn on this form "
+                   f"self-resonates at about {srf[0] / 1e6:.3g} MHz, "
+                   + ("below the band" if srf[0] <= f_band_high else
+                      f"less than {srf_margin:g} x the band's top edge")
+                   + ", so a coil of it would not block the shield current. Use a quarter-wave "
+                     "sleeve choke or ferrite sleeves over the coax at the tap instead of the coil "
+                     "(common practice).")
+    elif not meets.any():
+        n_txt = f"{n_best} turn{'s' if i else ''}"
+        if n_best == len(turns):     # still short at the most turns tried: more inductance needed
+            advice = ("Wind it on a larger form, or add ferrite sleeves over the coax at the tap "
+                      "(common practice).")
+        elif f_band_high < 30e6:     # limited by the resonance: a smaller form lets more turns clear it
+            advice = ("Use a smaller form (more turns then clear the resonance), or ferrite sleeves "
+                      "over the coax at the tap (common practice).")
+        else:                        # VHF/UHF: a coil of coax is not the tool
+            advice = ("Use ferrite sleeves or a quarter-wave sleeve choke over the coax at the tap "
+                      "instead (common practice).")
+        warning = (f"A coil of this coax on this form cannot reach {z_target:.0f} ohm across the band: "
+                   f"with its self-resonance {srf_margin:g} x above the band, the best is {n_txt} "
+                   f"giving {z_least[i]:.0f} ohm at the band's low edge. " + advice)
+    k_f0 = int(np.argmin(np.abs(band - f_design)))
     return ChokeDesign(turns=i + 1, form_diameter_m=float(form_od), mean_diameter_m=float(d_mean),
-                       coil_length_m=float(length[i, 0]), inductance_h=float(L[i, 0]),
-                       capacitance_f=float(C[i, 0]), self_resonance_hz=float(srf[i]),
-                       impedance_ohm=float(z_least[i]), warning=warning)
+                       coil_length_m=float((i + 1) * pitch), inductance_h=float(L[i]),
+                       capacitance_f=float(1.0 / ((2 * np.pi * srf[i]) ** 2 * L[i])),
+                       self_resonance_hz=float(srf[i]) if in_fit else None,
+                       impedance_ohm=float(z[i, k_f0]) if supported else None,
+                       impedance_low_edge_ohm=float(z[i, 0]) if supported else None,
+                       warning=warning)
