@@ -177,9 +177,28 @@ def graded(length: float, h_start: float | None, h_end: float | None, h_max: flo
     return tuple(left + [rest / n_mid] * n_mid + right[::-1])
 
 
-def jpole_wires(d: JPoleDims, f_mesh: float, mesh: Mesh = MESH) -> tuple[Wire, ...]:
+def jpole_wires(d: JPoleDims, f_mesh: float, mesh: Mesh = MESH,
+                like: JPoleDims | None = None) -> tuple[Wire, ...]:
     """Wires of the J-pole meshed for f_mesh (Hz; use the highest frequency of the run) by the
-    DESIGN.md §7 rule; `mesh` changes its knobs for refinement studies."""
+    DESIGN.md §7 rule; `mesh` changes its knobs for refinement studies.
+
+    like: mesh the radiator, the two stub sections and the bars as for the dimensions `like`, each
+    section's segments scaled by its length over like's. The rule's segment counts change in steps
+    with the lengths, and each step moves the feed impedance by a fraction of an ohm: enough to
+    spoil a finite difference or a Newton step over a few millimetres. Studies that move the
+    lengths a little (searches, sensitivities) mesh every point like their starting point, so that
+    the impedance they differentiate is a smooth function of the lengths."""
+    if like is not None:
+        base = {w.tag: w for w in jpole_wires(like, f_mesh, mesh)}
+        wires = jpole_wires(d, f_mesh, mesh)
+        out = []
+        for w in wires:
+            b = base[w.tag]
+            length = math.dist(w.p1, w.p2)
+            scale = length / math.dist(b.p1, b.p2)
+            segs = tuple(h * scale for h in b.segment_lengths())
+            out.append(replace(w, nseg=len(segs), seglens=segs))
+        return tuple(out)
     if not 0.0 < d.tap < d.stub:
         raise ValueError(f"tap {d.tap} m must lie between the short and the open top (stub {d.stub} m)")
     lam = C0 / f_mesh
@@ -336,11 +355,12 @@ def _currents(sc, wires, lam):
 
 def jpole_model(d: JPoleDims, f_hz, currents: bool = False, f_mesh: float | None = None,
                 extended_kernel: bool | None = None, mesh: Mesh = MESH,
-                pattern_step_deg: float | None = None) -> NecResult:
+                pattern_step_deg: float | None = None, like: JPoleDims | None = None) -> NecResult:
     """NEC-2 model of the J-pole from its dimensions: feed impedance (ohm) at each frequency (Hz),
-    and optionally the currents. Meshed for f_mesh (default: the highest frequency)."""
+    and optionally the currents. Meshed for f_mesh (default: the highest frequency); like: see
+    jpole_wires."""
     f_hz = np.atleast_1d(np.asarray(f_hz, dtype=float))
-    wires = jpole_wires(d, f_mesh or float(f_hz.max()), mesh)
+    wires = jpole_wires(d, f_mesh or float(f_hz.max()), mesh, like)
     tap_bar = wires[TAG_TAP - 1]
     sigma = {TAG_RADIATOR: d.wire_sigma, **{t: d.stub_sigma for t in range(2, 8)}}
     return run(wires, f_hz, d.ground, (TAG_TAP, (tap_bar.nseg + 1) // 2), sigma, currents,

@@ -177,12 +177,14 @@ def test_radiator_is_cut_where_nec_puts_the_dipole_resonance(case):
 THIN = [c for c in CASES if not c.pipe]
 
 
-def _nec_dip(case: Case, L, S, T, centre, width):
+def _nec_dip(case: Case, L, S, T, centre, width, like):
     """NEC-2's SWR dip (Hz): |rho|^2 on 9 frequencies over centre +/- width/2, then the vertex of
     the parabola through the least and its neighbours (a smooth minimum is quadratic near its
-    bottom)."""
+    bottom). Meshed like the dimensions `like`, at 1.05 f0 (necref.jpole_wires: a finite
+    difference needs the same mesh on both sides)."""
     f = centre + width * np.linspace(-0.5, 0.5, 9)
-    z = necref.jpole_model(case.nec_dims(L, S, T), f).z_feed
+    z = necref.jpole_model(case.nec_dims(L, S, T), f, f_mesh=1.05 * case.f0,
+                           like=case.nec_dims(*like)).z_feed
     rho2 = np.abs((z - 50) / (z + 50)) ** 2
     i = int(np.clip(np.argmin(rho2), 1, len(f) - 2))
     a, b, c = rho2[i - 1:i + 2]
@@ -198,12 +200,13 @@ def tuning_rates(cases=None):
         ant, L, S, T = model_design(case)
         sens = jpole.sensitivities(case.f0, ant, L, S, T)
         width = 0.012 * case.f0
-        dip = lambda L_, S_, T_: _nec_dip(case, L_, S_, T_, case.f0, width)
+        dip = lambda L_, S_, T_: _nec_dip(case, L_, S_, T_, case.f0, width, (L, S, T))
         dl, ds = 0.01 * L, 0.2 * T
         nec_dip_l = (dip(L + dl, S, T) - dip(L - dl, S, T)) / (2 * dl)
         nec_dip_s = (dip(L, S - ds, T - ds) - dip(L, S + ds, T + ds)) / (2 * ds)
         h = 0.05 * T
-        z = lambda S_, T_: necref.jpole_model(case.nec_dims(L, S_, T_), [case.f0]).z_feed[0]
+        z = lambda S_, T_: necref.jpole_model(case.nec_dims(L, S_, T_), [case.f0], f_mesh=1.05 * case.f0,
+                                              like=case.nec_dims(L, S, T)).z_feed[0]
         nec_r_tap = (z(S, T + h).real - z(S, T - h).real) / (2 * h)
         nec_x_short = (z(S - h, T - h).imag - z(S + h, T + h).imag) / (2 * h)
         out[case.name] = dict(
@@ -220,10 +223,19 @@ def rates():
 
 
 @pytest.mark.parametrize("case", THIN, ids=[c.name for c in THIN])
-@pytest.mark.parametrize("rate", ["dip_radiator", "r_tap", "x_short"])
+@pytest.mark.parametrize("rate", ["dip_radiator", "dip_short", "r_tap", "x_short"])
 def test_tuning_rates_match_nec_finite_differences(case, rate, rates):
-    """Issue acceptance: the rates the tuning table prints are within 15 % of NEC-2's."""
+    """Issue acceptance: the rates the tuning table prints are within 15 % of NEC-2's. The dip's
+    shift per move of the short is printed only where the short moves the dip usefully
+    (sheet.SHORT_DIP_FRACTION); where NEC's rate moves the dip by under 0.1 % of f0 over 30 % of
+    the tap distance (the 600-ohm line here: the short mostly spoils the match there), the model
+    need only agree that it is small."""
     model, nec = rates[case.name][rate]
+    if rate == "dip_short":
+        _, _, _, T = model_design(case)
+        if abs(nec) * 0.3 * T < 1e-3 * case.f0:
+            assert abs(model) * 0.3 * T < 2e-3 * case.f0, f"{case.name}: model {model:.4g}, NEC {nec:.4g}"
+            return
     assert model == pytest.approx(nec, rel=0.15), f"{case.name} {rate}: model {model:.4g}, NEC {nec:.4g}"
 
 
