@@ -373,7 +373,10 @@ def accept_one(seed: int):
     span = 0.05 if case.f0 > 100e6 else 0.03
     f = case.f0 * np.linspace(1 - span, 1 + span, 25)
     f_all = np.concatenate([[case.f0], f])
-    z = necref.jpole_model(case.nec_dims(L, S, T), f_all).z_feed
+    try:
+        z = necref.jpole_model(case.nec_dims(L, S, T), f_all).z_feed
+    except RuntimeError as exc:    # PyNEC refusing the geometry (see random_case)
+        return dict(seed=seed, case=_case_dict(case), nec_error=f"{type(exc).__name__}: {exc}")
     swr_nec = acc.swr(z, 50.0)
     f_fine = case.f0 * np.linspace(1 - span, 1 + span, 601)
     swr_mod = acc.swr(jpole.feed_impedance(f_fine, ant, L, S, T), 50.0)
@@ -398,7 +401,13 @@ def accept(out: str, n: int, start: int):
 def report(rows):
     ok = [r for r in rows if "swr" in r]
     refused = [r for r in rows if "refused" in r]
-    print(f"{len(ok)} designs solved, {len(refused)} refused by the model")
+    nec_err = [r for r in rows if "nec_error" in r]
+    print(f"{len(ok)} designs solved and checked, {len(refused)} refused by the model, "
+          f"{len(nec_err)} NEC-2 could not run")
+    for r in nec_err:
+        c = r["case"]
+        print(f"  NEC-2 refused seed {r['seed']}: {c['f0']/1e6:.2f} MHz {c['orientation']} slope "
+              f"{np.degrees(c['slope']):.0f} deg, D {c['spacing']*1e3:.1f} mm: {r['nec_error']}")
     for r in refused:
         print(f"  refused seed {r['seed']}: {r['refused'][:120]}")
     if not ok:

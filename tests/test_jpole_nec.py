@@ -4,9 +4,12 @@ For designs spread over 1.8-450 MHz (HF bands, heights, free-space / perfect / r
 a sloper, a 600-ohm-class open-wire stub, 6 m, 2 m and 70 cm pipe/rod verticals; stubs air-insulated,
 since NEC-2 wires carry no dielectric) the model chooses the radiator, stub and tap; NEC-2 then
 analyses a wire model built from those dimensions (tests/necref.py, meshed per DESIGN.md §7) and:
-  - SWR (50 ohm) at the design frequency <= 1.25 for thin-wire designs, <= 2.0 for pipe/rod designs
-    (spacing under ~10 conductor radii: NEC-2 itself is only indicative there, DESIGN.md §7);
-  - the 2:1 bands of NEC and of the model overlap with intersection/union >= 0.8.
+  - SWR (50 ohm) at the design frequency <= 1.15 for thin-wire designs (the issue's acceptance),
+    <= 2.0 for pipe/rod designs (spacing under ~10 conductor radii: NEC-2 itself is only indicative
+    there, DESIGN.md §7; their reference is bench/fdtd_ref.py);
+  - thin wire: the 2:1 bands of NEC and of the model overlap with intersection/union >= 0.85, and
+    each 2:1 edge lies within 10 % of NEC's 2:1 width of NEC's edge.
+The NEC-2 mesh is the corrected one of DESIGN.md §7, proven by tests/test_nec_harness.py.
 """
 
 from __future__ import annotations
@@ -133,6 +136,9 @@ def compare(case: Case, n_nec: int = 41):
                 band_nec=b_nec, band_model=b_mod, overlap=overlap(b_nec, b_mod))
 
 
+THIN_CASES = [c for c in CASES if not c.pipe]
+
+
 @pytest.fixture(scope="module")
 def results():
     return {c.name: compare(c) for c in CASES}
@@ -141,14 +147,21 @@ def results():
 @pytest.mark.parametrize("case", CASES, ids=[c.name for c in CASES])
 def test_nec_swr_at_design_frequency(case, results):
     r = results[case.name]
-    limit = 2.0 if case.pipe else 1.25
+    limit = 2.0 if case.pipe else 1.15
     assert r["swr"] <= limit, f"{case.name}: NEC SWR {r['swr']:.3f} (Z {r['z_nec']:.1f}) for {r}"
 
 
-@pytest.mark.parametrize("case", CASES, ids=[c.name for c in CASES])
+@pytest.mark.parametrize("case", THIN_CASES, ids=[c.name for c in THIN_CASES])
 def test_nec_and_model_2to1_bands_overlap(case, results):
+    """Thin wire only: for pipe and rod (spacing under ~10 radii) NEC-2 is no reference for the band
+    (DESIGN.md §7: for fat lines it reads the 2:1 band about 30 % wider than a full-wave method);
+    bench/fdtd_ref.py is their reference."""
     r = results[case.name]
-    assert r["overlap"] >= 0.8, f"{case.name}: bands NEC {r['band_nec']} model {r['band_model']}"
+    assert r["overlap"] >= 0.85, f"{case.name}: bands NEC {r['band_nec']} model {r['band_model']}"
+    (n_lo, n_hi), (m_lo, m_hi) = r["band_nec"], r["band_model"]
+    width = n_hi - n_lo
+    assert abs(m_lo - n_lo) <= 0.1 * width and abs(m_hi - n_hi) <= 0.1 * width, \
+        f"{case.name}: bands NEC {r['band_nec']} model {r['band_model']}"
 
 
 HORIZONTAL = [c for c in CASES if c.orientation == "horizontal"]
