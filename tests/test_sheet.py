@@ -180,7 +180,7 @@ def test_tuning_rows_are_the_sensitivities_formatted(solved):
             df = units.parse_quantity(key.split()[2] + " " + key.split()[3], "frequency")
             expected = units.format_length(abs(df / sens["dip_hz_per_m_radiator"]), "imperial")
             also = units.format_length(abs(df / sens["dip_hz_per_m_short"]), "imperial")
-            assert row.endswith(f"by {also}") or "short" not in row, (key, row, also)
+            assert row.endswith(f"by {also}") or "move the short" not in row, (key, row, also)
         elif key.startswith("R "):
             expected = units.format_length(abs(float(key.split()[1]) / sens["ohm_per_m_tap"]), "imperial")
         else:

@@ -58,6 +58,7 @@ Symbols (SI; frequency arrays broadcast):
 from __future__ import annotations
 
 import cmath
+import dataclasses
 import math
 from dataclasses import dataclass
 from typing import NamedTuple
@@ -713,8 +714,18 @@ def ground_efficiency(prep: _Prepared, L: float, S: float, i_rad: complex = 1.0)
         return 1.0
     from buildsheet.physics import pattern
     ant = prep.ant
-    return float(pattern.ground_efficiency(current_wires(prep, L, S, i_rad), prep.f, ant.ground_kind,
-                                           ant.ground_eps_r, ant.ground_sigma))
+    wires = current_wires(prep, L, S, i_rad)
+    # a structure resting on the ground (a vertical's short at height 0) is evaluated 0.005
+    # wavelength above it: the evanescent part of the reflected spectrum needs a gap (below about
+    # 0.002 wavelength it overflows), and the result moves by under 0.005 between gaps of 0.005 and
+    # 0.01 wavelength (a 2 m wire vertical over average ground: 0.450, 0.453)
+    gap = 5e-3 * C0 / prep.f
+    lowest = min(min(w.start[2], w.start[2] + w.length * w.direction[2]) for w in wires)
+    if lowest < gap:
+        lift = np.array([0.0, 0.0, gap - lowest])
+        wires = [dataclasses.replace(w, start=tuple(np.asarray(w.start) + lift)) for w in wires]
+    return float(pattern.ground_efficiency(wires, prep.f, ant.ground_kind, ant.ground_eps_r,
+                                           ant.ground_sigma))
 
 
 class Sensitivities(NamedTuple):
