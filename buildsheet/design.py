@@ -705,8 +705,12 @@ class _Validator:
                             f"of a wavelength at {units.format_frequency(d.frequency_hz)}; a thin-wire "
                             "model does not apply")
         vf = stub.velocity_factor or 1.0 / math.sqrt(stub.eps_r)
-        stub_estimate = vf * lam / 4
-        radiator_estimate = d.radiator.velocity_factor * lam / 2
+        # the calibration scales the lengths the solver cuts (solver.antenna_model divides the wire's
+        # velocity factor by radiator_scale and multiplies the stub's by stub_velocity_scale): a
+        # radiator_scale of 0.5 doubles the radiator, and the estimate must see that
+        cal = d.calibration
+        stub_estimate = vf * cal.stub_velocity_scale * lam / 4
+        radiator_estimate = d.radiator.velocity_factor / cal.radiator_scale * lam / 2
         if d.site.orientation in ("horizontal", "sloper"):
             bottom = d.site.height_m - stub_estimate
             if bottom < 0.3:
