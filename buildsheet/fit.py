@@ -563,6 +563,11 @@ def write_calibration(path: str, fit: Fit, date: str | None = None) -> dict:
     when = parse_date(date) if date is not None else sweep_date(fit.sweep.path)
     if when is None:
         raise RecordError(f"must be a date YYYY-MM-DD, got '{date}'", key="--date")
+    with record.design_lock(path):
+        return _write_calibration(path, fit, when)
+
+
+def _write_calibration(path: str, fit: Fit, when) -> dict:
     raw, before = record._read(path)
     bom = record._BOM if raw.startswith(record._BOM) else b""
     try:
