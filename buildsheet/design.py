@@ -672,7 +672,7 @@ class _Validator:
             raise self.fail(key, "is missing `date` (every as-built entry is dated)")
         when = parse_date(entry["date"])
         if when is None:
-            raise self.fail(f"{key}.date", f"must be a date YYYY-MM-DD, got {_describe(entry['date'])}")
+            raise self.fail(f"{key}.date", f"must be {DATE_FORMAT}, got {_describe(entry['date'])}")
         values: dict = {"date": when}
         for k, kind, out in (("radiator", "length", "radiator_m"), ("stub", "length", "stub_m"),
                              ("tap", "length", "tap_m"), ("resonance", "frequency", "resonance_hz")):
@@ -760,15 +760,25 @@ def _deg(rad: float) -> str:
     return f"{math.degrees(rad):.3g} deg"
 
 
+#: dates before this year are refused: no build sheet or measurement is older, and a PDF's dates
+#: (seconds since 1970 in reportlab) and strftime's unpadded years below 1000 would go wrong
+FIRST_YEAR = 1900
+DATE_FORMAT = f"a date YYYY-MM-DD from {FIRST_YEAR} on"
+
+
 def parse_date(value) -> str | None:
-    """An ISO date 'YYYY-MM-DD' from YAML (text or date), or None if it is not one."""
-    if isinstance(value, (date, datetime)):
-        return value.strftime("%Y-%m-%d")
+    """An ISO date 'YYYY-MM-DD' from YAML (text or date), or None if it is not one (or is before
+    FIRST_YEAR). Written with isoformat: four digits for every year, as typed."""
+    if isinstance(value, datetime):
+        value = value.date()
+    if isinstance(value, date):
+        return value.isoformat() if value.year >= FIRST_YEAR else None
     if isinstance(value, str) and re.fullmatch(r"\d{4}-\d{2}-\d{2}", value.strip()):
         try:
-            return datetime.strptime(value.strip(), "%Y-%m-%d").strftime("%Y-%m-%d")
+            day = datetime.strptime(value.strip(), "%Y-%m-%d").date()
         except ValueError:
             return None
+        return day.isoformat() if day.year >= FIRST_YEAR else None
     return None
 
 
@@ -780,12 +790,15 @@ def revision_date(path: str | None, override: str | None = None) -> str:
     if override:
         parsed = parse_date(override)
         if parsed is None:
-            raise BuildsheetError(f"must be a date YYYY-MM-DD, got '{override}'", key="--date")
+            raise BuildsheetError(f"must be {DATE_FORMAT}, got '{one_line(override)}'", key="--date")
         return parsed
     epoch = os.environ.get("SOURCE_DATE_EPOCH")
     if epoch:
         try:
-            return datetime.fromtimestamp(int(epoch), tz=timezone.utc).strftime("%Y-%m-%d")
+            day = datetime.fromtimestamp(int(epoch), tz=timezone.utc).date()
+            if day.year < FIRST_YEAR:
+                raise ValueError(epoch)
+            return day.isoformat()
         except (ValueError, OverflowError, OSError):
             raise BuildsheetError(f"must be seconds since 1970, got '{epoch}'",
                                   key="SOURCE_DATE_EPOCH") from None

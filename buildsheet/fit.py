@@ -62,8 +62,8 @@ import yaml
 from scipy.optimize import brentq, least_squares, root
 
 from buildsheet import record, units
-from buildsheet.design import Calibration, Design, design_from_text, parse_date
-from buildsheet.errors import DesignError, RecordError, SweepError
+from buildsheet.design import DATE_FORMAT, Calibration, Design, design_from_text, parse_date
+from buildsheet.errors import DesignError, RecordError, SweepError, one_line
 from buildsheet.physics import jpole
 from buildsheet.solver import Dimensions, antenna_model, solve
 from buildsheet.touchstone import Sweep
@@ -237,8 +237,14 @@ def check_coverage(sweep: Sweep, z_ref: float) -> int:
     if n < MIN_POINTS:
         raise SweepError(f"has {n} points; a fit needs at least {MIN_POINTS} across the antenna's "
                          "match", file=sweep.path)
-    mag = np.abs(sweep.reflection(z_ref))
+    with np.errstate(all="ignore"):
+        mag = np.abs(sweep.reflection(z_ref))
+    mag = np.where(np.isfinite(mag), mag, 1.0)     # an impedance too large for the division: an open
     i = int(np.argmin(mag))
+    if not mag[i] < 1.0:
+        raise SweepError(f"reflects all the power at every point (|S11| >= 1 on {z_ref:g} ohm even at "
+                         "its best): no antenna is connected there, or the analyzer is not calibrated",
+                         file=sweep.path)
     lowest = f"its lowest SWR ({_swr(mag[i]):.2f}, at {units.format_frequency(f[i])})"
     advice = ("sweep a range with the lowest SWR well inside it, a few points beyond it on each side; "
               "the fit does not guess from a sweep that does not show the match")
@@ -562,7 +568,7 @@ def write_calibration(path: str, fit: Fit, date: str | None = None) -> dict:
         raise RecordError(f"no calibration written: {fit.calibration_note}", file=path)
     when = parse_date(date) if date is not None else sweep_date(fit.sweep.path)
     if when is None:
-        raise RecordError(f"must be a date YYYY-MM-DD, got '{date}'", key="--date")
+        raise RecordError(f"must be {DATE_FORMAT}, got '{one_line(str(date))}'", key="--date")
     with record.design_lock(path):
         return _write_calibration(path, fit, when)
 

@@ -50,7 +50,7 @@ from dataclasses import dataclass
 import yaml
 
 from buildsheet import units
-from buildsheet.design import Design, RecordEntry, design_from_text, parse_date
+from buildsheet.design import DATE_FORMAT, Design, RecordEntry, design_from_text, parse_date
 from buildsheet.errors import BuildsheetError, DesignError, RecordError, one_line
 from buildsheet.yamlread import MAX_BYTES
 from buildsheet.writers.files import fsync_dir, read_capped
@@ -132,7 +132,7 @@ def _entry(fields: Mapping[str, str], path: str) -> tuple[dict[str, str], Record
         if key == "date":
             when = parse_date(typed)
             if when is None:
-                raise fail(key, f"must be a date YYYY-MM-DD, got '{one_line(typed)}'")
+                raise fail(key, f"must be {DATE_FORMAT}, got '{one_line(typed)}'")
             written[key], values["date"] = when, when
         elif key in _QUANTITY_KEYS:
             kind, attribute = _QUANTITY_KEYS[key]
