@@ -164,6 +164,7 @@ def _draw(args) -> int:
     out = args.output or os.path.join("out", design.name)
     files = {os.path.join(out, f"{design.name}-{key}.svg"): render_svg(drawing)
              for key, drawing in figures(design, solution, date).items()}
+    _not_the_design(files, args.design)
     try:
         os.makedirs(out, exist_ok=True)
         write_many_atomic(files)   # all or nothing: an interrupted run keeps the previous files
@@ -194,6 +195,7 @@ def _build(args) -> int:
                                                                   drawings)}
     files.update({os.path.join(out, f"{design.name}-{key}.svg"): render_svg(drawing)
                   for key, drawing in drawings.items()})
+    _not_the_design(files, args.design)
     try:
         os.makedirs(out, exist_ok=True)
         write_many_atomic(files)   # all or nothing: an interrupted build keeps the previous files
@@ -202,6 +204,17 @@ def _build(args) -> int:
     print(f"{out}: {design.name}.pdf and {len(drawings)} SVG figures, document {solution.design_id}, "
           f"revised {date}")
     return 0
+
+
+def _not_the_design(files, design: str) -> None:
+    """Refuse an output that is the design file itself (by any path, or through a link)."""
+    import os
+
+    real = os.path.realpath(design)
+    for path in files:
+        if os.path.realpath(path) == real or (os.path.lexists(path) and os.path.samefile(path, design)):
+            raise BuildsheetError("is the design file itself (or a link to it); the output would "
+                                  "overwrite it: choose another output folder", file=str(path))
 
 
 def _record(args) -> int:
