@@ -267,10 +267,7 @@ def _numbers(value, where: str):
             yield from _numbers(v, f"{where}[{i}]")
     elif isinstance(value, bool) or value is None or isinstance(value, str):
         return
-    elif isinstance(value, (complex, np.complexfloating)):
-        yield f"{where}.real", float(value.real)
-        yield f"{where}.imag", float(value.imag)
-    else:
+    else:       # a complex number where a real one belongs is a fault too (JSON cannot hold it)
         yield where, value
 
 
@@ -282,7 +279,7 @@ def solution_problems(solution: Solution) -> list[str]:
     # the JSON form, and every field itself (some, such as the wrap allowance, are not in the JSON)
     fields = {f.name: getattr(solution, f.name) for f in dataclasses.fields(solution)}
     fields = {k: (dataclasses.asdict(v) if dataclasses.is_dataclass(v) else v) for k, v in fields.items()
-              if k not in ("cut_list", "hardware", "sweep")}
+              if k not in ("cut_list", "hardware", "sweep", "feed_impedance")}   # (in the JSON, as R, X)
     numbers = list(_numbers(solution.to_dict(), "")) + list(_numbers(fields, ""))
     for where, value in numbers:
         try:
@@ -290,7 +287,8 @@ def solution_problems(solution: Solution) -> list[str]:
         except (TypeError, OverflowError):
             finite = False
         if not finite:
-            problems.append(f"{where} is {value!r}")
+            kind = "complex " if isinstance(value, (complex, np.complexfloating)) else ""
+            problems.append(f"{where} is {kind}{value!r}")
     if problems:
         return problems
     d, e = solution.dimensions, solution.exposure

@@ -175,6 +175,18 @@ def test_a_gated_solution_never_reaches_an_output(tmp_path, monkeypatch, command
     assert not out.exists() or not any(out.rglob("*"))
 
 
+def test_a_complex_number_where_a_real_one_belongs_is_refused(oak_solution):
+    # issue 15: a complex value reached the JSON (exit 1) or a float format after a ComplexWarning
+    _, solution = oak_solution
+    fields = dict(_float_fields(solution))
+    for label in ("efficiency", "coax_loss_db", "exposure.distance_general_m", "power_lost_w.radiator_wire",
+                  "dimensions.tap"):
+        value = fields[label](solution, complex(0.5, 1e-3))
+        assert solver.solution_problems(value), label
+    for value in (np.complex128(0.5 + 0j), complex(0.5, 0.0)):
+        assert solver.solution_problems(dataclasses.replace(solution, efficiency=value))
+
+
 def test_the_gate_reads_numpy_scalars(oak_solution):
     _, solution = oak_solution
     bad = dataclasses.replace(solution, efficiency=np.float64(np.nan))
