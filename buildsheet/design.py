@@ -363,7 +363,13 @@ class _Validator:
 
     def in_range(self, key: str, value: float, lo: float, hi: float, shown) -> float:
         if not (lo <= value <= hi):
-            raise self.fail(key, f"must be from {shown(lo)} to {shown(hi)}, got {shown(value)}")
+            got = shown(value)
+            # a value rounded onto the limit would look inside it ("got 0.2 mm" for 0.19999 mm)
+            if value < lo and got == shown(lo):
+                got = f"just under {got} ({value:.6g} in SI units)"
+            elif value > hi and got == shown(hi):
+                got = f"just over {got} ({value:.6g} in SI units)"
+            raise self.fail(key, f"must be from {shown(lo)} to {shown(hi)}, got {got}")
         return value
 
     def catalogue(self, key: str, kind: str, default: str | None = None):
