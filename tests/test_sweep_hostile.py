@@ -150,3 +150,32 @@ def test_the_point_count_is_capped_before_the_fit_cost_grows(tmp_path, kind):
 def test_the_demo_sweep_still_fits():
     status, out, err, caught = _run(["fit", OAK, SWEEP, "--json"])
     assert status == 0 and not caught, err
+
+
+def test_the_fit_cost_does_not_grow_with_the_point_count(tmp_path, monkeypatch):
+    # the demo sweep resampled to the cap: the least squares see at most FIT_POINTS (+ the match),
+    # and the advice agrees with the fit of the demo's own 36 points to a millimetre
+    from buildsheet import fit as fit_module
+    rows = [line.split() for line in SWEEP.read_text().splitlines() if line[:1].isdigit()]
+    f = np.array([float(r[0]) for r in rows])
+    mag = np.array([float(r[1]) for r in rows])
+    ang = np.unwrap(np.radians([float(r[2]) for r in rows]))
+    dense = np.linspace(f[0], f[-1], touchstone.MAX_POINTS)
+    path = tmp_path / "dense.s1p"
+    path.write_text("# MHz S MA R 50\n" + "".join(
+        f"{a:.7f} {b:.7f} {np.degrees(c):.4f}\n"
+        for a, b, c in zip(dense, np.interp(dense, f, mag), np.interp(dense, f, ang))))
+    seen = []
+    real = fit_module._fit_electrical
+
+    def spy(model, freqs, *args, **kwargs):
+        seen.append(len(freqs))
+        return real(model, freqs, *args, **kwargs)
+
+    monkeypatch.setattr(fit_module, "_fit_electrical", spy)
+    from buildsheet.design import load_design
+    design = load_design(OAK)
+    dense_fit = fit_module.fit_sweep(design, touchstone.read_sweep(path))
+    assert seen and max(seen) <= fit_module.FIT_POINTS + 1, seen
+    demo_fit = fit_module.fit_sweep(design, touchstone.read_sweep(SWEEP))
+    np.testing.assert_allclose(dense_fit.advised, demo_fit.advised, atol=1e-3)
