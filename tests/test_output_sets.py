@@ -106,8 +106,9 @@ def _killed_build(out, date, die_at: tuple[str, int]):
 N_FILES = 8     # the PDF and 7 SVGs of a build
 
 
-@pytest.mark.parametrize("die_at", [("replace", k) for k in range(1, N_FILES + 1)] +
-                         [("fsync", k) for k in (1, 4, N_FILES)])
+# a kill before the first rename, after the first, in the middle, before the last; while writing
+@pytest.mark.parametrize("die_at", [("replace", k) for k in (1, 2, 5, N_FILES)] +
+                         [("fsync", k) for k in (1, N_FILES)])
 def test_a_kill_anywhere_in_a_build_leaves_one_set_and_no_temporary_file(tmp_path, reference, die_at):
     old, new = reference["2025-01-01"], reference["2025-02-02"]
     assert len(old) == N_FILES
