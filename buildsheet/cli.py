@@ -8,6 +8,7 @@ layer over the library; libraries a command does not need are not imported.
 from __future__ import annotations
 
 import argparse
+import errno
 import sys
 
 from buildsheet.errors import BuildsheetError
@@ -163,6 +164,7 @@ def _draw(args) -> int:
     out = args.output or os.path.join("out", design.name)
     files = {os.path.join(out, f"{design.name}-{key}.svg"): render_svg(drawing)
              for key, drawing in figures(design, solution, date).items()}
+    _not_the_design(files, args.design)
     try:
         os.makedirs(out, exist_ok=True)
         write_many_atomic(files)   # all or nothing: an interrupted run keeps the previous files
@@ -193,6 +195,7 @@ def _build(args) -> int:
                                                                   drawings)}
     files.update({os.path.join(out, f"{design.name}-{key}.svg"): render_svg(drawing)
                   for key, drawing in drawings.items()})
+    _not_the_design(files, args.design)
     try:
         os.makedirs(out, exist_ok=True)
         write_many_atomic(files)   # all or nothing: an interrupted build keeps the previous files
@@ -201,6 +204,17 @@ def _build(args) -> int:
     print(f"{out}: {design.name}.pdf and {len(drawings)} SVG figures, document {solution.design_id}, "
           f"revised {date}")
     return 0
+
+
+def _not_the_design(files, design: str) -> None:
+    """Refuse an output that is the design file itself (by any path, or through a link)."""
+    import os
+
+    real = os.path.realpath(design)
+    for path in files:
+        if os.path.realpath(path) == real or (os.path.lexists(path) and os.path.samefile(path, design)):
+            raise BuildsheetError("is the design file itself (or a link to it); the output would "
+                                  "overwrite it: choose another output folder", file=str(path))
 
 
 def _record(args) -> int:
@@ -274,11 +288,79 @@ def _check(args) -> int:
     return status
 
 
+#: the largest SOURCE_DATE_EPOCH taken: the end of year 9999 (datetime's last year)
+_MAX_EPOCH = 253402300799
+
+
+def _check_environment() -> None:
+    """Refuse, before any library is imported (numpy reads SOURCE_DATE_EPOCH at import), an
+    environment that would break a command halfway."""
+    import os
+
+    epoch = os.environ.get("SOURCE_DATE_EPOCH")
+    if epoch:
+        text = epoch.strip()
+        if not (text.isascii() and text.isdigit() and len(text) <= 12 and int(text) <= _MAX_EPOCH):
+            shown = text if len(text) <= 30 else text[:27] + "..."
+            raise BuildsheetError(f"must be whole seconds since 1970 up to the year 9999, got "
+                                  f"'{shown}'", key="SOURCE_DATE_EPOCH")
+
+
+def _output_error(exc: BaseException) -> int:
+    """Exit status and message for a failure to write to stdout or stderr."""
+    if isinstance(exc, BrokenPipeError):
+        # the reader went away (`buildsheet solve x | head -1`): stop quietly, as Unix tools do
+        _silence_stdout()
+        return 141      # 128 + SIGPIPE, the status a shell shows for a tool killed by a closed pipe
+    if isinstance(exc, UnicodeEncodeError):
+        problem = (f"the output's encoding ({exc.encoding}) cannot show '{exc.object[exc.start:exc.end]}'"
+                   .encode("ascii", "backslashreplace").decode("ascii")
+                   + "; set PYTHONIOENCODING=utf-8 or use a UTF-8 terminal")
+    elif getattr(exc, "errno", None) == errno.EBADF:
+        problem = "cannot write the output: standard output is closed"
+    else:
+        problem = f"cannot write the output: {getattr(exc, 'strerror', None) or exc}"
+    _silence_stdout()
+    try:
+        print(f"error: {problem}", file=sys.stderr)
+        sys.stderr.flush()
+    except (OSError, ValueError):
+        pass
+    return 2
+
+
+def _silence_stdout() -> None:
+    """Point stdout at /dev/null, so that the interpreter's own flush at exit cannot fail again."""
+    import os
+
+    try:
+        devnull = os.open(os.devnull, os.O_WRONLY)
+        os.dup2(devnull, sys.stdout.fileno())
+        os.close(devnull)
+    except (OSError, ValueError, AttributeError):
+        pass
+
+
 def main(argv: list[str] | None = None) -> int:
     argv = sys.argv[1:] if argv is None else list(argv)
     try:
+        _check_environment()
+        if sys.stdout is None:
+            raise BuildsheetError("cannot write the output: standard output is closed")
         args = _parser().parse_args(argv)
-        return args.run(args)
+        status = args.run(args)
+        sys.stdout.flush()      # a full disk or a closed pipe shows here, not after main returns
+        return status
+    except (BrokenPipeError, UnicodeEncodeError) as exc:
+        return _output_error(exc)
+    except OSError as exc:
+        if exc.errno not in (errno.ENOSPC, errno.EDQUOT, errno.EIO, errno.EBADF):
+            print(f"internal error (a bug in buildsheet, please report it): {type(exc).__name__}: {exc}",
+                  file=sys.stderr)
+            return 1
+        # the user's disk or terminal: files written by a command report their own errors, so this
+        # is the output stream (stdout on a full device, a closed descriptor)
+        return _output_error(exc)
     except _ArgumentError as exc:
         print(f"error: {exc}", file=sys.stderr)
         return 2
@@ -297,4 +379,17 @@ def main(argv: list[str] | None = None) -> int:
 
 
 def entry() -> None:
-    sys.exit(main())
+    """The console script: main() with Python's warnings kept off the user's terminal (a case that
+    would have warned is refused by the finite-number gates instead; tests call main() and see every
+    warning)."""
+    import warnings
+
+    with warnings.catch_warnings():
+        warnings.simplefilter("ignore")
+        status = main()
+    try:
+        if sys.stdout is not None:
+            sys.stdout.flush()
+    except (OSError, ValueError) as exc:
+        status = _output_error(exc)
+    sys.exit(status)

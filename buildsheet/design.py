@@ -363,7 +363,13 @@ class _Validator:
 
     def in_range(self, key: str, value: float, lo: float, hi: float, shown) -> float:
         if not (lo <= value <= hi):
-            raise self.fail(key, f"must be from {shown(lo)} to {shown(hi)}, got {shown(value)}")
+            got = shown(value)
+            # a value rounded onto the limit would look inside it ("got 0.2 mm" for 0.19999 mm)
+            if value < lo and got == shown(lo):
+                got = f"just under {got} ({value:.6g} in SI units)"
+            elif value > hi and got == shown(hi):
+                got = f"just over {got} ({value:.6g} in SI units)"
+            raise self.fail(key, f"must be from {shown(lo)} to {shown(hi)}, got {got}")
         return value
 
     def catalogue(self, key: str, kind: str, default: str | None = None):
@@ -672,7 +678,7 @@ class _Validator:
             raise self.fail(key, "is missing `date` (every as-built entry is dated)")
         when = parse_date(entry["date"])
         if when is None:
-            raise self.fail(f"{key}.date", f"must be a date YYYY-MM-DD, got {_describe(entry['date'])}")
+            raise self.fail(f"{key}.date", f"must be {DATE_FORMAT}, got {_describe(entry['date'])}")
         values: dict = {"date": when}
         for k, kind, out in (("radiator", "length", "radiator_m"), ("stub", "length", "stub_m"),
                              ("tap", "length", "tap_m"), ("resonance", "frequency", "resonance_hz")):
@@ -705,8 +711,12 @@ class _Validator:
                             f"of a wavelength at {units.format_frequency(d.frequency_hz)}; a thin-wire "
                             "model does not apply")
         vf = stub.velocity_factor or 1.0 / math.sqrt(stub.eps_r)
-        stub_estimate = vf * lam / 4
-        radiator_estimate = d.radiator.velocity_factor * lam / 2
+        # the calibration scales the lengths the solver cuts (solver.antenna_model divides the wire's
+        # velocity factor by radiator_scale and multiplies the stub's by stub_velocity_scale): a
+        # radiator_scale of 0.5 doubles the radiator, and the estimate must see that
+        cal = d.calibration
+        stub_estimate = vf * cal.stub_velocity_scale * lam / 4
+        radiator_estimate = d.radiator.velocity_factor / cal.radiator_scale * lam / 2
         if d.site.orientation in ("horizontal", "sloper"):
             bottom = d.site.height_m - stub_estimate
             if bottom < 0.3:
@@ -756,15 +766,25 @@ def _deg(rad: float) -> str:
     return f"{math.degrees(rad):.3g} deg"
 
 
+#: dates before this year are refused: no build sheet or measurement is older, and a PDF's dates
+#: (seconds since 1970 in reportlab) and strftime's unpadded years below 1000 would go wrong
+FIRST_YEAR = 1900
+DATE_FORMAT = f"a date YYYY-MM-DD from {FIRST_YEAR} on"
+
+
 def parse_date(value) -> str | None:
-    """An ISO date 'YYYY-MM-DD' from YAML (text or date), or None if it is not one."""
-    if isinstance(value, (date, datetime)):
-        return value.strftime("%Y-%m-%d")
+    """An ISO date 'YYYY-MM-DD' from YAML (text or date), or None if it is not one (or is before
+    FIRST_YEAR). Written with isoformat: four digits for every year, as typed."""
+    if isinstance(value, datetime):
+        value = value.date()
+    if isinstance(value, date):
+        return value.isoformat() if value.year >= FIRST_YEAR else None
     if isinstance(value, str) and re.fullmatch(r"\d{4}-\d{2}-\d{2}", value.strip()):
         try:
-            return datetime.strptime(value.strip(), "%Y-%m-%d").strftime("%Y-%m-%d")
+            day = datetime.strptime(value.strip(), "%Y-%m-%d").date()
         except ValueError:
             return None
+        return day.isoformat() if day.year >= FIRST_YEAR else None
     return None
 
 
@@ -776,12 +796,15 @@ def revision_date(path: str | None, override: str | None = None) -> str:
     if override:
         parsed = parse_date(override)
         if parsed is None:
-            raise BuildsheetError(f"must be a date YYYY-MM-DD, got '{override}'", key="--date")
+            raise BuildsheetError(f"must be {DATE_FORMAT}, got '{one_line(override)}'", key="--date")
         return parsed
     epoch = os.environ.get("SOURCE_DATE_EPOCH")
     if epoch:
         try:
-            return datetime.fromtimestamp(int(epoch), tz=timezone.utc).strftime("%Y-%m-%d")
+            day = datetime.fromtimestamp(int(epoch), tz=timezone.utc).date()
+            if day.year < FIRST_YEAR:
+                raise ValueError(epoch)
+            return day.isoformat()
         except (ValueError, OverflowError, OSError):
             raise BuildsheetError(f"must be seconds since 1970, got '{epoch}'",
                                   key="SOURCE_DATE_EPOCH") from None

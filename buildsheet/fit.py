@@ -62,8 +62,8 @@ import yaml
 from scipy.optimize import brentq, least_squares, root
 
 from buildsheet import record, units
-from buildsheet.design import Calibration, Design, design_from_text, parse_date
-from buildsheet.errors import DesignError, RecordError, SweepError
+from buildsheet.design import DATE_FORMAT, Calibration, Design, design_from_text, parse_date
+from buildsheet.errors import DesignError, RecordError, SweepError, one_line
 from buildsheet.physics import jpole
 from buildsheet.solver import Dimensions, antenna_model, solve
 from buildsheet.touchstone import Sweep
@@ -237,8 +237,14 @@ def check_coverage(sweep: Sweep, z_ref: float) -> int:
     if n < MIN_POINTS:
         raise SweepError(f"has {n} points; a fit needs at least {MIN_POINTS} across the antenna's "
                          "match", file=sweep.path)
-    mag = np.abs(sweep.reflection(z_ref))
+    with np.errstate(all="ignore"):
+        mag = np.abs(sweep.reflection(z_ref))
+    mag = np.where(np.isfinite(mag), mag, 1.0)     # an impedance too large for the division: an open
     i = int(np.argmin(mag))
+    if not mag[i] < 1.0:
+        raise SweepError(f"reflects all the power at every point (|S11| >= 1 on {z_ref:g} ohm even at "
+                         "its best): no antenna is connected there, or the analyzer is not calibrated",
+                         file=sweep.path)
     lowest = f"its lowest SWR ({_swr(mag[i]):.2f}, at {units.format_frequency(f[i])})"
     advice = ("sweep a range with the lowest SWR well inside it, a few points beyond it on each side; "
               "the fit does not guess from a sweep that does not show the match")
@@ -303,7 +309,11 @@ def fit_sweep(design: Design, sweep: Sweep, built: Dimensions | None = None) -> 
     rho_meas = sweep.reflection(z_ref)
     w = np.clip(1.0 - np.abs(rho_meas) ** 2, 0.0, 1.0) ** WEIGHT_POWER
 
-    x2, rms2, edge2 = _fit_electrical(model0, f, rho_meas, w, z_ref, D0, False)
+    # the least squares see at most FIT_POINTS of the points (evenly by index, the match kept): the
+    # fit's cost does not grow with an analyser's point count
+    keep = _thinned(len(f), int(np.argmin(np.abs(rho_meas))))
+    f_t, rho_t, w_t = f[keep], rho_meas[keep], w[keep]
+    x2, rms2, edge2 = _fit_electrical(model0, f_t, rho_t, w_t, z_ref, D0, False)
     if edge2:
         raise SweepError(f"does not look like a sweep of this design's antenna: the fitted "
                          f"{' and '.join(edge2)} reached the edge of the range the fit allows "
@@ -311,7 +321,7 @@ def fit_sweep(design: Design, sweep: Sweep, built: Dimensions | None = None) -> 
                          f"{ELECTRICAL_BOUNDS[2][0]:g}-{ELECTRICAL_BOUNDS[2][1]:g} times as built); "
                          "check that the sweep was taken at the tap (not through the coax) on the "
                          "antenna of this design file", file=sweep.path)
-    x3, rms3, edge3 = _fit_electrical(model0, f, rho_meas, w, z_ref, D0, True, start=x2)
+    x3, rms3, edge3 = _fit_electrical(model0, f_t, rho_t, w_t, z_ref, D0, True, start=x2)
     # a radiator fitted to the edge of its range is no description: keep it as built
     x = x3 if not edge3 else np.array([x2[0], x2[1], 1.0])
     retune = not edge3 and rms3 <= RADIATOR_EVIDENCE * rms2
@@ -353,6 +363,17 @@ def fit_sweep(design: Design, sweep: Sweep, built: Dimensions | None = None) -> 
         fit_rms_reflection=float(np.sqrt(np.mean(np.abs(_rho(z_fit, z_ref) - rho_meas) ** 2))),
         swr_before=swr_before, best_hz=float(f[i_best]), best_swr=float(_swr(abs(rho_meas[i_best]))),
         swr_after=swr_after)
+
+
+#: most points the least squares of a fit use
+FIT_POINTS = 401
+
+
+def _thinned(n: int, must: int) -> np.ndarray:
+    """Indices of at most FIT_POINTS (+1) of n points, evenly spread, always holding `must`."""
+    if n <= FIT_POINTS:
+        return np.arange(n)
+    return np.union1d(np.round(np.linspace(0, n - 1, FIT_POINTS)).astype(int), [must])
 
 
 def _rho(z, z_ref):
@@ -562,7 +583,12 @@ def write_calibration(path: str, fit: Fit, date: str | None = None) -> dict:
         raise RecordError(f"no calibration written: {fit.calibration_note}", file=path)
     when = parse_date(date) if date is not None else sweep_date(fit.sweep.path)
     if when is None:
-        raise RecordError(f"must be a date YYYY-MM-DD, got '{date}'", key="--date")
+        raise RecordError(f"must be {DATE_FORMAT}, got '{one_line(str(date))}'", key="--date")
+    with record.design_lock(path):
+        return _write_calibration(path, fit, when)
+
+
+def _write_calibration(path: str, fit: Fit, when) -> dict:
     raw, before = record._read(path)
     bom = record._BOM if raw.startswith(record._BOM) else b""
     try:

@@ -171,8 +171,38 @@ def prepare_one(index: int, design: Design, date: str | None) -> Part:
 
 
 def _ignore_interrupt() -> None:
-    """Workers leave Ctrl-C to the main process, which stops them (one message, not one per worker)."""
+    """Worker set-up. Workers leave Ctrl-C to the main process, which stops them (one message, not
+    one per worker), and die with the main process however it ends (SIGTERM, SIGKILL): the kernel
+    sends them SIGKILL when it goes (Linux prctl PR_SET_PDEATHSIG), and a watchdog thread ends a
+    worker whose parent has changed (other systems, or a parent gone before the prctl)."""
     signal.signal(signal.SIGINT, signal.SIG_IGN)
+    parent = os.getppid()
+    _die_with_parent()
+    if os.getppid() != parent:
+        os._exit(1)
+
+    def watch():
+        import time
+        while True:
+            time.sleep(0.5)
+            if os.getppid() != parent:
+                os._exit(1)
+
+    import threading
+    threading.Thread(target=watch, name="buildsheet-parent-watch", daemon=True).start()
+
+
+def _die_with_parent() -> None:
+    """Ask Linux to SIGKILL this process when its parent exits; nothing elsewhere."""
+    if not sys.platform.startswith("linux"):
+        return
+    try:
+        import ctypes
+        libc = ctypes.CDLL(None, use_errno=True)
+        PR_SET_PDEATHSIG = 1
+        libc.prctl(PR_SET_PDEATHSIG, signal.SIGKILL, 0, 0, 0)
+    except (OSError, AttributeError):
+        pass
 
 
 def prepare(designs: Sequence[Design], date: str | None = None, *, jobs: int | None = None,

@@ -22,6 +22,7 @@ from buildsheet import units
 from buildsheet.design import design_from_text
 from buildsheet.errors import BuildsheetError, DesignError
 from buildsheet.errors import one_line
+from buildsheet.yamlread import MAX_BYTES
 
 GIT_TIMEOUT_S = 30
 _COLUMNS = ("date", "commit", "document ID", "radiator", "stub", "tap", "spacing", "subject")
@@ -54,6 +55,11 @@ def history(path: str | os.PathLike) -> History:
     file is not in a git repository or git is not installed."""
     path = os.fspath(path)
     if not os.path.isfile(path):
+        if os.path.isdir(path):
+            raise DesignError("is a directory, not a design file", file=path)
+        if os.path.exists(path):
+            raise DesignError("is not a regular file (a named pipe, device or socket), not a design file",
+                              file=path)
         raise DesignError("no such file", file=path)
     directory = os.path.dirname(os.path.abspath(path))
     name = os.path.basename(path)
@@ -106,7 +112,10 @@ def _parse_log(out: bytes) -> list[_Commit]:
     path = None
     for record in out.split(b"\x1e")[1:]:
         header, _, changes = record.partition(b"\x00")
-        sha, short, date, subject = header.decode("utf-8", "replace").split("\x1f", 3)
+        parts = header.decode("utf-8", "replace").split("\x1f", 3)
+        if len(parts) != 4:     # not the format asked for: skip rather than fail
+            continue
+        sha, short, date, subject = parts
         fields = [f for f in changes.strip(b"\n").split(b"\x00") if f]
         status = None
         if fields:
@@ -121,6 +130,16 @@ def _revision(directory: str, c: _Commit, solved: dict) -> Revision:
     row = Revision(commit=c.short, date=c.date, subject=c.subject)
     if c.status == "D" or c.path is None:
         return _with(row, problem="the file was deleted in this commit")
+    size = _git(directory, "cat-file", "-s", f"{c.sha}:{c.path}")
+    if size.returncode != 0:
+        return _with(row, problem=f"git could not read it: {_first_line(size.stderr)}")
+    try:
+        n = int(size.stdout.strip())
+    except ValueError:
+        return _with(row, problem="git gave no size for it")
+    if n > MAX_BYTES:
+        return _with(row, problem=f"does not validate: is larger than {MAX_BYTES // (1024 * 1024)} MiB; "
+                                  "a design file is a few hundred lines at most")
     blob = _git(directory, "cat-file", "blob", f"{c.sha}:{c.path}")
     if blob.returncode != 0:
         return _with(row, problem=f"git could not read it: {_first_line(blob.stderr)}")
@@ -152,12 +171,22 @@ def _with(row: Revision, **changes) -> Revision:
     return dataclasses.replace(row, **changes)
 
 
+#: settings that override the repository's: the output's format (signatures, colours, quoted paths,
+#: the log's encoding) and anything that would run a program the repository names (a file-system
+#: monitor, hooks, a pager, external diff or text conversion)
+_GIT_SAFE = ("-c", "log.showSignature=false", "-c", "core.quotePath=false", "-c", "core.fsmonitor=false",
+             "-c", "core.hooksPath=/dev/null", "-c", "i18n.logOutputEncoding=UTF-8", "-c", "core.pager=cat",
+             "-c", "diff.external=", "-c", "core.untrackedCache=false", "--no-pager", "--no-optional-locks")
+
+
 def _git(directory: str, *args: str) -> subprocess.CompletedProcess:
-    """Run git in `directory` with the user's own configuration, except what would change the
-    output's format (signatures, colours, quoted paths)."""
+    """Run git in `directory` with the user's own configuration, except _GIT_SAFE; path arguments are
+    literal (GIT_LITERAL_PATHSPECS: a file named `[o]ak.yaml` or `*.yaml` is that file, not a
+    pattern)."""
+    env = dict(os.environ, GIT_LITERAL_PATHSPECS="1", GIT_TERMINAL_PROMPT="0", GIT_OPTIONAL_LOCKS="0")
     try:
-        return subprocess.run(["git", "-c", "log.showSignature=false", "-c", "core.quotePath=false",
-                               *args], cwd=directory, capture_output=True, timeout=GIT_TIMEOUT_S)
+        return subprocess.run(["git", *_GIT_SAFE, *args], cwd=directory, capture_output=True,
+                              timeout=GIT_TIMEOUT_S, env=env, stdin=subprocess.DEVNULL)
     except subprocess.TimeoutExpired:
         raise BuildsheetError(f"git {args[0]} did not finish within {GIT_TIMEOUT_S} s",
                               file=directory) from None

@@ -1,6 +1,6 @@
 """As-built entries: owns appending one entry to a design file's `record:` list without disturbing a
 byte of what the user wrote; it must not re-dump YAML, change any other key, or touch any file but the
-design file and its backup.
+design file, its backup and, while it works, the lock file `DESIGN.lock` (see design_lock).
 
 How an entry is added (DESIGN.md §3):
 1. The file is read once as bytes (with its stat); the old Design is validated from that text.
@@ -33,17 +33,24 @@ for: the unchanged-on-disk check between the temporary write and the rename, and
 
 from __future__ import annotations
 
+import contextlib
 import os
 import re
 import stat
 import tempfile
+import time
+
+try:
+    import fcntl
+except ImportError:     # Windows: the lock file itself is the lock (created exclusively)
+    fcntl = None
 from collections.abc import Mapping
 from dataclasses import dataclass
 
 import yaml
 
 from buildsheet import units
-from buildsheet.design import Design, RecordEntry, design_from_text, parse_date
+from buildsheet.design import DATE_FORMAT, Design, RecordEntry, design_from_text, parse_date
 from buildsheet.errors import BuildsheetError, DesignError, RecordError, one_line
 from buildsheet.yamlread import MAX_BYTES
 from buildsheet.writers.files import fsync_dir, read_capped
@@ -87,17 +94,18 @@ def add_entry(path: str | os.PathLike, fields: Mapping[str, str]) -> Added:
     validate) naming the option; the file is then untouched.
     """
     path = os.fspath(path)
-    raw, before = _read(path)
-    bom = _BOM if raw.startswith(_BOM) else b""
-    try:
-        text = raw[len(bom):].decode("utf-8")
-    except UnicodeDecodeError as exc:
-        raise DesignError(f"is not UTF-8 text (byte {exc.start + len(bom)})", file=path) from None
-    old = design_from_text(text, path)
     written, expected = _entry(fields, path)
-    new_text = splice(text, written)
-    new = _read_back(new_text, old, expected, path)
-    backup = _replace(path, raw, before, bom + new_text.encode("utf-8"))
+    with design_lock(path):
+        raw, before = _read(path)
+        bom = _BOM if raw.startswith(_BOM) else b""
+        try:
+            text = raw[len(bom):].decode("utf-8")
+        except UnicodeDecodeError as exc:
+            raise DesignError(f"is not UTF-8 text (byte {exc.start + len(bom)})", file=path) from None
+        old = design_from_text(text, path)
+        new_text = splice(text, written)
+        new = _read_back(new_text, old, expected, path)
+        backup = _replace(path, raw, before, bom + new_text.encode("utf-8"))
     return Added(path=path, backup=backup, index=len(new.record) - 1, entry=new.record[-1],
                  document_id=new.document_id)
 
@@ -124,7 +132,7 @@ def _entry(fields: Mapping[str, str], path: str) -> tuple[dict[str, str], Record
         if key == "date":
             when = parse_date(typed)
             if when is None:
-                raise fail(key, f"must be a date YYYY-MM-DD, got '{one_line(typed)}'")
+                raise fail(key, f"must be {DATE_FORMAT}, got '{one_line(typed)}'")
             written[key], values["date"] = when, when
         elif key in _QUANTITY_KEYS:
             kind, attribute = _QUANTITY_KEYS[key]
@@ -288,6 +296,67 @@ def _read_back(new_text: str, old: Design, expected: RecordEntry, path: str) -> 
 # ----------------------------------------------------------------------------------------------
 # Reading and replacing the file
 
+#: how long a command waits for another buildsheet command to finish with the same design, s
+LOCK_WAIT_S = 10.0
+LOCK_SUFFIX = ".lock"
+
+
+def _lock_path(path: str) -> str:
+    target = os.path.realpath(path)
+    return target + LOCK_SUFFIX
+
+
+@contextlib.contextmanager
+def design_lock(path: str, wait_s: float | None = None):
+    """Hold the lock of the design at `path` (an advisory lock on `DESIGN.lock` beside the real file)
+    for an update: read, check, replace. `record` and `fit --write` take it, so that two of them on
+    the same file run one after the other and each sees the other's entry; one that cannot get it
+    within `wait_s` (default LOCK_WAIT_S) is refused with RecordError and writes nothing. The lock
+    file is removed on release; the kernel drops the lock of a killed process, so a left-over lock
+    file never blocks."""
+    wait_s = LOCK_WAIT_S if wait_s is None else wait_s
+    lock = _lock_path(path)
+    deadline = time.monotonic() + wait_s
+    while True:
+        try:
+            fd = os.open(lock, os.O_RDWR | os.O_CREAT | (os.O_EXCL if fcntl is None else 0), 0o644)
+        except FileExistsError:
+            fd = None
+        except OSError as exc:
+            raise RecordError(f"cannot create the lock file {lock} ({exc.strerror or exc}); nothing was "
+                              "written", file=path) from None
+        try:
+            if fd is None:
+                raise OSError("held")
+            if fcntl is not None:
+                fcntl.flock(fd, fcntl.LOCK_EX | fcntl.LOCK_NB)
+        except OSError:
+            if fd is not None:
+                os.close(fd)
+            if time.monotonic() >= deadline:
+                raise RecordError(f"is being changed by another buildsheet command (it holds {lock}); "
+                                  "nothing was written: run the command again when it has finished",
+                                  file=path) from None
+            time.sleep(0.02)
+            continue
+        # the holder before us may have removed the file we locked: then lock the new one
+        try:
+            same = os.path.samestat(os.fstat(fd), os.stat(lock))
+        except FileNotFoundError:
+            same = False
+        if same:
+            break
+        os.close(fd)
+    try:
+        yield lock
+    finally:
+        try:
+            os.unlink(lock)
+        except OSError:
+            pass
+        os.close(fd)
+
+
 def _read(path: str) -> tuple[bytes, os.stat_result]:
     """The file's bytes and the stat of the same open file."""
     return read_capped(path, MAX_BYTES, DesignError, "a design file")
@@ -333,6 +402,9 @@ def _replace(path: str, raw: bytes, before: os.stat_result, data: bytes) -> str:
     target = os.path.realpath(path) if os.path.islink(path) else path
     backup = target + BACKUP_SUFFIX
     mode = stat.S_IMODE(before.st_mode)
+    if not mode & (stat.S_IWUSR | stat.S_IWGRP | stat.S_IWOTH):
+        raise RecordError("is read-only (no write permission is set on it); nothing was written: make "
+                          "it writable if it is meant to be changed", file=path)
     temps: list[str] = []
     try:
         temps.append(_write_temp(target, data, mode))

@@ -242,9 +242,87 @@ def band_edges(f: np.ndarray, swr_values: np.ndarray, f0: float, limit: float) -
 def solve(design: Design) -> Solution:
     """Solve a design: dimensions, sweep, voltages, efficiency, sensitivities, choke, exposure."""
     try:
-        return _solve(design)
+        solution = _solve(design)
     except BuildsheetError as exc:  # physics refusals carry no file: name the design's
         raise exc.located(file=design.path)
+    except (ZeroDivisionError, OverflowError, FloatingPointError) as exc:
+        # a degenerate geometry that reached a division by zero or an overflow inside the model
+        raise DesignError(f"the model cannot solve this design ({type(exc).__name__}: {exc}); it lies "
+                          "outside what the transmission-line model covers", file=design.path) from None
+    check_solution(solution, design)
+    return solution
+
+
+#: efficiency and SWR are compared with this much rounding slack (they are computed, not measured)
+_SLACK = 1e-9
+
+
+def _numbers(value, where: str):
+    """(dotted path, number) for every number in a Solution's JSON form, complex parts included."""
+    if isinstance(value, dict):
+        for k, v in value.items():
+            yield from _numbers(v, f"{where}.{k}" if where else str(k))
+    elif isinstance(value, (list, tuple)):
+        for i, v in enumerate(value):
+            yield from _numbers(v, f"{where}[{i}]")
+    elif isinstance(value, bool) or value is None or isinstance(value, str):
+        return
+    else:       # a complex number where a real one belongs is a fault too (JSON cannot hold it)
+        yield where, value
+
+
+def solution_problems(solution: Solution) -> list[str]:
+    """What is impossible in a Solution: a number that is not a finite real, an efficiency outside
+    0..1, a negative power, distance, voltage or current, an SWR below 1, a dimension that is not
+    positive or a tap above the open top. Empty for a sound solution."""
+    problems = []
+    # the JSON form, and every field itself (some, such as the wrap allowance, are not in the JSON)
+    fields = {f.name: getattr(solution, f.name) for f in dataclasses.fields(solution)}
+    fields = {k: (dataclasses.asdict(v) if dataclasses.is_dataclass(v) else v) for k, v in fields.items()
+              if k not in ("cut_list", "hardware", "sweep", "feed_impedance")}   # (in the JSON, as R, X)
+    numbers = list(_numbers(solution.to_dict(), "")) + list(_numbers(fields, ""))
+    for where, value in numbers:
+        try:
+            finite = isinstance(value, (int, float, np.integer, np.floating)) and math.isfinite(value)
+        except (TypeError, OverflowError):
+            finite = False
+        if not finite:
+            kind = "complex " if isinstance(value, (complex, np.complexfloating)) else ""
+            problems.append(f"{where} is {kind}{value!r}")
+    if problems:
+        return problems
+    d, e = solution.dimensions, solution.exposure
+    if not 0.0 <= solution.efficiency <= 1.0 + _SLACK:
+        problems.append(f"efficiency {solution.efficiency * 100:.3g} % is outside 0..100 %")
+    if not (d.radiator > 0 and d.stub > 0 and d.spacing > 0 and 0 < d.tap < d.stub):
+        problems.append(f"dimensions radiator {d.radiator:.4g} m, stub {d.stub:.4g} m, tap {d.tap:.4g} m "
+                        "are not a buildable antenna")
+    signed = {"power radiated": solution.power_radiated_w, "power at the tap": solution.power_at_tap_w,
+              "coax loss": solution.coax_loss_db,
+              "open-end voltage": solution.voltage_open_end_v_rms,
+              "far-end voltage": solution.voltage_far_end_v_rms, "short current": solution.current_short_a_rms,
+              "exposure distance (general)": e.distance_general_m,
+              "exposure distance (controlled)": e.distance_controlled_m, "EIRP": e.eirp_w}
+    signed.update({f"loss in the {k.replace('_', ' ')}": v for k, v in solution.power_lost_w.items()})
+    problems += [f"{name} {value:.4g} is negative" for name, value in signed.items() if value < 0]
+    swr_values = np.concatenate([[solution.feed_swr, solution.feed_swr_transmitter],
+                                 solution.sweep.swr, solution.sweep.swr_transmitter])
+    if np.min(swr_values) < 1.0 - _SLACK:
+        problems.append(f"an SWR of {np.min(swr_values):.4g} (below 1)")
+    if np.min(solution.sweep.r_ohm) < 0:
+        problems.append(f"a negative feed resistance ({np.min(solution.sweep.r_ohm):.4g} ohm)")
+    return problems
+
+
+def check_solution(solution: Solution, design: Design) -> None:
+    """Refuse (DesignError, one line) a Solution with a non-finite or physically impossible number,
+    so that nothing of the kind reaches a sheet, a figure, a booklet or the JSON."""
+    problems = solution_problems(solution)
+    if problems:
+        more = f" (and {len(problems) - 1} more)" if len(problems) > 1 else ""
+        raise DesignError(f"the model gave an impossible result for this design: {problems[0]}{more}; "
+                          "it lies outside what the transmission-line model covers (check the "
+                          "calibration, the height and the slope)", file=design.path)
 
 
 def _solve(design: Design) -> Solution:
@@ -263,6 +341,8 @@ def _solve(design: Design) -> Solution:
         raise DesignError(f"cannot be matched to {z_feed:g} ohm with this line and wire "
                           f"(a very lossy or unusual line?): {why}",
                           file=design.path, key="stub.line") from None
+
+    _check_clearance(design, radiator, stub)
 
     low, high = design.band_hz
     f = np.linspace(low * (1 - SWEEP_MARGIN), high * (1 + SWEEP_MARGIN), SWEEP_POINTS)
@@ -313,6 +393,25 @@ def _solve(design: Design) -> Solution:
         sensitivity=sens._asdict(),
         choke=ch, exposure=exposure,
     )
+
+
+def _check_clearance(design: Design, radiator: float, stub: float) -> None:
+    """The solved radiator and stub must stay above ground: the model's image theory does not hold for
+    a wire that reaches the ground (a radiator through its own image gives a negative radiation
+    resistance). design.py checks estimates; this checks the lengths actually solved."""
+    site = design.site
+    if site.orientation == "vertical":
+        return
+    if site.height_m - stub <= 0:
+        raise DesignError(f"the solved stub ({stub:.2f} m) is longer than the open top is high "
+                          f"({site.height_m:.2f} m): the short would be below ground; raise the open top",
+                          file=design.path, key="site.height")
+    if site.orientation == "sloper":
+        far = site.height_m - radiator * math.sin(site.slope_rad)
+        if far <= 0:
+            raise DesignError(f"the solved radiator ({radiator:.2f} m) at this slope reaches "
+                              f"{-far:.2f} m below ground from a {site.height_m:.2f} m top; use a "
+                              "smaller slope or a higher top", file=design.path, key="site.slope")
 
 
 def _exposure(design: Design, efficiency: float, coax_loss_db: float) -> Exposure:

@@ -45,10 +45,21 @@ from buildsheet.errors import SweepError
 from buildsheet.writers.files import decode_text, read_capped
 
 MAX_BYTES = 8 * 1024 * 1024
+#: most points a sweep may hold: a fit's cost grows with the points, and analysers give at most a
+#: few thousand (common practice: 101 to 10,001 points per sweep)
+MAX_POINTS = 20001
+#: frequencies a sweep can hold, Hz: wide (the designs are 1.8 to 450 MHz), it only catches a wrong unit
+FREQUENCY_RANGE_HZ = (1.0, 1e12)
+#: |rho| a passive antenna cannot exceed; a little above 1 is left to the analyser's calibration
+#: error (common practice: a calibrated analyser reads an open or a short within a few per cent)
+MAX_REFLECTION = 1.05
 FREQUENCY_UNITS = {"hz": 1.0, "khz": 1e3, "mhz": 1e6, "ghz": 1e9}
 PARAMETERS = ("s", "y", "z")
 FORMATS = ("ri", "ma", "db")
 EXTENSIONS = (".s1p", ".csv")
+#: the reference on which a CSV's R and X are checked for |rho| (the passivity check does not depend
+#: on it: R < 0 gives |rho| > 1 on every positive reference)
+CSV_REFERENCE_OHM = 50.0
 
 _CSV_FREQUENCY = {f"{stem}_{unit}": factor for stem in ("frequency", "freq")
                   for unit, factor in FREQUENCY_UNITS.items()}
@@ -175,12 +186,17 @@ def parse_touchstone(text: str, file: str | None = None) -> Sweep:
     if not records:
         raise SweepError("holds no data (frequency and value lines)", file=file)
     lines = tuple(r[0] for r in records)
+    _check_count(len(records), file)
     data = np.array([r[1:] for r in records], dtype=float)
-    f = data[:, 0] * options.frequency_factor
-    value = _complex_values(data[:, 1], data[:, 2], options.format)
+    with np.errstate(all="ignore"):
+        f = data[:, 0] * options.frequency_factor
+        value = _complex_values(data[:, 1], data[:, 2], options.format)
     _check_frequencies(f, lines, file)
+    bad = np.nonzero(~np.isfinite(value))[0]
+    if len(bad):
+        raise SweepError("has a value too large to be a measurement", file=file, line=lines[bad[0]])
     z_ref = options.resistance_ohm
-    with np.errstate(divide="ignore", invalid="ignore"):
+    with np.errstate(all="ignore"):
         if options.parameter == "s":
             z = z_ref * (1 + value) / (1 - value)
         elif options.parameter == "z":
@@ -192,7 +208,29 @@ def parse_touchstone(text: str, file: str | None = None) -> Sweep:
         what = {"s": "a reflection coefficient of 1 (an open)", "y": "an admittance of 0 (an open)",
                 "z": "an infinite impedance"}[options.parameter]
         raise SweepError(f"gives {what}: the impedance is infinite there", file=file, line=lines[bad[0]])
-    return Sweep(frequency_hz=f, z_ohm=z.astype(complex), path=file or "", lines=lines)
+    z = z.astype(complex)
+    _check_passive(z, z_ref, lines, file)
+    return Sweep(frequency_hz=f, z_ohm=z, path=file or "", lines=lines)
+
+
+def _check_count(n: int, file) -> None:
+    if n > MAX_POINTS:
+        raise SweepError(f"has more than {MAX_POINTS} points; sweep the antenna's band with fewer "
+                         "(a few hundred are plenty for a fit)", file=file)
+
+
+def _check_passive(z: np.ndarray, z_ref: float, lines: tuple, file) -> None:
+    """An antenna is passive: |rho| <= 1 on any real reference (R >= 0). A point beyond
+    MAX_REFLECTION is a measurement error, not an antenna."""
+    with np.errstate(all="ignore"):
+        mag = np.abs((z - z_ref) / (z + z_ref))
+    bad = np.nonzero(~(mag <= MAX_REFLECTION))[0]
+    if len(bad):
+        i = bad[0]
+        raise SweepError(f"has |S11| = {mag[i]:.3g} (R = {z[i].real:.4g} ohm), more than 1: a passive "
+                         "antenna cannot reflect more than it receives; the analyzer is not calibrated "
+                         "(calibrate it with open, short and load at the end of its cable)",
+                         file=file, line=lines[i])
 
 
 def _complex_values(a: np.ndarray, b: np.ndarray, fmt: str) -> np.ndarray:
@@ -207,6 +245,13 @@ def _check_frequencies(f: np.ndarray, lines: tuple, file: str | None) -> None:
     if not f[0] > 0:
         raise SweepError(f"has the frequency {f[0]:g} Hz; frequencies must be above 0", file=file,
                          line=lines[0])
+    lo, hi = FREQUENCY_RANGE_HZ
+    outside = np.nonzero(~((f >= lo) & (f <= hi)))[0]
+    if len(outside):
+        i = outside[0]
+        shown = f"{f[i]:.3g} Hz" if np.isfinite(f[i]) else "a frequency too large for a number"
+        raise SweepError(f"has {shown}; a sweep lies between 1 Hz and 1 THz (is the "
+                         "frequency unit right?)", file=file, line=lines[i])
     steps = np.nonzero(np.diff(f) <= 0)[0]
     if len(steps):
         i = steps[0] + 1
@@ -223,8 +268,16 @@ def parse_csv(text: str, file: str | None = None) -> Sweep:
     columns: tuple[int, int, int] = (0, 1, 2)
     factor = 1.0
     rows: list[tuple[int, float, float, float]] = []
-    reader = csv.reader(io.StringIO(text))
-    for fields in reader:
+    # newline=None: CR, LF and CRLF line ends all end a line (csv refuses a bare CR inside a field)
+    reader = csv.reader(io.StringIO(text, newline=None))
+    while True:
+        try:
+            fields = next(reader)
+        except StopIteration:
+            break
+        except csv.Error as exc:
+            raise SweepError(f"is not a CSV table the reader can take ({exc})", file=file,
+                             line=reader.line_num or None) from None
         line_no = reader.line_num
         if not fields or all(not s.strip() for s in fields) or fields[0].lstrip().startswith("#"):
             continue
@@ -237,6 +290,7 @@ def parse_csv(text: str, file: str | None = None) -> Sweep:
                              f"({', '.join(header)})", file=file, line=line_no)
         values = [_number(fields[c].strip(), file, line_no, header[c]) for c in columns]
         rows.append((line_no, *values))
+        _check_count(len(rows), file)
     if header is None:
         raise SweepError("is empty; a CSV sweep starts with a header such as "
                          "'frequency_mhz,r_ohm,x_ohm'", file=file)
@@ -244,9 +298,12 @@ def parse_csv(text: str, file: str | None = None) -> Sweep:
         raise SweepError("holds a header but no data lines", file=file)
     lines = tuple(r[0] for r in rows)
     data = np.array([r[1:] for r in rows], dtype=float)
-    f = data[:, 0] * factor
+    with np.errstate(all="ignore"):
+        f = data[:, 0] * factor
     _check_frequencies(f, lines, file)
-    return Sweep(frequency_hz=f, z_ohm=data[:, 1] + 1j * data[:, 2], path=file or "", lines=lines)
+    z = data[:, 1] + 1j * data[:, 2]
+    _check_passive(z, CSV_REFERENCE_OHM, lines, file)
+    return Sweep(frequency_hz=f, z_ohm=z, path=file or "", lines=lines)
 
 
 def _csv_columns(header: list[str], file, line_no) -> tuple[tuple[int, int, int], float]:

@@ -92,10 +92,17 @@ class _Loader(yaml.SafeLoader):
         super().__init__(text)
         self.file = file
         self.depth = 0
+        self.nodes = 0
 
     def compose_node(self, parent, index):
         self.depth += 1
+        self.nodes += 1
         try:
+            if self.nodes > MAX_NODES:
+                # counted while composing: a 1 MiB flow list is refused before its tree is built
+                mark = self.peek_event().start_mark
+                raise DesignError(f"holds more than {MAX_NODES} values; refused", file=self.file,
+                                  line=mark.line + 1)
             if self.depth > MAX_DEPTH + 1:
                 mark = self.peek_event().start_mark
                 raise DesignError(f"is nested more than {MAX_DEPTH} levels deep; refused",
@@ -157,7 +164,18 @@ class _Walker:
         except (yaml.YAMLError, ValueError, LookupError, AttributeError, TypeError) as exc:
             # PyYAML's constructors for an explicit tag (`!!int abc`, `!!bool maybe`) fail with
             # Python's own exceptions, and so does an integer of more than 4300 digits
+            if "integer string conversion" in str(exc):
+                raise self._fail(_HUGE_INT.format(n=len(node.value)), node, path) from None
             raise self._fail(f"has a value YAML cannot read: {exc}", node, path) from None
         if isinstance(scalar, float) and not math.isfinite(scalar):
             raise self._fail(f"is '{node.value}', which is not a finite number", node, path)
+        if isinstance(scalar, int) and not isinstance(scalar, bool) and scalar.bit_length() > MAX_INT_BITS:
+            # in any base (0x, 0b, 0o, base 60): refused before anything formats it (Python refuses
+            # to write an integer of more than 4300 digits as text)
+            raise self._fail(_HUGE_INT.format(n=len(node.value)), node, path)
         return scalar
+
+
+#: the largest integer a design may hold, in bits (about 30 decimal digits: no key needs more)
+MAX_INT_BITS = 100
+_HUGE_INT = "is an integer written with {n} characters, far too large for any key of a design"

@@ -105,13 +105,18 @@ def test_new_file_gets_the_umask_default(tmp_path):
     assert stat.S_IMODE(os.stat(tmp_path / "a.svg").st_mode) == 0o644
 
 
-def test_symlink_stays_a_link(tmp_path):
+def test_an_output_is_never_written_through_a_link(tmp_path):
+    # issue 15: a planted link out/NAME.pdf -> the design made `build` replace the design
     real = tmp_path / "real.yaml"
     real.write_bytes(b"old")
     link = tmp_path / "link.yaml"
     link.symlink_to(real)
-    write_atomic(link, b"new")
-    assert link.is_symlink() and real.read_bytes() == b"new"
+    with pytest.raises(OSError, match="symbolic link"):
+        write_atomic(link, b"new")
+    with pytest.raises(OSError, match="symbolic link"):
+        write_many_atomic({tmp_path / "other.svg": b"x", link: b"new"})
+    assert link.is_symlink() and real.read_bytes() == b"old"
+    assert _listing(tmp_path) == ["link.yaml", "real.yaml"]
 
 
 # ---------------------------------------------------------------- several files
@@ -142,14 +147,13 @@ def test_many_failure_before_the_first_rename_leaves_every_old_file(tmp_path):
     assert _listing(tmp_path) == sorted(p.name for p in paths)
 
 
-def test_many_failure_during_the_renames_leaves_each_file_whole(tmp_path):
-    # Documented limit: renames of several files are not one atomic step.
+@pytest.mark.parametrize("index", [1, 2])
+def test_many_failure_during_the_renames_finishes_the_set(tmp_path, index):
+    # issue 15: once one file of the set is new, the rest are renamed too (the set replaces together)
     paths = _three(tmp_path)
     with pytest.raises(OSError):
-        write_many_atomic({p: b"new " + p.name.encode() for p in paths}, _fail_at=("replace", 1))
-    assert paths[0].read_bytes() == b"new overview.svg"
-    assert paths[1].read_bytes() == b"old stub.svg"
-    assert paths[2].read_bytes() == b"old sheet.pdf"
+        write_many_atomic({p: b"new " + p.name.encode() for p in paths}, _fail_at=("replace", index))
+    assert [p.read_bytes() for p in paths] == [b"new " + p.name.encode() for p in paths]
     assert _listing(tmp_path) == sorted(p.name for p in paths)
 
 

@@ -261,7 +261,10 @@ def _numeric(value) -> bool:
 def _rescaled(value, factor: float):
     """A number or quantity text with its number multiplied by factor ("10 m" x 1.001 -> "10.01 m")."""
     if isinstance(value, (int, float)):
-        return value * factor
+        try:
+            return value * factor
+        except OverflowError:       # an int beyond float's range (a previous mutation made it)
+            return value
     m = re.match(r"\s*([-+]?[\d.]+(?:[eE][-+]?\d+)?)(.*)", value, re.S)
     try:
         return f"{float(m.group(1)) * factor:.10g}{m.group(2)}"

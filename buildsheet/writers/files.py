@@ -11,7 +11,10 @@ Tests simulate a failure at a chosen step with `_fail_at` (see STEPS); it raises
 
 from __future__ import annotations
 
+import errno
+import json
 import os
+import re
 import stat
 from collections.abc import Mapping
 
@@ -21,6 +24,10 @@ STEPS = ("create", "write", "fsync", "replace", "fsync_dir")
 def _checkpoint(step: str, index: int, fail_at: tuple[str, int] | None) -> None:
     if fail_at is not None and fail_at == (step, index):
         raise OSError(f"simulated failure at step {step!r} of file {index}")
+
+
+#: a temporary file of this tool: `.NAME.PID.N.tmp`
+_TEMP_RE = re.compile(r"\.(.+)\.(\d+)\.(\d+)\.tmp\Z")
 
 
 def _temp_name(target: str) -> str:
@@ -73,40 +80,137 @@ def fsync_dir(directory: str) -> None:
         os.close(fd)
 
 
+#: the journal of a set of renames in progress, beside the first file of the set
+_JOURNAL = ".buildsheet-journal.{pid}.json"
+_JOURNAL_RE = re.compile(r"\.buildsheet-journal\.(\d+)\.json\Z")
+
+
+def _alive(pid: int) -> bool:
+    if pid == os.getpid():
+        return True
+    try:
+        os.kill(pid, 0)
+    except ProcessLookupError:
+        return False
+    except (PermissionError, OSError):
+        return True
+    return True
+
+
+def _refuse_links(targets: list[str]) -> None:
+    for target in targets:
+        if os.path.islink(target):
+            raise OSError(errno.ELOOP, f"{target} is a symbolic link; outputs are never written through a "
+                                       "link (remove it, or choose another output folder)")
+
+
+def recover(directory: str) -> None:
+    """Finish what an interrupted run left in `directory`: a set of renames that a kill stopped
+    halfway is completed from its journal (so the set is wholly the new one), and temporary files of
+    this tool whose process is gone are removed. A journal or temporary file of a process still
+    running is left alone."""
+    try:
+        names = os.listdir(directory or ".")
+    except OSError:
+        return
+    for name in names:
+        m = _JOURNAL_RE.match(name)
+        if not m or _alive(int(m.group(1))):
+            continue
+        journal = os.path.join(directory, name)
+        try:
+            with open(journal, encoding="utf-8") as f:
+                pairs = json.load(f)
+            for temp, target in pairs:
+                if os.path.lexists(temp) and not os.path.islink(target):
+                    os.replace(temp, target)
+            fsync_dir(directory)
+            os.unlink(journal)
+        except (OSError, ValueError, TypeError):
+            continue
+    for name in names:
+        m = _TEMP_RE.match(name)
+        if m and not _alive(int(m.group(2))):
+            try:
+                os.unlink(os.path.join(directory, name))
+            except OSError:
+                pass
+
+
 def write_many_atomic(files: Mapping[str | os.PathLike, bytes], *,
                       _fail_at: tuple[str, int] | None = None) -> None:
-    """Replace every file of `files` (path -> content) atomically.
+    """Replace every file of `files` (path -> content) as one set.
 
-    All temporary files are written first, then renamed in the mapping's order, so a failure before
-    the renames leaves every previous file intact and no temporary file behind. A failure during the
-    renames (rare: a rename within a directory does not need space) can leave the first files new and
-    the rest old; each file is still wholly old or wholly new. A symbolic link target is followed, so
-    the link stays a link.
+    What an earlier run left in the files' directories is first recovered (see recover). All
+    temporary files are written first; a failure then leaves every previous file intact and no
+    temporary file behind. Before the first rename a journal of the renames is made durable beside
+    the first file; if the renames stop (an error, or a kill), the rest are completed (at once, or by
+    the next run in that directory), so each file is wholly old or wholly new and the set ends up
+    wholly new. A symbolic link is never written through: a target that is a link is refused.
 
     `_fail_at` = (step, i) raises OSError at `step` (one of STEPS) of the i-th file, for tests.
     """
     if _fail_at is not None and _fail_at[0] not in STEPS:
         raise ValueError(f"_fail_at step must be one of {STEPS}, got {_fail_at[0]!r}")
-    targets = [os.path.realpath(os.fspath(p)) for p in files]
-    if len(set(targets)) != len(targets):
+    targets = [os.path.abspath(os.fspath(p)) for p in files]
+    if len(set(os.path.realpath(t) for t in targets)) != len(targets):
         raise ValueError("the same file is listed twice")
+    _refuse_links(targets)
+    directories = list(dict.fromkeys(os.path.dirname(t) for t in targets))
+    for directory in directories:
+        recover(directory)
     temps: list[str] = []
     try:
         for i, (target, data) in enumerate(zip(targets, files.values())):
             if not isinstance(data, bytes):
                 raise TypeError(f"content of {target} must be bytes, got {type(data).__name__}")
             temps.append(_write_temp(target, data, i, _fail_at))
-        for i, (temp, target) in enumerate(zip(temps, targets)):
-            _checkpoint("replace", i, _fail_at)
-            os.replace(temp, target)
     except BaseException:
         for temp in temps:
             if os.path.lexists(temp):
                 os.unlink(temp)
         raise
-    for i, directory in enumerate(dict.fromkeys(os.path.dirname(t) for t in targets)):
-        _checkpoint("fsync_dir", i, _fail_at)
-        fsync_dir(directory)
+    journal = None
+    if len(targets) > 1:
+        journal = os.path.join(directories[0], _JOURNAL.format(pid=os.getpid()))
+        try:
+            with open(journal, "w", encoding="utf-8") as f:
+                json.dump(list(zip(temps, targets)), f)
+                f.flush()
+                os.fsync(f.fileno())
+            fsync_dir(directories[0])
+        except BaseException:
+            for temp in temps + [journal]:
+                if os.path.lexists(temp):
+                    os.unlink(temp)
+            raise
+    done = 0
+    try:
+        for i, (temp, target) in enumerate(zip(temps, targets)):
+            _checkpoint("replace", i, _fail_at)
+            os.replace(temp, target)
+            done += 1
+    except BaseException:
+        if done == 0:       # nothing renamed yet: the old set stands whole
+            for temp in temps + ([journal] if journal else []):
+                if os.path.lexists(temp):
+                    os.unlink(temp)
+        else:               # the set is half new: finish it, or leave the journal for the next run
+            try:
+                for temp, target in zip(temps[done:], targets[done:]):
+                    os.replace(temp, target)
+                if journal:
+                    os.unlink(journal)
+            except OSError:
+                pass
+        raise
+    try:
+        for i, directory in enumerate(directories):
+            _checkpoint("fsync_dir", i, _fail_at)
+            fsync_dir(directory)
+    finally:
+        if journal:     # every rename is done: the journal has nothing left to finish
+            os.unlink(journal)
 
 
 def write_atomic(path: str | os.PathLike, data: bytes, *, _fail_at: str | None = None) -> None:
@@ -122,8 +226,16 @@ def read_capped(path: str, limit: int, error, what: str) -> tuple[bytes, os.stat
     than `limit` bytes; every failure is `error(problem, file=path)`, with `what` naming the kind of
     file in the messages ("a design file", "a sweep file")."""
     try:
-        with open(path, "rb") as fh:
+        # O_NONBLOCK: opening a FIFO for reading would otherwise wait for a writer forever; anything
+        # that is not a regular file is refused before a byte is read
+        fd = os.open(path, os.O_RDONLY | getattr(os, "O_NONBLOCK", 0) | getattr(os, "O_BINARY", 0))
+        with os.fdopen(fd, "rb") as fh:
             info = os.fstat(fh.fileno())
+            if stat.S_ISDIR(info.st_mode):
+                raise IsADirectoryError
+            if not stat.S_ISREG(info.st_mode):
+                raise error(f"is {_special_kind(info.st_mode)}, not {what} (only a regular file is read)",
+                            file=path)
             raw = fh.read(limit + 1)
     except FileNotFoundError:
         raise error("no such file", file=path) from None
@@ -135,6 +247,16 @@ def read_capped(path: str, limit: int, error, what: str) -> tuple[bytes, os.stat
         size = f"{limit // (1024 * 1024)} MiB" if limit % (1024 * 1024) == 0 else f"{limit // 1024} KiB"
         raise error(f"is larger than {size}; {what} is a few hundred lines at most", file=path)
     return raw, info
+
+
+def _special_kind(mode: int) -> str:
+    if stat.S_ISFIFO(mode):
+        return "a named pipe (FIFO)"
+    if stat.S_ISSOCK(mode):
+        return "a socket"
+    if stat.S_ISCHR(mode) or stat.S_ISBLK(mode):
+        return "a device"
+    return "a special file"
 
 
 def decode_text(raw: bytes, path: str, error, what: str) -> str:
