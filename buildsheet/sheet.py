@@ -385,6 +385,7 @@ class _Context:
             )),
             Para(_e(f"Dimensions as built, {rounding}; the pieces are cut longer (see the cut list)."),
                  "note"),
+            *(Para(_e(f"Model limit: {w[0].upper()}{w[1:]}."), "caution") for w in s.warnings),
         )
 
     def radiator_end(self) -> str:

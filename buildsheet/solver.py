@@ -28,6 +28,18 @@ HALF_WAVE_GAIN_DBI = 2.15
 #: a conductor this thick or thicker is pipe or rod (rigid), thinner is wire
 RIGID_DIAMETER_M = 4e-3
 
+#: The envelope the antenna model is proven in against NEC-2 (bench/nec_study.py `accept`, README
+#: "Limits"): stub spacing up to lambda/40 (beyond it, on seeds 5000-5079, the model refused 7
+#: designs NEC-2 matches, with stubs 15-50 % longer than a quarter wave), slopers up to 55 deg
+#: (steeper radiators run so close along the stub that NEC-2 itself cannot be meshed).
+ENVELOPE_SPACING_WAVELENGTHS = 1 / 40
+ENVELOPE_SLOPE_DEG = 55.0
+#: below this spacing/diameter of the stub (the smallest in the NEC-2 data the model was fitted and
+#: judged on; near 3 NEC-2's thin-wire method cannot be meshed validly, DESIGN.md §7), or with a
+#: radiator thicker than 1/3 of the spacing (NEC-2 gives negative resistances there): pipe and rod
+#: J-poles, checked against the FDTD reference only
+NEC_SPACING_RATIO = 4.0
+
 
 @dataclass(frozen=True)
 class Dimensions:
@@ -117,6 +129,7 @@ class Solution:
     sensitivity: dict
     choke: choke_physics.ChokeDesign
     exposure: Exposure
+    warnings: tuple = ()
 
     @property
     def voltage_open_end_v_peak(self) -> float:
@@ -174,6 +187,7 @@ class Solution:
                          "limit_controlled_w_m2": e.limit_controlled_w_m2,
                          "limit_general_w_m2": e.limit_general_w_m2,
                          "near_field_m": e.near_field_m},
+            "warnings": list(self.warnings),
         }
 
 
@@ -391,8 +405,36 @@ def _solve(design: Design) -> Solution:
                       "radiator_wire": state.p_wire, "ground": state.p_ground,
                       "coax": design.power.transmitter_w - p_tap},
         sensitivity=sens._asdict(),
-        choke=ch, exposure=exposure,
+        choke=ch, exposure=exposure, warnings=envelope_warnings(design),
     )
+
+
+def envelope_warnings(design: Design) -> tuple[str, ...]:
+    """Where the design lies outside the envelope the model is proven in (ENVELOPE_*,
+    NEC_SPACING_RATIO): one sentence each, with the design's numbers. Nothing is refused for them;
+    the sheet and `solve` print them."""
+    out = []
+    lam = design.wavelength_m
+    s = design.stub
+    if s.spacing_m > ENVELOPE_SPACING_WAVELENGTHS * lam:
+        out.append(f"the stub's spacing, {s.spacing_m * 1e3:.0f} mm, is {s.spacing_m / lam:.3f} of a "
+                   f"wavelength, wider than the 1/40 the model is proven to against NEC-2: on such "
+                   "lines the stub can need to be 15-50 % longer than a quarter wave; cut the stub "
+                   "line long and expect more tuning, or use a narrower line")
+    rigid_line = s.spacing_m < NEC_SPACING_RATIO * s.conductor_diameter_m
+    rigid_radiator = design.radiator.diameter_m > s.spacing_m / 3
+    if rigid_line or rigid_radiator:
+        what = (f"the stub's spacing is {s.spacing_m / s.conductor_diameter_m:.1f} × its conductor's "
+                "diameter" if rigid_line else
+                f"the radiator is {design.radiator.diameter_m / s.spacing_m:.2f} × the stub's spacing thick")
+        out.append(f"{what}: conductors this fat and close cannot be checked by NEC-2, so the model's "
+                   "first cut for pipe and rod J-poles rests on a few full-wave (FDTD) checks only; "
+                   "leave the stub and the radiator long and tune")
+    if design.site.orientation == "sloper" and math.degrees(design.site.slope_rad) > ENVELOPE_SLOPE_DEG:
+        out.append(f"a slope of {math.degrees(design.site.slope_rad):.0f}° is steeper than the "
+                   f"{ENVELOPE_SLOPE_DEG:.0f}° the model is proven to: the radiator runs close along the "
+                   "stub, which neither the model nor NEC-2 handles well; expect more tuning")
+    return tuple(out)
 
 
 def _check_clearance(design: Design, radiator: float, stub: float) -> None:

@@ -25,6 +25,8 @@ def summary_text(design: Design, s: Solution) -> str:
     add(f"band {units.format_frequency(s.band_hz[0])} to {units.format_frequency(s.band_hz[1])}"
         f"{' (' + design.band_name + ')' if design.band_name else ''}, matched at "
         f"{units.format_frequency(s.frequency_hz)} to {units.format_impedance(design.feed.impedance_ohm)}")
+    for w in s.warnings:
+        add(f"model limit: {w}")
     add("")
     add("Key dimensions (" + units.length_rounding(u) + ")")
     add(f"  radiator   {L(d.radiator):>14}   attachment point to attachment point")

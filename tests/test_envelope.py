@@ -1,0 +1,72 @@
+"""The model's envelope (solver.envelope_warnings; README, Limits): where the antenna model is not
+proven against NEC-2 (bench/nec_study.py `accept`: stub spacing beyond lambda/40, slopers beyond
+55 deg, pipe/rod proportions NEC-2 cannot mesh), `solve` and the sheet say so with the design's
+numbers; nothing is refused for it, and a design inside the envelope carries no warning."""
+
+from __future__ import annotations
+
+import html
+import json
+
+import pytest
+
+from buildsheet import solve
+from buildsheet.cli import main
+from buildsheet.design import design_from_text
+from buildsheet.sheet import build_sheet
+
+BASE = """buildsheet: 1
+name: envelope
+frequency: {f}
+radiator: {{wire: {wire}}}
+stub: {{line: {{spacing: {spacing}, conductor: {conductor}, dielectric: air}}}}
+site: {{orientation: {orientation}, height: {height}{slope}}}
+"""
+
+
+def design(f="14.175 MHz", wire="14 AWG", spacing="25 mm", conductor="14 AWG", orientation="horizontal",
+           height="12 m", slope=None):
+    return design_from_text(BASE.format(f=f, wire=wire, spacing=spacing, conductor=conductor,
+                                        orientation=orientation, height=height,
+                                        slope=f", slope: {slope}" if slope else ""))
+
+
+def test_inside_the_envelope_no_warning():
+    assert solve(design()).warnings == ()
+
+
+def test_wide_stub_beyond_lambda_over_40_is_named_with_its_numbers():
+    """146 MHz, 60 mm spacing: 0.029 wavelength (> 1/40)."""
+    s = solve(design(f="146 MHz", wire="12 AWG", spacing="60 mm", conductor="12 AWG",
+                     orientation="vertical", height="3 m"))
+    (w,) = [w for w in s.warnings if "spacing" in w]
+    assert "60 mm" in w and f"{0.060 / (299792458 / 146e6):.3f}" in w and "1/40" in w
+
+
+def test_pipe_proportions_are_named():
+    """1/2-in pipe (15.9 mm) at 50 mm: spacing 3.1 diameters, under the 4 of the NEC-2 data."""
+    s = solve(design(f="146 MHz", wire="15.9 mm", spacing="50 mm", conductor="15.9 mm",
+                     orientation="vertical", height="3 m"))
+    assert any("3.1 × its conductor's diameter" in w and "FDTD" in w for w in s.warnings)
+
+
+def test_steep_sloper_is_named():
+    s = solve(design(f="28.4 MHz", orientation="sloper", height="8 m", slope="60 deg"))
+    assert any("60°" in w and "55°" in w for w in s.warnings)
+    assert not solve(design(f="28.4 MHz", orientation="sloper", height="8 m", slope="50 deg")).warnings
+
+
+def test_warnings_reach_json_summary_and_sheet(tmp_path, capsys):
+    path = tmp_path / "wide.yaml"
+    path.write_text(BASE.format(f="146 MHz", wire="12 AWG", spacing="60 mm", conductor="12 AWG",
+                                orientation="vertical", height="3 m", slope=""))
+    assert main(["solve", str(path), "--json"]) == 0
+    data = json.loads(capsys.readouterr().out)
+    assert len(data["warnings"]) == 1 and "1/40" in data["warnings"][0]
+    assert main(["solve", str(path)]) == 0
+    assert "model limit: the stub's spacing, 60 mm" in capsys.readouterr().out
+    d = design(f="146 MHz", wire="12 AWG", spacing="60 mm", conductor="12 AWG", orientation="vertical",
+               height="3 m")
+    text = html.unescape(" ".join(getattr(b, "text", "") for b in
+                                  build_sheet(d, solve(d), "2026-01-01").section("summary").blocks))
+    assert "Model limit: The stub's spacing, 60 mm" in text
