@@ -354,7 +354,7 @@ def _solve(design: Design) -> Solution:
     )
 
 
-def _vf(x: float) -> str:
+def velocity_factor_text(x: float) -> str:
     """A velocity factor as the sources write it: 0.80, 0.93, 0.975."""
     text = f"{x:.3f}"
     return text[:-1] if text.endswith("0") else text
@@ -379,7 +379,8 @@ def first_cut(design: Design, dims: Dimensions, stub_vf_model: float) -> FirstCu
         vf = st.velocity_factor if st.velocity_factor is not None else stub_vf_model
         low, high = st.velocity_factor_spread
         stub_m = _scaled_range(dims.stub, vf, (low, high))
-        stub_source = (f"{st.name}: velocity factor {_vf(vf)} taken; the sources give {_vf(low)}-{_vf(high)}: "
+        v = velocity_factor_text
+        stub_source = (f"{st.name}: velocity factor {v(vf)} taken; the sources give {v(low)}-{v(high)}: "
                        f"{st.spread_source}")
     elif st.kind == "nominal":
         stub_m, stub_source = none, (f"the velocity factor {st.velocity_factor:g} given in the design "
@@ -397,8 +398,9 @@ def first_cut(design: Design, dims: Dimensions, stub_vf_model: float) -> FirstCu
     elif rad.velocity_factor_spread is not None:
         low, high = rad.velocity_factor_spread
         radiator_m = _scaled_range(dims.radiator, rad.velocity_factor, (low, high))
-        radiator_source = (f"{rad.insulation} jacket: velocity factor {_vf(rad.velocity_factor)} taken; "
-                           f"the sources give {_vf(low)}-{_vf(high)}: {rad.spread_source}")
+        v = velocity_factor_text
+        radiator_source = (f"{rad.insulation} jacket: velocity factor {v(rad.velocity_factor)} taken; "
+                           f"the sources give {v(low)}-{v(high)}: {rad.spread_source}")
     elif rad.insulation == "custom":
         radiator_m, radiator_source = none, (f"the jacket's velocity factor {rad.velocity_factor:g} given "
                                              "in the design file is the builder's own figure: no "
@@ -466,13 +468,11 @@ def _cut_list(design: Design, d: Dimensions, wrap: float, ch, first: FirstCut) -
     items = [
         CutItem("radiator", radiator_material, d.radiator + m_rad + 2 * wrap, 1, m_rad + 2 * wrap,
                 ("wrap allowance at each end included" if not rigid_radiator else
-                 "cutting allowance at each end included") +
-                ("; tuning margin included" if m_rad > 0 else ""), margin_m=m_rad),
+                 "cutting allowance at each end included"), margin_m=m_rad),
         CutItem("stub line", line_name, d.stub + m_stub + beyond_short + junction, 1,
                 m_stub + beyond_short + junction,
                 "includes the length below the short" +
-                (" and the wrap at the open top" if junction else "") +
-                ("; tuning margin included" if m_stub > 0 else ""), margin_m=m_stub),
+                (" and the wrap at the open top" if junction else ""), margin_m=m_stub),
         CutItem("short bar", "bare copper wire" if not rigid_stub else design.stub.conductor_material + " bar",
                 d.spacing + (2 * wrap if not rigid_stub else 0.02), 1, 2 * wrap if not rigid_stub else 0.02,
                 "across the stub at the short, soldered or clamped"),
