@@ -401,9 +401,12 @@ class _Context:
                  if self.shown(m)]
         if not parts:
             return ""
-        return (f" The first cut starts long, {' and '.join(parts)}: the velocity factors of "
-                "dielectric line and jacketed wire are only known to the spread between their sources "
-                "(see the tuning procedure).")
+        jacket = JACKET_NAMES.get(self.d.radiator.insulation, self.d.radiator.insulation)
+        why = [what for what, m in ((f"the {self.d.stub.name} line's", fc.stub_margin_m),
+                                    (f"the {jacket} jacket's", fc.radiator_margin_m)) if self.shown(m)]
+        return (f" The first cut starts long, {' and '.join(parts)}: {' and '.join(why)} velocity "
+                f"factor{'s are' if len(why) > 1 else ' is'} only known to the spread between the "
+                "sources (see the tuning procedure).")
 
     def radiator_end(self) -> str:
         """Where the radiator's length starts (DESIGN.md §5): the far end insulator's attachment
@@ -654,6 +657,14 @@ class _Context:
             return f"up to {self.length(-low)} shorter"
         return ""
 
+    def may_need(self, span: tuple, solved_m: float) -> str:
+        """'may need to be up to 5-7/8" longer than the 15' 9-1/8" solved.', or that the spread is
+        below the sheet's rounding."""
+        off = self.off_range(span)
+        if not off:
+            return f"the spread moves it by less than {self.length(MIN_MOVE_M[self.u])}."
+        return f"may need to be {off} than the {self.length(solved_m)} solved."
+
     def stub_why(self) -> str:
         """Why the stub's first cut is as sure as it is: the line's velocity factor and its spread."""
         st, fc = self.d.stub, self.s.first_cut
@@ -663,13 +674,13 @@ class _Context:
         if st.velocity_factor_spread is not None:
             low, high = st.velocity_factor_spread
             vf = st.velocity_factor if st.velocity_factor is not None else self.s.stub_line.velocity_factor
-            v = velocity_factor_text
-            return (f"The stub line ({st.name}) is taken at velocity factor {v(vf)}, but the sources "
-                    f"give {v(low)} to {v(high)} for this kind of line ({_source_tag(st.spread_source)}),"
-                    " and the reference this model is checked against (NEC-2) has no dielectric to "
-                    "settle it. The match needs the stub's electrical length, so the physical stub "
-                    f"scales with the velocity factor: it may need to be {self.off_range(fc.stub_m)} "
-                    f"than the {self.length(self.s.dimensions.stub)} solved.")
+            spread = velocity_factor_text(low, high).replace("-", " to ")
+            return (f"The stub line ({st.name}) is taken at velocity factor {velocity_factor_text(vf)}, "
+                    f"but the sources give {spread} for this kind of line "
+                    f"({_source_tag(st.spread_source)}), and the reference this model is checked against "
+                    "(NEC-2) has no dielectric to settle it. The match needs the stub's electrical "
+                    "length, so the physical stub scales with the velocity factor: it "
+                    + self.may_need(fc.stub_m, self.s.dimensions.stub))
         if st.kind == "nominal":
             return (f"The stub line's velocity factor {st.velocity_factor:g} is your own figure from the "
                     "design file; the stub is cut to it with no tuning margin. If it was not measured on "
@@ -688,12 +699,12 @@ class _Context:
                     "design with no tuning margin.")
         if r.velocity_factor_spread is not None:
             low, high = r.velocity_factor_spread
-            v = velocity_factor_text
+            spread = velocity_factor_text(low, high).replace("-", " to ")
             jacket = JACKET_NAMES.get(r.insulation, r.insulation)
-            return (f"The radiator's {jacket} jacket is taken at velocity factor {v(r.velocity_factor)}, but jackets range from {v(low)} to {v(high)} "
+            return (f"The radiator's {jacket} jacket is taken at velocity factor "
+                    f"{velocity_factor_text(r.velocity_factor)}, but jackets range from {spread} "
                     f"({_source_tag(r.spread_source)}), which NEC-2 cannot check either: the radiator "
-                    f"may need to be {self.off_range(fc.radiator_m)} than the "
-                    f"{self.length(self.s.dimensions.radiator)} solved.")
+                    + self.may_need(fc.radiator_m, self.s.dimensions.radiator))
         if r.insulation == "custom":
             return (f"The jacket's velocity factor {r.velocity_factor:g} is your own figure from the design "
                     "file; the radiator is cut to it with no tuning margin.")

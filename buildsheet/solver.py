@@ -354,10 +354,11 @@ def _solve(design: Design) -> Solution:
     )
 
 
-def velocity_factor_text(x: float) -> str:
-    """A velocity factor as the sources write it: 0.80, 0.93, 0.975."""
-    text = f"{x:.3f}"
-    return text[:-1] if text.endswith("0") else text
+def velocity_factor_text(*values: float) -> str:
+    """Velocity factors as the sources write them, to one precision: '0.80', '0.975',
+    '0.902-0.930' (two or three decimals, three where any value needs them)."""
+    digits = 3 if any(f"{x:.3f}"[-1] != "0" for x in values) else 2
+    return "-".join(f"{x:.{digits}f}" for x in values)
 
 
 def _scaled_range(length: float, vf: float, spread: tuple) -> tuple:
@@ -380,7 +381,7 @@ def first_cut(design: Design, dims: Dimensions, stub_vf_model: float) -> FirstCu
         low, high = st.velocity_factor_spread
         stub_m = _scaled_range(dims.stub, vf, (low, high))
         v = velocity_factor_text
-        stub_source = (f"{st.name}: velocity factor {v(vf)} taken; the sources give {v(low)}-{v(high)}: "
+        stub_source = (f"{st.name}: velocity factor {v(vf)} taken; the sources give {v(low, high)}: "
                        f"{st.spread_source}")
     elif st.kind == "nominal":
         stub_m, stub_source = none, (f"the velocity factor {st.velocity_factor:g} given in the design "
@@ -400,7 +401,7 @@ def first_cut(design: Design, dims: Dimensions, stub_vf_model: float) -> FirstCu
         radiator_m = _scaled_range(dims.radiator, rad.velocity_factor, (low, high))
         v = velocity_factor_text
         radiator_source = (f"{rad.insulation} jacket: velocity factor {v(rad.velocity_factor)} taken; "
-                           f"the sources give {v(low)}-{v(high)}: {rad.spread_source}")
+                           f"the sources give {v(low, high)}: {rad.spread_source}")
     elif rad.insulation == "custom":
         radiator_m, radiator_source = none, (f"the jacket's velocity factor {rad.velocity_factor:g} given "
                                              "in the design file is the builder's own figure: no "
