@@ -104,10 +104,12 @@ def test_pvc_jacket_and_twin_lead_uncertainty_is_the_spread_on_each_length():
     L, S = s.dimensions.radiator, s.dimensions.stub
     assert s.first_cut.radiator_m == pytest.approx((L * (0.95 - 0.96) / 0.96, L * (0.98 - 0.96) / 0.96),
                                                    rel=1e-12)
-    assert s.first_cut.stub_m == pytest.approx((S * (0.80 - 0.81) / 0.81, S * (0.82 - 0.81) / 0.81), rel=1e-12)
+    assert s.first_cut.stub_m == pytest.approx((S * (0.80 - 0.81) / 0.81, S * (0.82 - 0.81) / 0.81),
+                                               rel=1e-12)
     assert s.first_cut.radiator_margin_m == pytest.approx(L * 0.02 / 0.96, rel=1e-12)
     cut = {i.part: i for i in s.cut_list}
-    assert cut["radiator"].length_m == pytest.approx(L + s.first_cut.radiator_margin_m + 2 * s.wrap_allowance_m)
+    margin = s.first_cut.radiator_margin_m
+    assert cut["radiator"].length_m == pytest.approx(L + margin + 2 * s.wrap_allowance_m)
     assert s.radiator_cut_m == pytest.approx(cut["radiator"].length_m)
 
 
@@ -120,7 +122,8 @@ def replaced(name: str, old: str, new: str):
 def test_the_margin_agrees_with_the_model_resolved_at_the_spreads_end():
     """The formula is first order (the model's end corrections do not scale with the velocity
     factor): the model re-solved with the line at the spread's top velocity factor, and with the
-    jacket at its top, lands within a twentieth of the margin of what the formula says (measured: 0.5 % for the stub, 2 % for the radiator)."""
+    jacket at its top, lands within a twentieth of the margin the formula gives (measured: 0.5 %
+    for the stub, 2 % for the radiator)."""
     _, s = demo("oak-yard-20m")
     fast = replaced("oak-yard-20m", "line: window-450",
                     "line: {impedance: 400 ohm, velocity_factor: 0.930, spacing: 25 mm, conductor: 18 AWG,"
