@@ -609,6 +609,9 @@ class _Context:
             has_radiator_margin=self.shown(fc.radiator_margin_m),
             stub_start=self.length(dims.stub + fc.stub_margin_m),
             radiator_start=self.length(dims.radiator + fc.radiator_margin_m),
+            # from the long end the whole spread may have to be taken up
+            stub_travel=self.length(fc.stub_margin_m - min(fc.stub_m[0], 0.0)),
+            radiator_travel=self.length(fc.radiator_margin_m - min(fc.radiator_m[0], 0.0)),
             stub_off=self.off_range(fc.stub_m), radiator_off=self.off_range(fc.radiator_m),
             stub_why=self.stub_why(), radiator_why=self.radiator_why(),
             height=self.length(d.site.height_m), radiator=self.length(dims.radiator),

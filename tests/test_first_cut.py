@@ -185,7 +185,8 @@ def test_sheet_says_how_far_off_and_starts_long(name):
            f"{L(fc.stub_margin_m)} tuning margin: the long end)" in tuning
     assert f"stub line is cut {L(fc.stub_margin_m)} long" in tuning
     assert f"than the {L(dims.stub)} solved" in tuning
-    assert "moving the short up" in tuning
+    # from the long end the short may travel the whole spread: 2 x 1-3/8" for twin-lead
+    assert f"moving the short up (by up to {L(fc.stub_m[1] - fc.stub_m[0])} in all)" in tuning
     cut = text_of(sheet.section("cut-list").blocks).replace("\xa0", " ")
     assert f"a {L(fc.stub_margin_m)} tuning margin" in cut
     summary = text_of(sheet.section("summary").blocks).replace("\xa0", " ")
@@ -196,7 +197,8 @@ def test_sheet_says_how_far_off_and_starts_long(name):
         assert f"Radiator: {L(dims.radiator + fc.radiator_margin_m)} (the {L(dims.radiator)} solved plus " \
                f"the {L(fc.radiator_margin_m)} tuning margin)" in tuning
         assert f"{L(-fc.radiator_m[0])} shorter to {L(fc.radiator_m[1])} longer" in tuning
-        assert "shortening the radiator (taking up wire)" in tuning
+        assert f"shortening the radiator by taking up wire (up to {L(fc.radiator_m[1] - fc.radiator_m[0])}" \
+               " in all)" in tuning
         assert f"a {L(fc.radiator_margin_m)} tuning margin" in cut
     else:
         assert "bare wire: no jacket" in tuning
