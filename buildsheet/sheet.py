@@ -428,7 +428,10 @@ class _Context:
         r = self.d.radiator
         if r.insulation == "bare":
             return f"{r.label} {r.material}, bare"
-        return f"{r.label} {r.material}, {r.insulation} insulated (velocity factor {r.velocity_factor:.2f})"
+        spread = (f"; sources {velocity_factor_text(*r.velocity_factor_spread)}"
+                  if r.velocity_factor_spread is not None else "")
+        return (f"{r.label} {r.material}, {r.insulation} insulated (velocity factor "
+                f"{r.velocity_factor:.2f}{spread})")
 
     def ground(self) -> str:
         site = self.d.site
@@ -467,7 +470,9 @@ class _Context:
                 ("hung", _e(self.hung())),
                 ("radiator", _e(self.radiator_text())),
                 ("stub line", _e(f"{self.line_name()}: {_ohm(s.stub_line.z0_ohm)}, "
-                                 f"velocity factor {s.stub_line.velocity_factor:.3f}")),
+                                 f"velocity factor {s.stub_line.velocity_factor:.3f}" +
+                                 (f" (sources {velocity_factor_text(*d.stub.velocity_factor_spread)})"
+                                  if d.stub.velocity_factor_spread is not None else ""))),
                 ("feed", _e(f"{d.feed.coax}, {self.length(d.feed.length_m)} from the tap to the "
                             "station, choked at the tap")),
                 ("power", _e(f"{self.pep}, {MODE_NAMES.get(d.power.mode, d.power.mode)}")),
