@@ -10,6 +10,8 @@ Quantities in the file are written with units (units.py grammar) and held here i
     permittivity       relative permittivity of a ground
     z0_ohm             characteristic impedance, ohm
     velocity_factor    phase velocity as a fraction of c (for insulation: of the wire antenna)
+    velocity_factor_spread  (low, high): the range of published velocity factors of a stub line or
+                       jacket (spread_source says where from); None where there is no dielectric
     loss_db_per_100ft  matched loss as ((f_hz, dB per 100 ft), ...), the unit cable data use
     *_m, *_hz          lengths in m, frequencies in Hz
 
@@ -58,11 +60,15 @@ class Material:
 
 @dataclass(frozen=True)
 class Insulation:
-    """A wire jacket: velocity_factor is the shortening it causes on a wire antenna (1.0 = bare)."""
+    """A wire jacket: velocity_factor is the shortening it causes on a wire antenna (1.0 = bare);
+    velocity_factor_spread (low, high) the range the sources give (None for bare wire), with
+    spread_source saying where it comes from."""
 
     name: str
     velocity_factor: float
     source: str
+    velocity_factor_spread: tuple[float, float] | None = None
+    spread_source: str = ""
 
 
 @dataclass(frozen=True)
@@ -84,6 +90,8 @@ class StubLine:
     for drawings and the wire model. kind 'geometry': z0_ohm and velocity_factor are None and
     loss_db_per_100ft is empty; the line is computed from spacing_m, conductor_diameter_m,
     conductor_material and dielectric (catalogue names). note: what a builder should know.
+    velocity_factor_spread (low, high): the range of velocity factors the sources give for this
+    kind of line (None: no spread known), spread_source: where it comes from.
     """
 
     name: str
@@ -97,6 +105,8 @@ class StubLine:
     dielectric: str
     source: str
     note: str
+    velocity_factor_spread: tuple[float, float] | None = None
+    spread_source: str = ""
 
 
 @dataclass(frozen=True)
@@ -279,17 +289,43 @@ def _loss_points(raw) -> tuple[tuple[float, float], ...]:
                  for f, db in raw)
 
 
+def _spread(name: str, e: dict, vf: float | None) -> tuple[tuple[float, float] | None, str]:
+    """An entry's velocity_factor_spread and spread_source, checked: 0 < low <= high <= 1, the
+    entry's own velocity factor inside, and a source beside it."""
+    raw = e.get("velocity_factor_spread")
+    if raw is None:
+        return None, ""
+    if not isinstance(raw, list) or len(raw) != 2:
+        raise ValueError(f"catalog.yaml: {name}.velocity_factor_spread must be [low, high]")
+    low, high = (_plain_number(v, f"{name}.velocity_factor_spread") for v in raw)
+    if not 0.0 < low <= high <= 1.0 or (vf is not None and not low <= vf <= high):
+        raise ValueError(f"catalog.yaml: {name}.velocity_factor_spread [{low}, {high}] must hold "
+                         f"0 < low <= high <= 1 and the velocity factor {vf}")
+    if not str(e.get("spread_source", "")).strip():
+        raise ValueError(f"catalog.yaml: {name}.velocity_factor_spread needs a spread_source")
+    return (low, high), " ".join(str(e["spread_source"]).split())
+
+
+def _insulation(name: str, e: dict) -> Insulation:
+    vf = _plain_number(e["velocity_factor"], name)
+    spread, spread_source = _spread(name, e, vf)
+    return Insulation(name, vf, e["source"], spread, spread_source)
+
+
 def _stub_line(name: str, e: dict) -> StubLine:
     nominal = e["kind"] == "nominal"
+    vf = _plain_number(e["velocity_factor"], f"{name}.velocity_factor") if nominal else None
+    spread, spread_source = _spread(name, e, vf)
     return StubLine(
         name=name, kind=e["kind"],
         z0_ohm=parse_quantity(e["z0"], "impedance") if nominal else None,
-        velocity_factor=_plain_number(e["velocity_factor"], f"{name}.velocity_factor") if nominal else None,
+        velocity_factor=vf,
         loss_db_per_100ft=_loss_points(e["loss_db_per_100ft"]) if nominal else (),
         spacing_m=parse_quantity(e["spacing"], "length"),
         conductor_diameter_m=parse_wire(e["conductor"]),
         conductor_material=e["conductor_material"], dielectric=e["dielectric"],
-        source=e["source"], note=e.get("note", ""))
+        source=e["source"], note=e.get("note", ""), velocity_factor_spread=spread,
+        spread_source=spread_source)
 
 
 def _ground(name: str, e: dict) -> Ground:
@@ -317,8 +353,7 @@ def _build(raw: dict) -> Catalog:
     return Catalog(
         materials=frozen({n: Material(n, parse_quantity(e["conductivity"], "conductivity"), e["source"])
                           for n, e in raw["materials"].items()}),
-        insulations=frozen({n: Insulation(n, _plain_number(e["velocity_factor"], n), e["source"])
-                            for n, e in raw["insulation"].items()}),
+        insulations=frozen({n: _insulation(n, e) for n, e in raw["insulation"].items()}),
         dielectrics=frozen({n: Dielectric(n, _plain_number(e["eps_r"], n), _plain_number(e["tan_delta"], n),
                                           e["source"])
                             for n, e in raw["dielectrics"].items()}),

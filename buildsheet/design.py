@@ -97,20 +97,28 @@ _BAD_TEXT_CATEGORIES = ("Cc", "Cs", "Zl", "Zp")
 
 @dataclass(frozen=True)
 class Radiator:
-    """The radiator wire: diameter_m, the gauge as written (label), conductor and insulation."""
+    """The radiator wire: diameter_m, the gauge as written (label), conductor and insulation.
+    velocity_factor_spread (low, high) and spread_source: the catalogue jacket's range of velocity
+    factors and where it comes from; None for bare wire and for a figure given in the design file
+    (insulation 'custom': the builder's own)."""
     diameter_m: float
     label: str
     material: str
     conductivity_s_m: float
     insulation: str
     velocity_factor: float
+    velocity_factor_spread: tuple | None = None
+    spread_source: str = ""
 
 
 @dataclass(frozen=True)
 class StubLine:
     """The stub's two-wire line.  kind 'nominal': a manufactured line given by measured Z0, VF and
     loss; kind 'geometry': computed from spacing, conductor and dielectric.  spacing_m and
-    conductor_diameter_m are known for both (typical values for catalogue lines)."""
+    conductor_diameter_m are known for both (typical values for catalogue lines).
+    velocity_factor_spread (low, high) and spread_source: a catalogue line's range of velocity
+    factors and where it comes from; None for a line given in the design file (by measured figures:
+    the builder's own; by geometry: computed)."""
     kind: str
     name: str
     spacing_m: float
@@ -124,6 +132,8 @@ class StubLine:
     eps_r: float
     tan_delta: float
     source: str
+    velocity_factor_spread: tuple | None = None
+    spread_source: str = ""
 
 
 @dataclass(frozen=True)
@@ -222,6 +232,9 @@ class Design:
         for key in ("title", "output", "record", "path"):
             data.pop(key)
         data["stub"].pop("source")  # where the catalogue's numbers come from is not the antenna
+        for part in ("stub", "radiator"):  # nor the range the sources give for a velocity factor
+            data[part].pop("velocity_factor_spread")
+            data[part].pop("spread_source")
         if self.calibration.is_empty:
             data["calibration"] = {}
         else:
@@ -485,7 +498,11 @@ class _Validator:
             insulation = "custom"
         else:
             entry = self.catalogue("radiator.insulation", "insulation", DEFAULTS["radiator.insulation"])
-            insulation, vf = entry.name, entry.velocity_factor
+            return Radiator(diameter_m=diameter, label=str(raw).strip(), material=material.name,
+                            conductivity_s_m=material.conductivity_s_m, insulation=entry.name,
+                            velocity_factor=entry.velocity_factor,
+                            velocity_factor_spread=entry.velocity_factor_spread,
+                            spread_source=entry.spread_source)
         return Radiator(diameter_m=diameter, label=str(raw).strip(), material=material.name,
                         conductivity_s_m=material.conductivity_s_m, insulation=insulation,
                         velocity_factor=vf)
@@ -505,7 +522,9 @@ class _Validator:
                             conductor_material=material.name, conductivity_s_m=material.conductivity_s_m,
                             z0_ohm=entry.z0_ohm, velocity_factor=entry.velocity_factor,
                             loss_db_per_100ft=tuple(entry.loss_db_per_100ft), dielectric=dielectric.name,
-                            eps_r=dielectric.eps_r, tan_delta=dielectric.tan_delta, source=entry.source)
+                            eps_r=dielectric.eps_r, tan_delta=dielectric.tan_delta, source=entry.source,
+                            velocity_factor_spread=entry.velocity_factor_spread,
+                            spread_source=entry.spread_source)
         if not isinstance(raw, dict):
             raise self.fail("stub.line", "must be a catalogue line name (e.g. window-450) or a mapping "
                             "{spacing, conductor, dielectric} or {impedance, velocity_factor}, got "

@@ -32,7 +32,7 @@ from markupsafe import escape
 
 from buildsheet import units
 from buildsheet.design import Design
-from buildsheet.solver import RIGID_DIAMETER_M, Solution
+from buildsheet.solver import RIGID_DIAMETER_M, Solution, velocity_factor_text
 
 #: the measurement log's columns: what the builder writes by hand
 LOG_COLUMNS = ("#", "frequency", "SWR", "R (Ω)", "X (Ω)", "what was changed")
@@ -60,6 +60,7 @@ BIG_MOVE_FRACTION = 0.1
 #: blank rows in the as-built record when there are no entries, for writing by hand
 BLANK_RECORD_ROWS = 3
 
+JACKET_NAMES = {"pvc": "PVC"}
 MODE_NAMES = {"ssb": "SSB", "cw": "CW", "fm": "FM", "digital": "digital modes"}
 STANDARD_NAMES = {"us-fcc": "47 CFR 1.1310", "icnirp-2020": "ICNIRP 2020"}
 #: the exposure categories in each standard's own words: (controlled, general)
@@ -299,6 +300,15 @@ def _error_step(start: float, per_m: float, limit_m: float, min_move_m: float) -
     return step
 
 
+def _source_tag(source: str) -> str:
+    """How sure a catalogue spread is, in a few words: measured and stored, or from memory."""
+    if source.startswith("[S]"):
+        return "published measurements"
+    if "common practice" in source.lower():
+        return "common practice, from memory"
+    return "from memory, not confirmed"
+
+
 def _direction(move_m: float) -> str:
     """DESIGN.md §5: positive = toward the open top ("up")."""
     return "up" if move_m > 0 else "down"
@@ -383,10 +393,26 @@ class _Context:
                 KeyFigure("spacing", _e(self.length(dims.spacing)),
                           "centre to centre of the stub conductors"),
             )),
-            Para(_e(f"Dimensions as built, {rounding}; the pieces are cut longer (see the cut list)."),
-                 "note"),
+            Para(_e(f"Dimensions as built, {rounding}; the pieces are cut longer (see the cut list)."
+                    + self.margin_summary()), "note"),
             *(Para(_e(f"Model limit: {w[0].upper()}{w[1:]}."), "caution") for w in s.warnings),
         )
+
+    def margin_summary(self) -> str:
+        """One sentence on the tuning margins (solver.FirstCut), or '' when there are none."""
+        fc = self.s.first_cut
+        parts = [f"the {what} by {self.length(m)} ({self.off_range(span)} than solved)"
+                 for what, m, span in (("stub line", fc.stub_margin_m, fc.stub_m),
+                                       ("radiator", fc.radiator_margin_m, fc.radiator_m))
+                 if self.shown(m)]
+        if not parts:
+            return ""
+        jacket = JACKET_NAMES.get(self.d.radiator.insulation, self.d.radiator.insulation)
+        why = [what for what, m in ((f"the {self.d.stub.name} line's", fc.stub_margin_m),
+                                    (f"the {jacket} jacket's", fc.radiator_margin_m)) if self.shown(m)]
+        return (f" The first cut starts long, {' and '.join(parts)}: {' and '.join(why)} velocity "
+                f"factor{'s are' if len(why) > 1 else ' is'} only known to the spread between the "
+                "sources (see the tuning procedure).")
 
     def radiator_end(self) -> str:
         """Where the radiator's length starts (DESIGN.md §5): the far end insulator's attachment
@@ -408,7 +434,10 @@ class _Context:
         r = self.d.radiator
         if r.insulation == "bare":
             return f"{r.label} {r.material}, bare"
-        return f"{r.label} {r.material}, {r.insulation} insulated (velocity factor {r.velocity_factor:.2f})"
+        spread = (f"; sources {velocity_factor_text(*r.velocity_factor_spread)}"
+                  if r.velocity_factor_spread is not None else "")
+        return (f"{r.label} {r.material}, {r.insulation} insulated (velocity factor "
+                f"{r.velocity_factor:.2f}{spread})")
 
     def ground(self) -> str:
         site = self.d.site
@@ -439,7 +468,7 @@ class _Context:
     def cut_list(self) -> tuple:
         cut_rows = tuple((_e(i.part), str(i.quantity), _e(self.length(i.length_m)),
                           _e(self.length(i.allowance_m)) if i.allowance_m > 0 else "none",
-                          _e(i.material), _e(i.note)) for i in self.s.cut_list)
+                          _e(i.material), _e(self.cut_note(i))) for i in self.s.cut_list)
         hardware_rows = tuple((str(h.quantity), _e(h.item), _e(h.note)) for h in self.s.hardware)
         d, s = self.d, self.s
         return (
@@ -447,7 +476,9 @@ class _Context:
                 ("hung", _e(self.hung())),
                 ("radiator", _e(self.radiator_text())),
                 ("stub line", _e(f"{self.line_name()}: {_ohm(s.stub_line.z0_ohm)}, "
-                                 f"velocity factor {s.stub_line.velocity_factor:.3f}")),
+                                 f"velocity factor {s.stub_line.velocity_factor:.3f}" +
+                                 (f" (sources {velocity_factor_text(*d.stub.velocity_factor_spread)})"
+                                  if d.stub.velocity_factor_spread is not None else ""))),
                 ("feed", _e(f"{d.feed.coax}, {self.length(d.feed.length_m)} from the tap to the "
                             "station, choked at the tap")),
                 ("power", _e(f"{self.pep}, {MODE_NAMES.get(d.power.mode, d.power.mode)}")),
@@ -462,6 +493,13 @@ class _Context:
             Table(header=("qty", "item", "note"), rows=hardware_rows, widths=(0.45, 2.6, 4.9),
                   align=("right", "left", "left"), boxes=(1,) * len(hardware_rows)),
         )
+
+    def cut_note(self, item) -> str:
+        """A cut item's note, with its tuning margin (solver.FirstCut) where it has one."""
+        if not self.shown(item.margin_m):
+            return item.note
+        return (f"{item.note}, and a {self.length(item.margin_m)} tuning margin: the first cut starts "
+                "long (see the tuning procedure)")
 
     # -- 6. predicted performance ------------------------------------------------------------
     def performance(self) -> tuple:
@@ -575,7 +613,18 @@ class _Context:
         swr2 = s.band_swr2_hz
         tolerance = _nice(0.1 * (swr2[1] - swr2[0])) if swr2 else _nice(0.002 * f0)
         rigid = d.radiator.diameter_m >= RIGID_DIAMETER_M
+        fc = s.first_cut
         return dict(
+            stub_margin=self.length(fc.stub_margin_m), has_stub_margin=self.shown(fc.stub_margin_m),
+            radiator_margin=self.length(fc.radiator_margin_m),
+            has_radiator_margin=self.shown(fc.radiator_margin_m),
+            stub_start=self.length(dims.stub + fc.stub_margin_m),
+            radiator_start=self.length(dims.radiator + fc.radiator_margin_m),
+            # from the long end the whole spread may have to be taken up
+            stub_travel=self.length(fc.stub_margin_m - min(fc.stub_m[0], 0.0)),
+            radiator_travel=self.length(fc.radiator_margin_m - min(fc.radiator_m[0], 0.0)),
+            stub_off=self.off_range(fc.stub_m), radiator_off=self.off_range(fc.radiator_m),
+            stub_why=self.stub_why(), radiator_why=self.radiator_why(),
             height=self.length(d.site.height_m), radiator=self.length(dims.radiator),
             radiator_end=self.radiator_end(), vertical=d.site.orientation == "vertical",
             stub=self.length(dims.stub), tap=self.length(dims.tap),
@@ -602,6 +651,78 @@ class _Context:
 
     def tuning(self) -> tuple:
         return render_blocks("tuning.j2", **self.tuning_values())
+
+    # -- the first cut's uncertainty (solver.FirstCut) -----------------------------------------
+    def shown(self, m: float) -> bool:
+        """Whether a length rounds to something in the sheet's units (more than half the least
+        move a tape resolves)."""
+        return m >= 0.5 * MIN_MOVE_M[self.u]
+
+    def off_range(self, span: tuple) -> str:
+        """How far a first cut may be off, in words: '1-3/8" shorter to 1-3/8" longer', 'up to 5-7/8"
+        longer', or '' where the range rounds to nothing."""
+        low, high = span
+        short, long_ = self.shown(-low), self.shown(high)
+        if short and long_:
+            return f"{self.length(-low)} shorter to {self.length(high)} longer"
+        if long_:
+            return f"up to {self.length(high)} longer"
+        if short:
+            return f"up to {self.length(-low)} shorter"
+        return ""
+
+    def may_need(self, span: tuple, solved_m: float) -> str:
+        """'may need to be up to 5-7/8" longer than the 15' 9-1/8" solved.', or that the spread is
+        below the sheet's rounding."""
+        off = self.off_range(span)
+        if not off:
+            return f"the spread moves it by less than {self.length(MIN_MOVE_M[self.u])}."
+        return f"may need to be {off} than the {self.length(solved_m)} solved."
+
+    def stub_why(self) -> str:
+        """Why the stub's first cut is as sure as it is: the line's velocity factor and its spread."""
+        st, fc = self.d.stub, self.s.first_cut
+        if self.d.calibration.stub_velocity_scale != 1.0:
+            return ("The stub line's velocity factor was corrected by a fit to your measured sweep, so "
+                    "the stub is cut to the design with no tuning margin.")
+        if st.velocity_factor_spread is not None:
+            low, high = st.velocity_factor_spread
+            vf = st.velocity_factor if st.velocity_factor is not None else self.s.stub_line.velocity_factor
+            spread = velocity_factor_text(low, high).replace("-", " to ")
+            return (f"The stub line ({st.name}) is taken at velocity factor {velocity_factor_text(vf)}, "
+                    f"but the sources give {spread} for this kind of line "
+                    f"({_source_tag(st.spread_source)}), and the reference this model is checked against "
+                    "(NEC-2) has no dielectric to settle it. The match needs the stub's electrical "
+                    "length, so the physical stub scales with the velocity factor: it "
+                    + self.may_need(fc.stub_m, self.s.dimensions.stub))
+        if st.kind == "nominal":
+            return (f"The stub line's velocity factor {st.velocity_factor:g} is your own figure from the "
+                    "design file; the stub is cut to it with no tuning margin. If it was not measured on "
+                    "this roll of line, the short may have to move further than the table expects.")
+        if st.eps_r == 1.0:
+            return ("The stub line is air-spaced and computed from its geometry: no dielectric, so no "
+                    "velocity-factor spread and no tuning margin.")
+        return (f"The stub line is computed from its geometry in {st.dielectric}; no published spread is "
+                "known for it, so no tuning margin is added. Measure its velocity factor if the short "
+                "will not bring X to 0.")
+
+    def radiator_why(self) -> str:
+        r, fc = self.d.radiator, self.s.first_cut
+        if self.d.calibration.radiator_scale != 1.0:
+            return ("The radiator was corrected by a fit to your measured sweep, so it is cut to the "
+                    "design with no tuning margin.")
+        if r.velocity_factor_spread is not None:
+            low, high = r.velocity_factor_spread
+            spread = velocity_factor_text(low, high).replace("-", " to ")
+            jacket = JACKET_NAMES.get(r.insulation, r.insulation)
+            return (f"The radiator's {jacket} jacket is taken at velocity factor "
+                    f"{velocity_factor_text(r.velocity_factor)}, but jackets range from {spread} "
+                    f"({_source_tag(r.spread_source)}), which NEC-2 cannot check either: the radiator "
+                    + self.may_need(fc.radiator_m, self.s.dimensions.radiator))
+        if r.insulation == "custom":
+            return (f"The jacket's velocity factor {r.velocity_factor:g} is your own figure from the design "
+                    "file; the radiator is cut to it with no tuning margin.")
+        return "The radiator is bare wire: no jacket, so no velocity-factor spread and no tuning margin."
 
     def log(self) -> tuple:
         return (

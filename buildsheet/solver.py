@@ -52,13 +52,42 @@ class Dimensions:
 
 @dataclass(frozen=True)
 class CutItem:
-    """One piece to cut: length_m includes allowance_m (wraps, cutting, pigtail)."""
+    """One piece to cut: length_m includes allowance_m (wraps, cutting, pigtail), and allowance_m
+    includes margin_m, the tuning margin for a velocity factor the sources do not agree on
+    (FirstCut)."""
     part: str
     material: str
     length_m: float
     quantity: int
     allowance_m: float
     note: str
+    margin_m: float = 0.0
+
+
+@dataclass(frozen=True)
+class FirstCut:
+    """How far the first cut may be off because the velocity factor of the stub line or of the
+    radiator's jacket is only known to the spread between its sources (NEC-2, the project's
+    reference, has no dielectric to check it by).
+
+    stub_m, radiator_m: (low, high), m, the range of (length needed - length solved) over the
+    spread: the match needs the stub's electrical length, so the physical stub scales with the
+    line's velocity factor, S_true = S * vf_true / vf; the jacket likewise scales the radiator,
+    L_true = L * vf_true / vf. (0, 0) where there is no spread. stub_source, radiator_source: the
+    velocity factor taken, its range and where the range comes from, or why there is none.
+    The margins (the high ends, never negative) are what the tuning procedure starts long by."""
+    stub_m: tuple
+    radiator_m: tuple
+    stub_source: str
+    radiator_source: str
+
+    @property
+    def stub_margin_m(self) -> float:
+        return max(0.0, self.stub_m[1])
+
+    @property
+    def radiator_margin_m(self) -> float:
+        return max(0.0, self.radiator_m[1])
 
 
 @dataclass(frozen=True)
@@ -129,6 +158,7 @@ class Solution:
     sensitivity: dict
     choke: choke_physics.ChokeDesign
     exposure: Exposure
+    first_cut: FirstCut
     warnings: tuple = ()
 
     @property
@@ -155,8 +185,15 @@ class Solution:
             "stub_line": {"z0_ohm": self.stub_line.z0_ohm, "velocity_factor": self.stub_line.velocity_factor,
                           "loss_db_per_100ft": self.stub_line.loss_db_per_100ft},
             "cut_list": [{"part": i.part, "material": i.material, "length_m": i.length_m,
-                          "quantity": i.quantity, "allowance_m": i.allowance_m, "note": i.note}
+                          "quantity": i.quantity, "allowance_m": i.allowance_m, "note": i.note,
+                          "margin_m": i.margin_m}
                          for i in self.cut_list],
+            "first_cut": {"stub_m": list(self.first_cut.stub_m),
+                          "radiator_m": list(self.first_cut.radiator_m),
+                          "stub_margin_m": self.first_cut.stub_margin_m,
+                          "radiator_margin_m": self.first_cut.radiator_margin_m,
+                          "source": {"stub": self.first_cut.stub_source,
+                                     "radiator": self.first_cut.radiator_source}},
             "hardware": [{"item": h.item, "quantity": h.quantity, "note": h.note} for h in self.hardware],
             "feed": {"impedance_ohm": [self.feed_impedance.real, self.feed_impedance.imag],
                      "swr": self.feed_swr, "swr_transmitter": self.feed_swr_transmitter},
@@ -389,10 +426,12 @@ def _solve(design: Design) -> Solution:
                              velocity_factor=float(line.velocity_factor(f0)),
                              loss_db_per_100ft=float(gamma_line.real * DB_PER_NEPER * 100 * FT))
     dims = Dimensions(radiator=radiator, stub=stub, tap=tap, spacing=design.stub.spacing_m)
-    cut, hardware = _cut_list(design, dims, wrap, ch)
+    first = first_cut(design, dims, stub_data.velocity_factor)
+    cut, hardware = _cut_list(design, dims, wrap, ch, first)
     return Solution(
         name=design.name, design_id=design.document_id, frequency_hz=f0, band_hz=tuple(design.band_hz),
-        dimensions=dims, radiator_cut_m=radiator + 2 * wrap, wrap_allowance_m=wrap, stub_line=stub_data,
+        dimensions=dims, radiator_cut_m=radiator + first.radiator_margin_m + 2 * wrap,
+        wrap_allowance_m=wrap, stub_line=stub_data,
         cut_list=cut, hardware=hardware, feed_impedance=complex(z[i0]), feed_swr=float(swr_feed[i0]),
         feed_swr_transmitter=float(swr_tx[i0]),
         sweep=Sweep(frequency_hz=f, swr=swr_feed, swr_transmitter=swr_tx, r_ohm=z.real, x_ohm=z.imag),
@@ -405,7 +444,7 @@ def _solve(design: Design) -> Solution:
                       "radiator_wire": state.p_wire, "ground": state.p_ground,
                       "coax": design.power.transmitter_w - p_tap},
         sensitivity=sens._asdict(),
-        choke=ch, exposure=exposure, warnings=envelope_warnings(design),
+        choke=ch, exposure=exposure, first_cut=first, warnings=envelope_warnings(design),
     )
 
 
@@ -456,6 +495,65 @@ def _check_clearance(design: Design, radiator: float, stub: float) -> None:
                               "smaller slope or a higher top", file=design.path, key="site.slope")
 
 
+def velocity_factor_text(*values: float) -> str:
+    """Velocity factors as the sources write them, to one precision: '0.80', '0.975',
+    '0.902-0.930' (two or three decimals, three where any value needs them)."""
+    digits = 3 if any(f"{x:.3f}"[-1] != "0" for x in values) else 2
+    return "-".join(f"{x:.{digits}f}" for x in values)
+
+
+def _scaled_range(length: float, vf: float, spread: tuple) -> tuple:
+    """(low, high) of length * (vf_true / vf - 1) for vf_true over the spread, m."""
+    low, high = spread
+    return (length * (low - vf) / vf, length * (high - vf) / vf)
+
+
+def first_cut(design: Design, dims: Dimensions, stub_vf_model: float) -> FirstCut:
+    """The first cut's uncertainty from the velocity-factor spreads of the stub line and the
+    radiator's jacket (see FirstCut). stub_vf_model: the stub line's velocity factor in the model
+    at the design frequency, the reference for a line computed from its geometry."""
+    st, rad, cal = design.stub, design.radiator, design.calibration
+    none = (0.0, 0.0)
+    if cal.stub_velocity_scale != 1.0:
+        stub_m, stub_source = none, ("the stub line's velocity factor is corrected by `buildsheet fit` "
+                                     "from a measured sweep: no catalogue spread applies")
+    elif st.velocity_factor_spread is not None:
+        vf = st.velocity_factor if st.velocity_factor is not None else stub_vf_model
+        low, high = st.velocity_factor_spread
+        stub_m = _scaled_range(dims.stub, vf, (low, high))
+        v = velocity_factor_text
+        stub_source = (f"{st.name}: velocity factor {v(vf)} taken; the sources give {v(low, high)}: "
+                       f"{st.spread_source}")
+    elif st.kind == "nominal":
+        stub_m, stub_source = none, (f"the velocity factor {st.velocity_factor:g} given in the design "
+                                     "file is the builder's own figure: no catalogue spread applies")
+    elif st.eps_r == 1.0:
+        stub_m, stub_source = none, ("air-spaced line computed from its geometry: no dielectric, no "
+                                     "velocity-factor spread")
+    else:
+        stub_m, stub_source = none, (f"line computed from its geometry, filled with {st.dielectric}: "
+                                     "no published spread for this line; measure its velocity factor "
+                                     "if the stub does not tune")
+    if cal.radiator_scale != 1.0:
+        radiator_m, radiator_source = none, ("the radiator is corrected by `buildsheet fit` from a "
+                                             "measured sweep: no catalogue spread applies")
+    elif rad.velocity_factor_spread is not None:
+        low, high = rad.velocity_factor_spread
+        radiator_m = _scaled_range(dims.radiator, rad.velocity_factor, (low, high))
+        v = velocity_factor_text
+        radiator_source = (f"{rad.insulation} jacket: velocity factor {v(rad.velocity_factor)} taken; "
+                           f"the sources give {v(low, high)}: {rad.spread_source}")
+    elif rad.insulation == "custom":
+        radiator_m, radiator_source = none, (f"the jacket's velocity factor {rad.velocity_factor:g} given "
+                                             "in the design file is the builder's own figure: no "
+                                             "catalogue spread applies")
+    else:
+        radiator_m, radiator_source = none, "bare wire: no jacket, no velocity-factor spread"
+    return FirstCut(stub_m=tuple(float(v) for v in stub_m),
+                    radiator_m=tuple(float(v) for v in radiator_m),
+                    stub_source=stub_source, radiator_source=radiator_source)
+
+
 def _exposure(design: Design, efficiency: float, coax_loss_db: float) -> Exposure:
     """Screening distances (OET Bulletin 65 far-field formula with the 2.56 ground-reflection factor)
     at the band edge where the limit is strictest."""
@@ -493,8 +591,9 @@ def _wrap_allowance(design: Design) -> float:
     return min(0.15, 0.015 * design.wavelength_m)
 
 
-def _cut_list(design: Design, d: Dimensions, wrap: float, ch) -> tuple[tuple, tuple]:
-    """What to cut (with allowances) and what to buy. Allowances are common practice."""
+def _cut_list(design: Design, d: Dimensions, wrap: float, ch, first: FirstCut) -> tuple[tuple, tuple]:
+    """What to cut (with allowances) and what to buy. Allowances are common practice; the radiator
+    and the stub line are cut long by the first cut's tuning margins as well (FirstCut)."""
     rigid_radiator = _is_rigid(design.radiator.diameter_m)
     rigid_stub = _is_rigid(design.stub.conductor_diameter_m)
     lam = design.wavelength_m
@@ -507,13 +606,15 @@ def _cut_list(design: Design, d: Dimensions, wrap: float, ch) -> tuple[tuple, tu
     coax_total = design.feed.length_m + coil_coax + pigtail
     radiator_material = f"{design.radiator.label} {design.radiator.material}" + (
         "" if design.radiator.insulation == "bare" else f", {design.radiator.insulation} insulated")
+    m_rad, m_stub = first.radiator_margin_m, first.stub_margin_m
     items = [
-        CutItem("radiator", radiator_material, d.radiator + 2 * wrap, 1, 2 * wrap,
-                "wrap allowance at each end included" if not rigid_radiator else
-                "cutting allowance at each end included"),
-        CutItem("stub line", line_name, d.stub + beyond_short + junction, 1, beyond_short + junction,
+        CutItem("radiator", radiator_material, d.radiator + m_rad + 2 * wrap, 1, m_rad + 2 * wrap,
+                ("wrap allowance at each end included" if not rigid_radiator else
+                 "cutting allowance at each end included"), margin_m=m_rad),
+        CutItem("stub line", line_name, d.stub + m_stub + beyond_short + junction, 1,
+                m_stub + beyond_short + junction,
                 "includes the length below the short" +
-                (" and the wrap at the open top" if junction else "")),
+                (" and the wrap at the open top" if junction else ""), margin_m=m_stub),
         CutItem("short bar", "bare copper wire" if not rigid_stub else design.stub.conductor_material + " bar",
                 d.spacing + (2 * wrap if not rigid_stub else 0.02), 1, 2 * wrap if not rigid_stub else 0.02,
                 "across the stub at the short, soldered or clamped"),

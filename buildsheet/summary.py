@@ -15,6 +15,14 @@ def _band(edges, fmt=units.format_frequency) -> str:
     return f"{fmt(low)} to {fmt(high)} ({(high - low) / 1e3:.0f} kHz)"
 
 
+def _off(span, L) -> str:
+    """How far a first cut may be off: '3.6 cm shorter to 3.6 cm longer', 'up to 15 cm longer'."""
+    low, high = span
+    if low < 0 < high:
+        return f"{L(-low)} shorter to {L(high)} longer"
+    return f"up to {L(high)} longer" if high > 0 else f"up to {L(-low)} shorter"
+
+
 def summary_text(design: Design, s: Solution) -> str:
     u = design.output.units
     L = lambda m: units.format_length(m, u)  # noqa: E731 - a local shorthand
@@ -38,6 +46,20 @@ def summary_text(design: Design, s: Solution) -> str:
     for item in s.cut_list:
         qty = f"{item.quantity} x" if item.quantity > 1 else ""
         add(f"  [ ] {item.part:<12} {qty:>3} {L(item.length_m):>12}  {item.material}; {item.note}")
+    fc = s.first_cut
+    margins = [(what, m, span) for what, m, span in (("stub line", fc.stub_margin_m, fc.stub_m),
+                                                     ("radiator", fc.radiator_margin_m, fc.radiator_m))
+               if m > 0]
+    if margins:
+        add("  First cut long (tuning margin, included above): "
+            + "; ".join(f"{what} +{L(m)}, may need {_off(span, L)} than solved"
+                        for what, m, span in margins))
+        parts = {"stub line": ("the short at the long end", "move the short up"),
+                 "radiator": ("the radiator hung long", "take up wire")}
+        start = " and ".join(parts[what][0] for what, _, _ in margins)
+        then = " and ".join(parts[what][1] for what, _, _ in margins)
+        add("  Why: the velocity factor of dielectric line and jacketed wire is only known to the spread "
+            f"between its sources; start with {start}, then {then} as the tuning table says.")
     add("Hardware")
     for h in s.hardware:
         add(f"  [ ] {h.quantity:>3} x {h.item}: {h.note}")

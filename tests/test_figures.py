@@ -116,6 +116,8 @@ def expected_lengths(design, solution) -> dict[str, dict[str, float]]:
     allowance = "allowance" if rigid else "wrap"
     radiator = {"radiator": d.radiator, "cut length": solution.radiator_cut_m,
                 allowance: solution.wrap_allowance_m}
+    if solution.first_cut.radiator_margin_m > 0:  # the radiator is cut long by its tuning margin
+        radiator["tuning margin"] = solution.first_cut.radiator_margin_m
     label = design.radiator.label.lower()
     if "awg" not in label and not label.startswith("#"):
         radiator["wire"] = design.radiator.diameter_m
@@ -132,7 +134,8 @@ def expected_lengths(design, solution) -> dict[str, dict[str, float]]:
     }
 
 
-_NAMED = re.compile(r"^(radiator|stub|tap|height|spacing|cut length|wrap|allowance|coil|form) (.+)$")
+_NAMED = re.compile(r"^(radiator|stub|tap|height|spacing|cut length|wrap|allowance|tuning margin|coil|form)"
+                    r" (.+)$")
 
 
 def check_printed_lengths(design, solution, drawings) -> None:

@@ -728,11 +728,18 @@ def _radiator(ctx: _Context) -> Drawing:
     wrap_text = f"{allowance} {L(s.wrap_allowance_m)}"
     w_d = max(60.0, _width(wrap_text) + 14.0)
     x_c0, x_c1 = 60.0, 440.0
-    x_m0, x_m1 = x_c0 + w_d, x_c1 - w_d
+    margin = s.first_cut.radiator_margin_m
+    margin_text = f"tuning margin {L(margin)}"
+    w_t = max(60.0, _width(margin_text) + 14.0) if margin > 0 else 0.0
+    # the far end (the wire's left end) gets the tuning margin: the radiator is first hung long
+    x_m0, x_m1 = x_c0 + w_d + w_t, x_c1 - w_d
+    x_t = x_c0 + w_d
     sheet.add(BreakMark(x_c0, y2, x_c1, y2, at=0.5, width=CONDUCTOR))
-    for x in (x_m0, x_m1):
+    for x in (x_m0, x_m1) + ((x_t,) if margin > 0 else ()):
         sheet.add(Line(x, y2 - 5.0, x, y2 + 5.0, width=0.9))
-    sheet.add(Dimension(x_c0, y2, x_m0, y2, wrap_text, 14.0))
+    sheet.add(Dimension(x_c0, y2, x_t, y2, wrap_text, 14.0))
+    if margin > 0:
+        sheet.add(Dimension(x_t, y2, x_m0, y2, margin_text, 14.0))
     sheet.add(Dimension(x_m0, y2, x_m1, y2, f"radiator {L(s.dimensions.radiator)}", 14.0))
     sheet.add(Dimension(x_m1, y2, x_c1, y2, wrap_text, 14.0))
     sheet.add(Dimension(x_c0, y2, x_c1, y2, f"cut length {L(s.radiator_cut_m)}", -16.0))
@@ -740,6 +747,9 @@ def _radiator(ctx: _Context) -> Drawing:
                   radii=(30, 42, 56))
     sheet.place_text([(x_c0, y2 + 40.0), (PAD + 2.0, y2 + 40.0)],
                      [f"wire: {ctx.wire_text()}"], size=LABEL)
+    if margin > 0:
+        sheet.callout(x_t, y2 + 5.0, ["first attachment point (long):", "take up wire from here to tune"],
+                      angles=(300, 280, 320, 260), radii=(30, 42, 56))
     notes = ["Not to scale: the radiator is drawn shortened (break marks).", ctx.rounding_note()]
     if vertical:
         notes.insert(0, "Drawn lying down: the left end is the top of the vertical.")
