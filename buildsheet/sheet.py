@@ -591,7 +591,8 @@ class _Context:
         dims = s.dimensions
         least = MIN_MOVE_M[self.u]
         # one dip error for both moves that correct it, each move within its part's linear range;
-        # where the short barely moves the dip (it mostly spoils the match there), the radiator alone
+        # where the short cannot move the dip far without spoiling the match (it also shortens the tap
+        # distance), the radiator alone
         df = _error_step(_nice(FREQUENCY_STEP * f0), sens["dip_hz_per_m_radiator"],
                          LINEAR_FRACTION * dims.radiator, least)
         df_short = _error_step(_nice(FREQUENCY_STEP * f0), sens["dip_hz_per_m_short"],
