@@ -464,23 +464,33 @@ def resonance(f, z):
     return fr, float(np.interp(fr, f, z.real))
 
 
-def _stub_fit(row):
-    """Least-squares Z0 and end correction delta of X = Z0 tan(k (l + delta)) over the sweep
-    (points with |X| under 3 Z0, away from the quarter-wave pole)."""
+def _stub_fit(rows, with_gap=True):
+    """Least-squares fit of the stub sweeps (one or several lengths l, same line) to line theory:
+    X = Z0 tan(k (l + delta)) seen through the port gap's capacitance C in parallel (the one-cell
+    gap is a small capacitor the NEC-2 delta gap does not have), points with |X| under 3 Z0 (away
+    from the quarter-wave pole). Returns Z0, delta, C and the rms misfit."""
     from scipy.optimize import least_squares
-    f = np.asarray(row["f"])
-    z = np.asarray(row["z"])
-    x = z[:, 1]
+    z0t = 120 * math.acosh(rows[0]["s"] / rows[0]["d"])
+    f, x, l = [], [], []
+    for r in rows:
+        zz = np.asarray(r["z"])
+        use = np.abs(zz[:, 1]) < 3 * z0t
+        f += list(np.asarray(r["f"])[use])
+        x += list(zz[use, 1])
+        l += [r["l"]] * int(use.sum())
+    f, x, l = map(np.asarray, (f, x, l))
     k = 2 * np.pi * f / C0
-    z0t = 120 * math.acosh(row["s"] / row["d"])
-    use = np.abs(x) < 3 * z0t
-    fun = lambda p: (p[0] * np.tan(k[use] * (row["l"] + p[1])) - x[use]) / z0t
-    sol = least_squares(fun, [z0t, 0.0])
-    z0, delta = sol.x
-    rms = float(np.sqrt(np.mean(fun(sol.x) ** 2)) * z0t)
+
+    def model(p):
+        xl = p[0] * np.tan(k * (l + p[1]))
+        return 1.0 / (1.0 / xl - 2 * np.pi * f * p[2] * 1e-12) if with_gap else xl
+
+    sol = least_squares(lambda p: model(p) - x, [z0t, 0.5 * rows[0]["s"], 0.3][:3 if with_gap else 2])
+    z0, delta = sol.x[:2]
     return dict(z0_fit=float(z0), z0_theory=z0t, z0_error=float(z0 / z0t - 1), delta_m=float(delta),
-                delta_spacings=float(delta / row["s"]), rms_ohm=rms, n=int(use.sum()),
-                r_max_ohm=float(np.max(z[use, 0])))
+                delta_spacings=float(delta / rows[0]["s"]),
+                gap_pf=float(sol.x[2]) if with_gap else None,
+                rms_ohm=float(np.sqrt(np.mean(sol.fun ** 2))), n=int(len(f)))
 
 
 def report():
@@ -505,13 +515,20 @@ def report():
             print(f"dipole {r['name']:10s} m={e['m']} h {e['h_mm']:.2f} mm: FDTD {r['f_res']/1e6:.3f} MHz "
                   f"R {r['r_res']:.2f}; NEC-2 ({nseg} seg) {fn/1e6:.3f} MHz R {rn:.2f}; "
                   f"df {100*(r['f_res']/fn-1):+.2f} %, {e['run_s']:.0f} s")
-        elif r["kind"] == "stub":
-            e = dict(name=r["name"], m=r["mesh"]["m"], l=r["l"], s=r["s"], d=r["d"], **_stub_fit(r),
-                     run_s=r["mesh"]["run_s"])
-            out["stubs"].append(e)
-            print(f"stub {r['name']:10s} m={e['m']} l {r['l']:.3f}: Z0 fit {e['z0_fit']:.2f} theory "
-                  f"{e['z0_theory']:.2f} ({100*e['z0_error']:+.2f} %), delta {e['delta_m']*1e3:.1f} mm "
-                  f"= {e['delta_spacings']:.2f} s, rms {e['rms_ohm']:.2f} ohm, {e['run_s']:.0f} s")
+    groups = {}
+    for r in proofs:
+        if r["kind"] == "stub":
+            groups.setdefault((r["name"], r["mesh"]["m"]), []).append(r)
+    for (name, m), rs in groups.items():
+        for sel, label in [([r], f"l {r['l']:.3f}") for r in rs] + ([(rs, "joint")] if len(rs) > 1 else []):
+            for gap in (True, False):
+                e = dict(name=name, m=m, fit=label, lengths=[r["l"] for r in sel], s=sel[0]["s"],
+                         d=sel[0]["d"], **_stub_fit(sel, gap), run_s=[r["mesh"]["run_s"] for r in sel])
+                out["stubs"].append(e)
+                gp = f", gap C {e['gap_pf']:.3f} pF" if gap else " (no gap C)"
+                print(f"stub {name} m={m} {label}: Z0 fit {e['z0_fit']:.2f} theory {e['z0_theory']:.2f} "
+                      f"({100*e['z0_error']:+.2f} %), delta {e['delta_m']*1e3:.1f} mm = "
+                      f"{e['delta_spacings']:.2f} s{gp}, rms {e['rms_ohm']:.2f} ohm")
     rows = json.loads(JPOLES.read_text()) if JPOLES.exists() else []
     for r in rows:
         case = acc.Case(**{**r["case"], "band": tuple(r["case"]["band"])})
