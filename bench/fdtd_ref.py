@@ -2,10 +2,14 @@
 cannot be meshed validly (DESIGN.md §7). Bench only: runs take minutes and never belong in tests/CI.
 
 Two interpreters, because openEMS comes from Debian and PyNEC/buildsheet live in the venv:
-  /usr/bin/python3 bench/fdtd_ref.py dipole|stub|jpole ...   FDTD runs (Debian python3-openems)
-  .venv/bin/python bench/fdtd_ref.py plan|nec ...             model dimensions, NEC-2 figures
-Subcommands (see `main`): `proofs` (dipoles, stubs, J-pole mesh study -> bench/data/fdtd-proofs.json),
-`jpoles` (the rigid designs -> bench/data/fdtd-jpoles.json), `plan` and `nec` (venv side).
+  .venv/bin/python bench/fdtd_ref.py plan                  the model's dimensions -> fdtd-plan.json
+  /usr/bin/python3 bench/fdtd_ref.py dipole-proof NAME LENGTH D F0 M
+  /usr/bin/python3 bench/fdtd_ref.py stub-proof NAME L S D F0 M      -> bench/data/fdtd-proofs.json
+  /usr/bin/python3 bench/fdtd_ref.py jpole NAME M [SCALE_S SCALE_T]  -> bench/data/fdtd-jpoles.json
+  .venv/bin/python bench/fdtd_ref.py report                 proof figures and FDTD vs NEC-2 table
+                                                           -> bench/data/fdtd-summary.json
+M is the number of cells across a conductor (the mesh study varies it). Each FDTD command runs
+one openEMS simulation and appends its row (mesh, command, date) to the data file.
 
 Geometry (SI, metres) follows tests/necref.py: z up; stub conductor A at x = 0, B at x = -spacing;
 vertical J-pole: short at z = z_short, tap bar at z_short + tap, open top at z_short + stub, the
@@ -18,11 +22,17 @@ Method (DESIGN.md §7, "Lessons from a first FDTD study"):
     limit: finite integration on the grid nodes, metal nodes at one potential) gives the two-wire
     Z0 = 120 acosh(s/d) of the round conductors (Wheeler/Ramo, air line); a lone wire (dipole) is
     calibrated the same way as one conductor of a pair 10 d apart, where proximity is negligible;
-  - the plane y = 0 holds every conductor: it is a magnetic wall (PMC) of symmetry and only y >= 0
-    is simulated; the port then sees half the current, Z = U / I_half / 2;
-  - a lumped port (R = 2 x 50 ohm in the half model) in a one-cell gap in the middle of the tap bar
-    (dipole: centre gap); Gaussian excitation f0 +/- 50 %; stop at -50 dB energy; PML (8 cells) on
-    the other five faces (a perfect ground: PEC at z = 0 instead);
+  - the whole antenna is simulated. The plane y = 0 holds every conductor and could be a magnetic
+    wall (PMC; `half=True` builds that model), but openEMS's current probe runs on the dual grid
+    and cannot close its loop on the symmetry face: it misses the current of the conductor's
+    node row at y = 0 (a half model read a zero or partial current), so the runs use the full
+    model at twice the cost;
+  - a lumped port (50 ohm) in a one-cell gap in the middle of the tap bar (dipole: centre gap),
+    its voltage read along the gap, its current by an H loop half a cell outside the bar;
+    Gaussian excitation f0 +/- 50 %; stop at -50 dB energy; PML (8 cells) on all faces (a perfect
+    ground: PEC at z = 0 instead). The one-cell gap is a small capacitor (about 0.5 pF for the
+    2 m pipe, fitted from the plain stubs) that a NEC-2 delta gap does not have; at a 50-ohm feed
+    it moves Z by under 1 ohm, and the stored impedances include it;
   - openEMS runs with one thread under `nice` (shared 2-core machine).
 """
 
