@@ -363,8 +363,9 @@ def dipole_fdtd(name, length, d, f0, freqs, m=3, settings=None, half=False):
 # ----------------------------------------------------------------------------------------------
 # command line
 # ----------------------------------------------------------------------------------------------
-PLAN = DATA / "fdtd-plan.json"
-JPOLES = DATA / "fdtd-jpoles.json"
+# FDTD_PLAN / FDTD_JPOLES: other files, e.g. a plan of a refitted model's dimensions and its runs
+PLAN = Path(os.environ.get("FDTD_PLAN", DATA / "fdtd-plan.json"))
+JPOLES = Path(os.environ.get("FDTD_JPOLES", DATA / "fdtd-jpoles.json"))
 PROOFS = DATA / "fdtd-proofs.json"
 SCRIPT = "bench/fdtd_ref.py"
 
