@@ -230,7 +230,7 @@ def run_fdtd(name, boxes, port, lines, f0, freqs, half=False, ground="free-space
         if j != k:
             i0[j], i1[j] = _outside(lines[j], p_start[j], p_stop[j])
     csx.AddProbe("i", p_type=1, weight=1, norm_dir=k).AddBox(i0, i1)
-    path = RUN_DIR / name
+    path = RUN_DIR / f"{name}-{os.getpid()}"   # several sessions may share the temporary directory
     path.mkdir(parents=True, exist_ok=True)
     t = time.time()
     fdtd.Run(str(path), cleanup=True, verbose=int(os.environ.get("FDTD_VERBOSE", 0)), numThreads=1)
