@@ -230,7 +230,7 @@ def run_fdtd(name, boxes, port, lines, f0, freqs, half=False, ground="free-space
         if j != k:
             i0[j], i1[j] = _outside(lines[j], p_start[j], p_stop[j])
     csx.AddProbe("i", p_type=1, weight=1, norm_dir=k).AddBox(i0, i1)
-    path = RUN_DIR / name
+    path = RUN_DIR / f"{name}-{os.getpid()}"   # several sessions may share the temporary directory
     path.mkdir(parents=True, exist_ok=True)
     t = time.time()
     fdtd.Run(str(path), cleanup=True, verbose=int(os.environ.get("FDTD_VERBOSE", 0)), numThreads=1)
@@ -427,7 +427,7 @@ def jpole_row(name, m=2, scale_s=1.0, scale_t=1.0):
     L, S, T = r["L_model"], r["S_model"] * scale_s, r["T_model"] * scale_t
     f0 = c["f0"]
     f = f0 * np.linspace(0.9, 1.1, 41)
-    z, info = jpole_fdtd(f"jp-{name}-{m}", L, S, T, c["spacing"], c["stub_d"], f0, f, m=m,
+    z, info = jpole_fdtd(f"jp-{name}-{m}-{scale_s}-{scale_t}", L, S, T, c["spacing"], c["stub_d"], f0, f, m=m,
                          wire_d=c["wire_d"])
     row = dict(name=name, case=c, L_model=r["L_model"], S_model=r["S_model"], T_model=r["T_model"],
                points=[[L, S, T, float(fi), float(zi.real), float(zi.imag)] for fi, zi in zip(f, z)],
