@@ -466,9 +466,11 @@ def envelope_warnings(design: Design) -> tuple[str, ...]:
         what = (f"the stub's spacing is {s.spacing_m / s.conductor_diameter_m:.1f} × its conductor's "
                 "diameter" if rigid_line else
                 f"the radiator is {design.radiator.diameter_m / s.spacing_m:.2f} × the stub's spacing thick")
-        out.append(f"{what}: conductors this fat and close cannot be checked by NEC-2, so the model's "
-                   "first cut for pipe and rod J-poles rests on a few full-wave (FDTD) checks only; "
-                   "leave the stub and the radiator long and tune")
+        out.append(f"{what}: conductors this fat and close cannot be checked by NEC-2, and against "
+                   "the full-wave (FDTD) reference the model's first cut of pipe and rod J-poles "
+                   "reads SWR 1.3-2.4 at the design frequency, with R low (26-44 ohm) and X "
+                   "inductive (+11 to +22 ohm): expect to move the tap up and the short down; "
+                   "cut the stub and the radiator long and tune with the table")
     if design.site.orientation == "sloper" and math.degrees(design.site.slope_rad) > ENVELOPE_SLOPE_DEG:
         out.append(f"a slope of {math.degrees(design.site.slope_rad):.0f}° is steeper than the "
                    f"{ENVELOPE_SLOPE_DEG:.0f}° the model is proven to: the radiator runs close along the "
