@@ -276,26 +276,18 @@ def needs_extended_kernel(wires: tuple[Wire, ...]) -> bool:
     return any(min(w.segment_lengths()) < 8.0 * w.radius for w in wires)
 
 
-def run(wires: tuple[Wire, ...], f_hz, ground: Ground, source: tuple[int, int],
-        sigma: dict[int, float | None] | None = None, currents: bool = False,
-        extended_kernel: bool | None = None, pattern_step_deg: float | None = None) -> NecResult:
-    """Run NEC-2 on `wires` at each frequency; 1 V source on (tag, segment); sigma per tag (S/m) as
-    LD 5 wire conductivity. Ground: GN -1 free space, GN 1 perfect, real: GN 2 (Sommerfeld-Norton) or
-    GN 0 (reflection coefficient). Returns the input impedance at the source per frequency.
-    pattern_step_deg: also the radiated fraction, radiated power (over the sphere in free space, the
-    upper hemisphere over ground) over the power put in, in NecResult.average_gain: NEC's average
-    power gain from an RP card with that step in theta and phi (NEC-2 user's guide, RP card, XNDA
-    A = 1) times the solid angle it averaged over, over 4 pi."""
-    f_hz = np.atleast_1d(np.asarray(f_hz, dtype=float))
-    ek = needs_extended_kernel(wires) if extended_kernel is None else extended_kernel
+def _context(wires: tuple[Wire, ...], ground: Ground, sigma: dict[int, float | None] | None,
+             extended_kernel: bool):
+    """A PyNEC context holding `wires` (GW cards; a graded wire as one card per segment, all with
+    the wire's tag: NEC numbers the segments of a tag in order, so EX and LD cards address them as
+    one wire), LD 5 conductivity per tag, the extended kernel if asked, and the ground (GN -1 free
+    space, GN 1 perfect, real: GN 2 Sommerfeld-Norton or GN 0 reflection coefficient)."""
     ctx = PyNEC.nec_context()
     geo = ctx.get_geometry()
     for w in wires:
         if w.seglens is None:
             geo.wire(w.tag, w.nseg, *w.p1, *w.p2, w.radius, 1.0, 1.0)
             continue
-        # a graded wire: one GW card per segment, all with the wire's tag (NEC numbers the
-        # segments of a tag in order, so EX and LD cards address them as one wire)
         p1, p2 = np.asarray(w.p1), np.asarray(w.p2)
         u = (p2 - p1) / np.linalg.norm(p2 - p1)
         ends = np.concatenate([[0.0], np.cumsum(w.seglens)])
@@ -303,7 +295,7 @@ def run(wires: tuple[Wire, ...], f_hz, ground: Ground, source: tuple[int, int],
         for e0, e1 in zip(ends[:-1], ends[1:]):
             geo.wire(w.tag, 1, *(p1 + e0 * u), *(p1 + e1 * u), w.radius, 1.0, 1.0)
     ctx.geometry_complete(1 if ground.kind != "free-space" else 0)
-    if ek:
+    if extended_kernel:
         ctx.set_extended_thin_wire_kernel(True)
     for tag, sg in (sigma or {}).items():
         if sg is not None:
@@ -316,6 +308,22 @@ def run(wires: tuple[Wire, ...], f_hz, ground: Ground, source: tuple[int, int],
         ctx.gn_card(2 if ground.method == "sommerfeld" else 0, 0, ground.eps_r, ground.sigma, 0, 0, 0, 0)
     else:
         raise ValueError(f"ground kind {ground.kind!r}")
+    return ctx
+
+
+def run(wires: tuple[Wire, ...], f_hz, ground: Ground, source: tuple[int, int],
+        sigma: dict[int, float | None] | None = None, currents: bool = False,
+        extended_kernel: bool | None = None, pattern_step_deg: float | None = None) -> NecResult:
+    """Run NEC-2 on `wires` at each frequency; 1 V source on (tag, segment); sigma per tag (S/m) as
+    LD 5 wire conductivity. Ground: GN -1 free space, GN 1 perfect, real: GN 2 (Sommerfeld-Norton) or
+    GN 0 (reflection coefficient). Returns the input impedance at the source per frequency.
+    pattern_step_deg: also the radiated fraction, radiated power (over the sphere in free space, the
+    upper hemisphere over ground) over the power put in, in NecResult.average_gain: NEC's average
+    power gain from an RP card with that step in theta and phi (NEC-2 user's guide, RP card, XNDA
+    A = 1) times the solid angle it averaged over, over 4 pi."""
+    f_hz = np.atleast_1d(np.asarray(f_hz, dtype=float))
+    ek = needs_extended_kernel(wires) if extended_kernel is None else extended_kernel
+    ctx = _context(wires, ground, sigma, ek)
     ctx.ex_card(0, source[0], source[1], 0, 1.0, 0.0, 0, 0, 0, 0)
     z = np.empty(len(f_hz), dtype=complex)
     gain = np.empty(len(f_hz)) if pattern_step_deg else None
@@ -428,30 +436,7 @@ def pattern(wires: tuple[Wire, ...], f: float, ground: Ground, source: tuple[int
     the ground as in run(), and an RP card of power gain over theta 0..90 (0..180 in free space) by
     theta_step and phi 0..360 by phi_step degrees, averaged (XNDA = 0001: NEC-2 user's guide, RP)."""
     ek = needs_extended_kernel(wires) if extended_kernel is None else extended_kernel
-    ctx = PyNEC.nec_context()
-    geo = ctx.get_geometry()
-    for w in wires:
-        if w.seglens is None:
-            geo.wire(w.tag, w.nseg, *w.p1, *w.p2, w.radius, 1.0, 1.0)
-            continue
-        p1, p2 = np.asarray(w.p1), np.asarray(w.p2)
-        u = (p2 - p1) / np.linalg.norm(p2 - p1)
-        ends = np.concatenate([[0.0], np.cumsum(w.seglens)])
-        ends[-1] = np.linalg.norm(p2 - p1)
-        for e0, e1 in zip(ends[:-1], ends[1:]):
-            geo.wire(w.tag, 1, *(p1 + e0 * u), *(p1 + e1 * u), w.radius, 1.0, 1.0)
-    ctx.geometry_complete(1 if ground.kind != "free-space" else 0)
-    if ek:
-        ctx.set_extended_thin_wire_kernel(True)
-    for tag, sg in (sigma or {}).items():
-        if sg is not None:
-            ctx.ld_card(5, tag, 0, 0, sg, 0.0, 0.0)
-    if ground.kind == "free-space":
-        ctx.gn_card(-1, 0, 0, 0, 0, 0, 0, 0)
-    elif ground.kind == "perfect":
-        ctx.gn_card(1, 0, 0, 0, 0, 0, 0, 0)
-    else:
-        ctx.gn_card(2 if ground.method == "sommerfeld" else 0, 0, ground.eps_r, ground.sigma, 0, 0, 0, 0)
+    ctx = _context(wires, ground, sigma, ek)
     ctx.ex_card(0, source[0], source[1], 0, 1.0, 0.0, 0, 0, 0, 0)
     ctx.fr_card(0, 1, f / 1e6, 0.0)
     top = 180.0 if ground.kind == "free-space" else 90.0
