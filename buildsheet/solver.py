@@ -411,7 +411,10 @@ def _solve(design: Design) -> Solution:
     rho = float(abs(reflection(z[i0], design.feed.coax_z0_ohm)))
     loss_db = float(total_loss_db(matched_db, min(rho, 0.999999)))
     p_tap = design.power.transmitter_w * 10 ** (-loss_db / 10)
-    state = jpole.state_at(f0, ant, radiator, stub, tap, p_tap, prepared=at_f0)
+    try:
+        state = jpole.state_at(f0, ant, radiator, stub, tap, p_tap, prepared=at_f0)
+    except ValueError as exc:       # the ground efficiency of a structure resting on sea water
+        raise DesignError(" ".join(str(exc).split()), file=design.path, key="site.height") from None
     sens = jpole.sensitivities(f0, ant, radiator, stub, tap, z_feed, prepared=at_f0)
 
     ch = choke_physics.design_coax_choke(f0, high, design.feed.choke_form_m,

@@ -719,13 +719,24 @@ def ground_efficiency(prep: _Prepared, L: float, S: float, i_rad: complex = 1.0)
     # wavelength above it: the evanescent part of the reflected spectrum needs a gap (below about
     # 0.002 wavelength it overflows), and the result moves by under 0.005 between gaps of 0.005 and
     # 0.01 wavelength (a 2 m wire vertical over average ground: 0.450, 0.453)
-    gap = 5e-3 * C0 / prep.f
     lowest = min(min(w.start[2], w.start[2] + w.length * w.direction[2]) for w in wires)
-    if lowest < gap:
-        lift = np.array([0.0, 0.0, gap - lowest])
-        wires = [dataclasses.replace(w, start=tuple(np.asarray(w.start) + lift)) for w in wires]
-    return float(pattern.ground_efficiency(wires, prep.f, ant.ground_kind, ant.ground_eps_r,
-                                           ant.ground_sigma))
+    eta = math.nan
+    # over very conductive ground (sea water) the evanescent spectrum can overflow even at that gap:
+    # then at 0.02 wavelength (the result there moves by about 0.01 from 0.005)
+    for gap in (5e-3 * C0 / prep.f, 2e-2 * C0 / prep.f):
+        lifted = wires
+        if lowest < gap:
+            lift = np.array([0.0, 0.0, gap - lowest])
+            lifted = [dataclasses.replace(w, start=tuple(np.asarray(w.start) + lift)) for w in wires]
+        with np.errstate(all="ignore"):
+            eta = float(pattern.ground_efficiency(lifted, prep.f, ant.ground_kind, ant.ground_eps_r,
+                                                  ant.ground_sigma))
+        if math.isfinite(eta) and 0.0 <= eta <= 1.0 + 1e-9:
+            return eta
+        if lowest >= gap:
+            break
+    raise ValueError(f"the ground efficiency of this structure could not be computed ({eta!r}): it "
+                     "rests on or too near a very conductive ground")
 
 
 class Sensitivities(NamedTuple):
