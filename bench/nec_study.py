@@ -8,6 +8,8 @@ the model's global constants (buildsheet.physics.jpole.CAL). Prints figures; not
                                                  the failed designs of OLD again, the rest kept
   python3 bench/nec_study.py fit DATA.json...    least-squares fit of CAL on the data, with the
                                                  held-out half reported separately
+  python3 bench/nec_study.py ablate DATA.json...  each constant switched off, the rest refitted:
+                                                 held-out error without it
   python3 bench/nec_study.py speed               model solve time against a NEC sweep
   python3 bench/nec_study.py accept OUT.json N START [envelope]
                                                  acceptance on N unseen random designs (seeds START..),
@@ -16,14 +18,14 @@ the model's global constants (buildsheet.physics.jpole.CAL). Prints figures; not
 
 Data: for each random design, NEC-2 (tests/necref.py, meshed per DESIGN.md §7) is run at the
 dimensions where NEC itself matches 50 ohm for the model's radiator, and around them (frequency,
-radiator, stub and tap perturbed). The fit adjusts only the global constants of jpole.Calibration so
-that the model's feed impedance at the same dimensions and frequencies matches NEC's (residual: the
-difference of the 50-ohm reflection coefficients). Designs with an even seed train, odd seeds are
-held out. The constants in jpole.CAL came from `fit bench/data/*.json.gz` (about 2 minutes): seeds
-0-119 and 200-319 collected twice, `collect OUT 120 0` and `collect OUT 120 200` (about 3 minutes each
-of NEC on 2 cores): nec-d5/d6 by this script as it is, around the radiator the model cuts now;
-nec-d3/d4 by the script of commit a5c2e30, whose radiator (the top's load resistive) was about 1 %
-longer and whose perturbations were +/-2 % of it.
+radiator, stub and tap perturbed), every point meshed like the match (necref `like`). The fit adjusts
+only the global constants of jpole.Calibration so that the model's feed impedance at the same
+dimensions and frequencies matches NEC's (residual: the difference of the 50-ohm reflection
+coefficients). Designs with an even seed train, odd seeds are held out. The constants in jpole.CAL
+came from `fit bench/data/nec-c1.json.gz` (about 2 minutes): `collect OUT 240 0`, then `recollect`
+of the designs whose NEC search had failed (about 25 minutes of NEC on 2 cores in all). Each data
+file carries its provenance (commit, mesh, PyNEC version, date, command). `accept` judges the model
+on designs no fit has seen (seeds 5000 and up; bench/data/accept-c1-*.json.gz).
 """
 
 from __future__ import annotations
@@ -357,6 +359,40 @@ def fit(paths):
     return cal
 
 
+# What each constant is worth: its value with the effect switched off (the published induced-EMF
+# weight 1; no bar or junction length; no power of an impedance ratio)
+NEUTRAL = dict(short_bar=0.0, tap_bar=0.0, open_top=0.0, r_w=0.0, r_c=0.0, q_w=0.0, q_c=0.0,
+               x_rc=1.0, r_rc=1.0, x_img=1.0, r_img=1.0, c_j=0.0, arm_dd=0.0)
+
+
+def _ablate_one(args):
+    name, paths = args
+    from scipy.optimize import least_squares
+    rows = [r for p in paths for r in load_rows(p) if "points" in r and nec_valid(r)]
+    train = [r for r in rows if r["seed"] % 2 == 0]
+    held = [r for r in rows if r["seed"] % 2 == 1]
+    free = [k for k in FIT_FIELDS if k != name]
+    base = dict((k, getattr(jpole.CAL, k)) for k in FIT_FIELDS)
+    base[name] = NEUTRAL[name]
+    make = lambda x: jpole.Calibration(**{**base, **dict(zip(free, x))})
+    fun = lambda x: np.concatenate([residuals(make(x), train),
+                                    [PRIOR_WEIGHT * (v - PRIOR[k]) for k, v in zip(free, x) if k in PRIOR]])
+    x0 = np.array([base[k] for k in free])
+    sol = least_squares(fun, x0, x_scale=np.maximum(np.abs(x0), 0.1), max_nfev=400, loss="soft_l1",
+                        f_scale=ROBUST_SCALE)
+    at = np.array([at_match_error(make(sol.x), r) for r in held])
+    return name, float(np.median(at)), float(np.quantile(at, 0.9))
+
+
+def ablate(paths):
+    """Each constant in turn switched off (NEUTRAL) and the others refitted: the held-out |rho| at
+    NEC's match without it, against the full fit's (the worth of the constant)."""
+    with Pool(2) as pool:
+        for name, med, q90 in pool.imap_unordered(_ablate_one, [(n, paths) for n in NEUTRAL]):
+            print(f"  without {name:10s} (= {NEUTRAL[name]:g}): held-out |rho| median {med:.3f}, "
+                  f"90 % {q90:.3f}", flush=True)
+
+
 def at_match_error(cal, r):
     """|rho| (50 ohm) of the model at the dimensions where NEC matches 50 ohm at f0."""
     prep = _prepared(r, 2, r["case"]["f0"], cal)
@@ -499,6 +535,8 @@ if __name__ == "__main__":
         collect(sys.argv[2], int(sys.argv[3]), int(sys.argv[4]) if len(sys.argv) > 4 else 0)
     elif cmd == "fit":
         fit(sys.argv[2:])
+    elif cmd == "ablate":
+        ablate(sys.argv[2:])
     elif cmd == "speed":
         speed()
     elif cmd == "recollect":
