@@ -21,7 +21,6 @@ import argparse
 import collections
 import json
 import multiprocessing
-import os
 import pathlib
 import platform
 import re
@@ -74,10 +73,11 @@ class Tally:
             self.examples[kind].append(detail[:4000])
 
     def run(self, argv, case_text):
-        from tests.test_fuzz import _Hang, _run
+        from tests.hang import Hang
+        from tests.test_fuzz import _run
         try:
             status, out, err, caught = _run(argv)
-        except _Hang as exc:
+        except Hang as exc:
             self.breach("hang", f"{argv[0]}: {exc}\n{case_text[:2000]}")
             return None, "", ""
         self.counts[f"{argv[0]}{' --json' if '--json' in argv else ''} exit {status}"] += 1

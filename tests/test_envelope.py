@@ -8,7 +8,6 @@ from __future__ import annotations
 import html
 import json
 
-import pytest
 
 from buildsheet import solve
 from buildsheet.cli import main

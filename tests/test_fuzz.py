@@ -32,7 +32,7 @@ import json
 import math
 import pathlib
 import re
-import signal
+import sys
 import tempfile
 import warnings
 
@@ -45,6 +45,9 @@ from buildsheet import load_design
 from buildsheet.catalog import catalog
 from buildsheet.cli import main
 
+sys.path.insert(0, str(pathlib.Path(__file__).parent))
+from hang import time_limit  # noqa: E402
+
 ROOT = pathlib.Path(__file__).resolve().parent.parent
 DEMO_TEXT = {p.stem: p.read_text() for p in sorted((ROOT / "designs").glob("*.yaml"))}
 DEMO_DATA = {name: yaml.safe_load(text) for name, text in DEMO_TEXT.items()}
@@ -56,29 +59,11 @@ FUZZ = settings(max_examples=max(5, int(settings.default.max_examples * FUZZ_SHA
 CASE_SECONDS = 30
 
 
-class _Hang(BaseException):
-    """Raised by the alarm; a BaseException, so main()'s catch-all cannot turn it into exit 1."""
-
-
-@contextlib.contextmanager
-def _time_limit(seconds: int):
-    def alarm(signum, frame):
-        raise _Hang(f"no answer within {seconds} s")
-
-    previous = signal.signal(signal.SIGALRM, alarm)
-    signal.alarm(seconds)
-    try:
-        yield
-    finally:
-        signal.alarm(0)
-        signal.signal(signal.SIGALRM, previous)
-
-
 def _run(argv: list[str]):
     """main(argv) in-process: (exit status, stdout, stderr, warnings raised)."""
     out, err = io.StringIO(), io.StringIO()
     with warnings.catch_warnings(record=True) as caught, contextlib.redirect_stdout(out), \
-            contextlib.redirect_stderr(err), _time_limit(CASE_SECONDS):
+            contextlib.redirect_stderr(err), time_limit(CASE_SECONDS):
         warnings.simplefilter("always")
         status = main(argv)
     return status, out.getvalue(), err.getvalue(), [(w.category.__name__, w.filename, str(w.message))

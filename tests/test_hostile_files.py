@@ -17,7 +17,7 @@ import io
 import os
 import pathlib
 import shutil
-import signal
+import sys
 import socket
 import stat
 import subprocess
@@ -26,28 +26,20 @@ import pytest
 
 from buildsheet.cli import main
 
+sys.path.insert(0, str(pathlib.Path(__file__).parent))
+from hang import time_limit  # noqa: E402
+
 ROOT = pathlib.Path(__file__).resolve().parent.parent
 OAK = ROOT / "designs" / "oak-yard-20m.yaml"
 SWEEP = ROOT / "designs" / "oak-yard-20m-sweep.s1p"
 SECONDS = 20
 
 
-@contextlib.contextmanager
-def _limit(seconds):
-    def alarm(signum, frame):
-        raise TimeoutError(f"no answer within {seconds} s (a hang)")
-    previous = signal.signal(signal.SIGALRM, alarm)
-    signal.alarm(seconds)
-    try:
-        yield
-    finally:
-        signal.alarm(0)
-        signal.signal(signal.SIGALRM, previous)
 
 
 def _run(argv):
     out, err = io.StringIO(), io.StringIO()
-    with contextlib.redirect_stdout(out), contextlib.redirect_stderr(err), _limit(SECONDS):
+    with contextlib.redirect_stdout(out), contextlib.redirect_stderr(err), time_limit(SECONDS):
         status = main([str(a) for a in argv])
     return status, out.getvalue(), err.getvalue()
 

@@ -17,7 +17,6 @@ import re
 import jinja2
 import numpy as np
 import pytest
-from scipy.optimize import brentq
 
 from buildsheet import units
 from buildsheet.design import design_from_text, load_design
