@@ -8,7 +8,6 @@ from __future__ import annotations
 import html
 import json
 
-
 from buildsheet import solve
 from buildsheet.cli import main
 from buildsheet.design import design_from_text
