@@ -626,6 +626,7 @@ class _Context:
             radiator_travel=self.length(fc.radiator_margin_m - min(fc.radiator_m[0], 0.0)),
             stub_off=self.off_range(fc.stub_m), radiator_off=self.off_range(fc.radiator_m),
             stub_why=self.stub_why(), radiator_why=self.radiator_why(),
+            model_limits=tuple(f"{w[0].upper()}{w[1:]}." for w in s.warnings),
             height=self.length(d.site.height_m), radiator=self.length(dims.radiator),
             radiator_end=self.radiator_end(), vertical=d.site.orientation == "vertical",
             stub=self.length(dims.stub), tap=self.length(dims.tap),
@@ -723,7 +724,8 @@ class _Context:
         if r.insulation == "custom":
             return (f"The jacket's velocity factor {r.velocity_factor:g} is your own figure from the design "
                     "file; the radiator is cut to it with no tuning margin.")
-        return "The radiator is bare wire: no jacket, so no velocity-factor spread and no tuning margin."
+        what = "pipe or rod" if r.diameter_m >= RIGID_DIAMETER_M else "wire"
+        return f"The radiator is bare {what}: no jacket, so no velocity-factor spread and no tuning margin."
 
     def log(self) -> tuple:
         return (

@@ -473,7 +473,7 @@ def envelope_warnings(design: Design) -> tuple[str, ...]:
                    "the full-wave (FDTD) reference the model's first cut of pipe and rod J-poles "
                    "reads SWR 1.3-2.4 at the design frequency, with R low (26-44 ohm) and X "
                    "inductive (+11 to +22 ohm): expect to move the tap up and the short down; "
-                   "cut the stub and the radiator long and tune with the table")
+                   "keep the cut list's cutting allowance on the pieces until the tuning is done")
     if design.site.orientation == "sloper" and math.degrees(design.site.slope_rad) > ENVELOPE_SLOPE_DEG:
         out.append(f"a slope of {math.degrees(design.site.slope_rad):.0f}° is steeper than the "
                    f"{ENVELOPE_SLOPE_DEG:.0f}° the model is proven to: the radiator runs close along the "
@@ -553,7 +553,7 @@ def first_cut(design: Design, dims: Dimensions, stub_vf_model: float) -> FirstCu
                                              "in the design file is the builder's own figure: no "
                                              "catalogue spread applies")
     else:
-        radiator_m, radiator_source = none, "bare wire: no jacket, no velocity-factor spread"
+        radiator_m, radiator_source = none, "bare conductor: no jacket, no velocity-factor spread"
     return FirstCut(stub_m=tuple(float(v) for v in stub_m),
                     radiator_m=tuple(float(v) for v in radiator_m),
                     stub_source=stub_source, radiator_source=radiator_source)
