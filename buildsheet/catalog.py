@@ -370,7 +370,36 @@ def _build(raw: dict) -> Catalog:
 
 
 @functools.cache
+def _raw() -> dict:
+    text = importlib.resources.files("buildsheet").joinpath("data/catalog.yaml").read_text(encoding="utf-8")
+    return yaml.safe_load(text)
+
+
+@functools.cache
 def catalog() -> Catalog:
     """The catalogue, read once from the package's data/catalog.yaml."""
-    text = importlib.resources.files("buildsheet").joinpath("data/catalog.yaml").read_text(encoding="utf-8")
-    return _build(yaml.safe_load(text))
+    return _build(_raw())
+
+
+def raw_section(name: str):
+    """One top-level section of data/catalog.yaml as read (for modules that own its meaning, such as
+    buildsheet/ratings.py); callers must not change it."""
+    return _raw()[name]
+
+
+@functools.cache
+def national_bands(country: str) -> tuple[Band, ...]:
+    """Bands where a national table differs from the ITU table (`national:` under a band), for a
+    country code such as 'US' (case-insensitive), lowest first; () for a country with none."""
+    out = []
+    for e in _raw()["bands"]:
+        for code, nat in (e.get("national") or {}).items():
+            if code.casefold() == str(country).casefold():
+                low, high = (parse_quantity(v, "frequency") for v in nat["edges"])
+                out.append(Band(nat.get("name", e["name"]), low, high, " ".join(nat["source"].split())))
+    return tuple(sorted(out, key=lambda b: b.low_hz))
+
+
+def countries() -> tuple[str, ...]:
+    """The country codes that have national band edges in the catalogue."""
+    return tuple(sorted({code for e in _raw()["bands"] for code in (e.get("national") or {})}))

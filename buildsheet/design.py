@@ -21,7 +21,7 @@ from dataclasses import dataclass, field
 from datetime import date, datetime, timezone
 
 from buildsheet import units
-from buildsheet.catalog import catalog
+from buildsheet.catalog import catalog, countries, national_bands
 from buildsheet.errors import BuildsheetError, DesignError, one_line
 from buildsheet.yamlread import Document, parse, read_text
 
@@ -41,6 +41,7 @@ DEFAULTS: dict[str, object] = {
     "title": "(the name)",
     "band": "(the amateur band containing `frequency` in `region`)",
     "region": 2,
+    "country": "(none: the ITU table of `region`)",
     "radiator.material": "copper",
     "radiator.insulation": "bare",
     "stub.conductor_material": "copper",
@@ -69,6 +70,7 @@ CALIBRATION_PARAMETERS = ("radiator_scale", "end_resistance_scale", "stub_veloci
 # The schema: for each mapping, its keys.  Nested mappings are dicts; leaves are None.
 _SCHEMA: dict = {
     "buildsheet": None, "name": None, "title": None, "frequency": None, "band": None, "region": None,
+    "country": None,
     "radiator": {"wire": None, "material": None, "insulation": None},
     "stub": {"line": None, "conductor_material": None},
     "feed": {"coax": None, "impedance": None, "length": None, "choke_form": None},
@@ -437,7 +439,8 @@ class _Validator:
             raise self.fail("region", f"must be the ITU region 1, 2 or 3, got {self.get('region')!r}")
         frequency = self.quantity("frequency", "frequency")
         self.in_range("frequency", frequency, F_MIN_HZ, F_MAX_HZ, units.format_frequency)
-        band, band_name = self.band(frequency, region)
+        country = self.country(region)
+        band, band_name = self.band(frequency, region, country)
         radiator = self.radiator(frequency)
         stub = self.stub_line(frequency)
         feed = self.feed()
@@ -456,7 +459,32 @@ class _Validator:
         self.cross_checks(design)
         return design
 
-    def band(self, frequency: float, region: int) -> tuple[tuple, str | None]:
+    def country(self, region: int) -> str | None:
+        """The `country` key: a code with national band edges in the catalogue (catalog.countries),
+        upper case, or None."""
+        if not self.has("country"):
+            return None
+        raw = self.get("country")
+        known = countries()
+        if not isinstance(raw, str) or raw.strip().upper() not in known:
+            raise self.fail("country", f"must be a country code with national band edges in the "
+                            f"catalogue ({', '.join(known)}), got {_describe(raw)}; for another "
+                            "country give `band: [low, high]` from its national table")
+        if raw.strip().upper() == "US" and region != 2:
+            raise self.fail("country", f"US band edges are those of ITU region 2, but `region` is {region}")
+        return raw.strip().upper()
+
+    def _found_band(self, frequency: float, region: int, country: str | None):
+        """The band containing `frequency`: the country's national edges first, else the ITU
+        table of the region."""
+        if country is not None:
+            found = next((b for b in national_bands(country)
+                          if b.low_hz <= frequency <= b.high_hz), None)
+            if found is not None:
+                return found
+        return catalog().band_containing(frequency, region)
+
+    def band(self, frequency: float, region: int, country: str | None = None) -> tuple[tuple, str | None]:
         if self.has("band"):
             raw = self.get("band")
             if not isinstance(raw, list) or len(raw) != 2:
@@ -473,15 +501,28 @@ class _Validator:
                                 f"{units.format_frequency(low)} to {units.format_frequency(high)}")
             for edge, key in ((low, "band.0"), (high, "band.1")):
                 self.in_range(key, edge, F_MIN_HZ * 0.9, F_MAX_HZ * 1.1, units.format_frequency)
-            found = catalog().band_containing(frequency, region)
+            found = self._found_band(frequency, region, country)
             name = found.name if found and found.low_hz <= low and high <= found.high_hz else None
             return (low, high), name
-        found = catalog().band_containing(frequency, region)
+        found = self._found_band(frequency, region, country)
         if found is None:
-            raise self.fail("frequency", f"{units.format_frequency(frequency)} is not inside an amateur "
-                            f"band of ITU region {region}; give `band: [low, high]` explicitly if you "
-                            "mean it")
+            raise self.fail("frequency", self.outside_band(frequency, region, country))
         return (found.low_hz, found.high_hz), found.name
+
+    def outside_band(self, frequency: float, region: int, country: str | None) -> str:
+        """Why `frequency` is refused, and how to proceed: the nearest band's edges in the table
+        used, the national edges that would admit it, and the `band:` key."""
+        bands = catalog().bands(region)
+        near = min(bands, key=lambda b: min(abs(frequency - b.low_hz), abs(frequency - b.high_hz)))
+        where = f"ITU region {region}" + (f" and the {country} table" if country else "")
+        text = (f"{units.format_frequency(frequency)} is not inside an amateur band of {where} (the "
+                f"nearest, {near.name}, is {units.format_frequency(near.low_hz)} to "
+                f"{units.format_frequency(near.high_hz)} there); ")
+        admits = [c for c in countries() if c != country and any(
+            b.low_hz <= frequency <= b.high_hz for b in national_bands(c))]
+        if admits:
+            text += f"add `country: {admits[0]}` if you operate under that national table, or "
+        return text + "give `band: [low, high]` with the edges your licence allows"
 
     def radiator(self, frequency: float) -> Radiator:
         raw = self.get("radiator.wire")
