@@ -309,6 +309,11 @@ def _source_tag(source: str) -> str:
     return "from memory, not confirmed"
 
 
+def _capital(text: str) -> str:
+    """The first letter in upper case ("RF exposure" stays as it is)."""
+    return text[:1].upper() + text[1:]
+
+
 def _direction(move_m: float) -> str:
     """DESIGN.md §5: positive = toward the open top ("up")."""
     return "up" if move_m > 0 else "down"
@@ -396,6 +401,10 @@ class _Context:
             Para(_e(f"Dimensions as built, {rounding}; the pieces are cut longer (see the cut list)."
                     + self.margin_summary()), "note"),
             *(Para(_e(f"Model limit: {w[0].upper()}{w[1:]}."), "caution") for w in s.warnings),
+            *((Para(_e("Warnings, this design's figures against the parts' ratings (see the safety "
+                       "cautions and the performance section): "
+                       + "; ".join(dict.fromkeys(f.part for f in s.findings)) + "."), "caution"),)
+              if s.findings else ()),
         )
 
     def margin_summary(self) -> str:
@@ -517,6 +526,7 @@ class _Context:
                 ("coax loss", _e(f"{s.coax_loss_db:.2f} dB; {_watts(s.power_at_tap_w)} PEP "
                                  f"of {self.pep} reaches the tap")),
             )),
+            *self.findings_at("feed", "coax"),
             Heading(f"Voltages and current at {self.pep}"),
             Facts((
                 ("stub's open end", _e(f"{_volts(s.voltage_open_end_v_rms)} rms, "
@@ -525,6 +535,7 @@ class _Context:
                                           f"{_volts(s.voltage_far_end_v_peak)} peak")),
                 ("current in the short", _e(f"{_amps(s.current_short_a_rms)} rms")),
             )),
+            *self.findings_at("voltages", "current"),
             Heading("Efficiency"),
             Facts((
                 ("efficiency", _e(f"{_percent(s.efficiency)} (radiated / delivered to the tap)")),
@@ -567,8 +578,17 @@ class _Context:
                 on_air=_percent(d.power.on_air), standard=STANDARD_NAMES[e.standard],
                 in_near_field=e.distance_general_m < e.near_field_m,
                 near_field=self.distance(e.near_field_m), f0=self.f0),
+            *self.findings_at("exposure"),
         ]
+        if s.assumptions:
+            blocks += [Heading("Assumptions"), *(Para(_e(f"{a}."), "note") for a in s.assumptions)]
         return tuple(blocks)
+
+    def findings_at(self, *anchors: str) -> tuple:
+        """The rating warnings (ratings.Finding) that concern the figures of these anchors, as
+        caution paragraphs to set beside them."""
+        return tuple(Para(f"<b>{_e(_capital(f.part))}.</b> {_e(f.body)}", "caution")
+                     for f in self.s.findings if f.anchor in anchors)
 
     def losses(self) -> str:
         """Where the power is lost. A line given by its measured loss has no physical split between
@@ -752,7 +772,10 @@ class _Context:
             d_general=self.distance(e.distance_general_m),
             d_controlled=self.distance(e.distance_controlled_m),
             general_name=general, controlled_name=controlled, standard=STANDARD_NAMES[e.standard],
-            vertical=d.site.orientation == "vertical")
+            vertical=d.site.orientation == "vertical",
+            in_near_field=e.distance_general_m < e.near_field_m,
+            near_field=self.distance(e.near_field_m), f0=self.f0,
+            findings=[(_capital(f.part), f.body) for f in s.findings])
 
     def lowest_live_point(self) -> tuple[float | None, str]:
         """Height of the lowest conductor end above ground, m, and what it is (horizontal: the short;

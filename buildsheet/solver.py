@@ -160,6 +160,10 @@ class Solution:
     exposure: Exposure
     first_cut: FirstCut
     warnings: tuple = ()
+    #: ratings.Finding: the design's figures against the parts' ratings, reach and exposure
+    findings: tuple = ()
+    #: what the figures assume that the builder may not (ratings.assumptions)
+    assumptions: tuple = ()
 
     @property
     def voltage_open_end_v_peak(self) -> float:
@@ -225,6 +229,8 @@ class Solution:
                          "limit_general_w_m2": e.limit_general_w_m2,
                          "near_field_m": e.near_field_m},
             "warnings": list(self.warnings),
+            "rating_warnings": [f.to_dict() for f in self.findings],
+            "assumptions": list(self.assumptions),
         }
 
 
@@ -301,7 +307,9 @@ def solve(design: Design) -> Solution:
         raise DesignError(f"the model cannot solve this design ({type(exc).__name__}: {exc}); it lies "
                           "outside what the transmission-line model covers", file=design.path) from None
     check_solution(solution, design)
-    return solution
+    from buildsheet import ratings
+    return dataclasses.replace(solution, findings=ratings.check(design, solution),
+                               assumptions=ratings.assumptions(design, solution))
 
 
 #: efficiency and SWR are compared with this much rounding slack (they are computed, not measured)

@@ -35,6 +35,8 @@ def summary_text(design: Design, s: Solution) -> str:
         f"{units.format_frequency(s.frequency_hz)} to {units.format_impedance(design.feed.impedance_ohm)}")
     for w in s.warnings:
         add(f"model limit: {w}")
+    for f in s.findings:
+        add(f"warning: {f.text}")
     add("")
     add("Key dimensions (" + units.length_rounding(u) + ")")
     add(f"  radiator   {L(d.radiator):>14}   attachment point to attachment point")
@@ -96,6 +98,8 @@ def summary_text(design: Design, s: Solution) -> str:
     if e.distance_general_m < e.near_field_m:
         add(f"    these distances lie inside the reactive near field ({units.format_distance(e.near_field_m, u)})"
             "; a screening estimate only")
+    for a in s.assumptions:
+        add(f"  assumed: {a}.")
     add("")
     add("Cautions: keep the antenna and its fall zone well clear of power lines; the open end of the stub "
         "and the far end of the radiator carry high RF voltage; follow local codes, your regulator and "
