@@ -544,6 +544,7 @@ class _Context:
                 ("lost", _e(self.losses())),
             )),
             Heading("Choke"),
+            *self.sleeve_facts(),
             Facts((
                 ("coil", _e(f"{c.turns} turn{'s' if c.turns != 1 else ''} of {d.feed.coax} close-wound "
                             f"on a {self.length(c.form_diameter_m)} form, {self.length(c.coil_length_m)} "
@@ -558,7 +559,7 @@ class _Context:
                                  if c.impedance_ohm is not None else "not given: see the choke warning")),
             )),
         ]
-        if c.warning:
+        if c.warning and s.sleeve is None:
             blocks.append(Para(_e(f"Choke warning: {c.warning}"), "caution"))
         controlled, general = CATEGORY_NAMES[e.standard]
         blocks += [
@@ -583,6 +584,34 @@ class _Context:
         if s.assumptions:
             blocks += [Heading("Assumptions"), *(Para(_e(f"{a}."), "note") for a in s.assumptions)]
         return tuple(blocks)
+
+    def sleeve_facts(self) -> tuple:
+        """The quarter-wave sleeve choke built instead of the coil (solver.Solution.sleeve), and why;
+        () where the coil is the choke."""
+        sl, c = self.s.sleeve, self.s.choke
+        if sl is None:
+            return ()
+        coil = (f"best {c.turns} turn{'s' if c.turns != 1 else ''}, "
+                f"{_ohm(c.impedance_low_edge_ohm)} at the band's low edge" if c.impedance_low_edge_ohm
+                is not None else "no coil of it works as a choke here")
+        return (
+            Para(_e(f"A coil of {self.d.feed.coax} cannot reach {_ohm(sl.z_target)} in this band "
+                    f"({coil}), so the sheet gives a quarter-wave sleeve choke instead (common "
+                    "practice); the coil below is not built."), "note"),
+            Facts((
+                ("sleeve", _e(f"tube of inside diameter {self.length(sl.sleeve_inner_diameter_m)} "
+                              f"over the {self.d.feed.coax} ({self.length(sl.cable_od_m)} outside, "
+                              f"{self.length(sl.shield_diameter_m)} over the braid)")),
+                ("length", _e(f"{self.length(sl.length_m)} from the bonded end to the open end: a "
+                              f"quarter wave at {_freq(sl.centre_hz)} on the sleeve line (velocity "
+                              f"factor {sl.velocity_factor:.3f}, {_ohm(sl.z0_ohm)})")),
+                ("impedance", _e(f"|Z| {_ohm(sl.impedance_ohm)} at {self.f0}, at least "
+                                 f"{_ohm(sl.impedance_band_min_ohm)} across the band"
+                                 + ("" if sl.meets_target else
+                                    f" (short of {_ohm(sl.z_target)}: add ferrite sleeves)"))),
+            )),
+            Heading("The coil of coax (not built)"),
+        )
 
     def findings_at(self, *anchors: str) -> tuple:
         """The rating warnings (ratings.Finding) that concern the figures of these anchors, as
@@ -669,6 +698,7 @@ class _Context:
             dip_tolerance=_step(tolerance), stop_swr=f"{STOP_SWR:g}",
             min_move=self.length(least),
             big_move=self.length(BIG_MOVE_FRACTION * dims.stub),
+            sleeve=s.sleeve is not None,
         )
 
     def tuning(self) -> tuple:

@@ -164,6 +164,8 @@ class Solution:
     findings: tuple = ()
     #: what the figures assume that the builder may not (ratings.assumptions)
     assumptions: tuple = ()
+    #: physics.choke.SleeveChoke: the quarter-wave sleeve built instead of the coil above HF, or None
+    sleeve: object = None
 
     @property
     def voltage_open_end_v_peak(self) -> float:
@@ -228,6 +230,7 @@ class Solution:
                          "limit_controlled_w_m2": e.limit_controlled_w_m2,
                          "limit_general_w_m2": e.limit_general_w_m2,
                          "near_field_m": e.near_field_m},
+            "sleeve_choke": None if self.sleeve is None else dataclasses.asdict(self.sleeve),
             "warnings": list(self.warnings),
             "rating_warnings": [f.to_dict() for f in self.findings],
             "assumptions": list(self.assumptions),
@@ -438,7 +441,9 @@ def _solve(design: Design) -> Solution:
                              loss_db_per_100ft=float(gamma_line.real * DB_PER_NEPER * 100 * FT))
     dims = Dimensions(radiator=radiator, stub=stub, tap=tap, spacing=design.stub.spacing_m)
     first = first_cut(design, dims, stub_data.velocity_factor)
-    cut, hardware = _cut_list(design, dims, wrap, ch, first)
+    from buildsheet import sleeve as sleeve_module
+    sl = sleeve_module.sleeve_for(design, ch)
+    cut, hardware = _cut_list(design, dims, wrap, ch, first, sl)
     return Solution(
         name=design.name, design_id=design.document_id, frequency_hz=f0, band_hz=tuple(design.band_hz),
         dimensions=dims, radiator_cut_m=radiator + first.radiator_margin_m + 2 * wrap,
@@ -455,7 +460,7 @@ def _solve(design: Design) -> Solution:
                       "radiator_wire": state.p_wire, "ground": state.p_ground,
                       "coax": design.power.transmitter_w - p_tap},
         sensitivity=sens._asdict(),
-        choke=ch, exposure=exposure, first_cut=first, warnings=envelope_warnings(design),
+        choke=ch, exposure=exposure, first_cut=first, warnings=envelope_warnings(design), sleeve=sl,
     )
 
 
@@ -591,6 +596,11 @@ def _exposure(design: Design, efficiency: float, coax_loss_db: float) -> Exposur
     )
 
 
+def _connector(design: Design) -> str:
+    from buildsheet.ratings import connector_for
+    return connector_for(design.frequency_hz).label
+
+
 def _is_rigid(diameter: float) -> bool:
     return diameter >= RIGID_DIAMETER_M
 
@@ -604,9 +614,12 @@ def _wrap_allowance(design: Design) -> float:
     return min(0.15, 0.015 * design.wavelength_m)
 
 
-def _cut_list(design: Design, d: Dimensions, wrap: float, ch, first: FirstCut) -> tuple[tuple, tuple]:
+def _cut_list(design: Design, d: Dimensions, wrap: float, ch, first: FirstCut,
+              sleeve=None) -> tuple[tuple, tuple]:
     """What to cut (with allowances) and what to buy. Allowances are common practice; the radiator
-    and the stub line are cut long by the first cut's tuning margins as well (FirstCut)."""
+    and the stub line are cut long by the first cut's tuning margins as well (FirstCut). With a
+    sleeve choke (physics.choke.SleeveChoke) the coil is not built: no coax in turns, no choke form,
+    no cable ties; the sleeve's tube, bond and spacers instead."""
     rigid_radiator = _is_rigid(design.radiator.diameter_m)
     rigid_stub = _is_rigid(design.stub.conductor_diameter_m)
     lam = design.wavelength_m
@@ -614,7 +627,7 @@ def _cut_list(design: Design, d: Dimensions, wrap: float, ch, first: FirstCut) -
     junction = 0.0 if rigid_stub else wrap
     line_name = design.stub.name if design.stub.name != "custom" else (
         "two-wire line by geometry" if design.stub.kind == "geometry" else "two-wire line as measured")
-    coil_coax = ch.turns * math.pi * ch.mean_diameter_m
+    coil_coax = 0.0 if sleeve is not None else ch.turns * math.pi * ch.mean_diameter_m
     pigtail = 0.30 if lam > 3 else 0.10
     coax_total = design.feed.length_m + coil_coax + pigtail
     radiator_material = f"{design.radiator.label} {design.radiator.material}" + (
@@ -634,10 +647,19 @@ def _cut_list(design: Design, d: Dimensions, wrap: float, ch, first: FirstCut) -
         CutItem("tap leads", "insulated stranded wire", d.spacing / 2 + (0.05 if lam > 3 else 0.02), 2,
                 0.05 if lam > 3 else 0.02, "coax centre to the radiator-side conductor, braid to the other"),
         CutItem("feed coax", design.feed.coax, coax_total, 1, coil_coax + pigtail,
-                "run to the station, plus the choke turns and a pigtail at the tap"),
-        CutItem("choke form", "pipe of the choke form's outside diameter", ch.coil_length_m + 0.05, 1, 0.05,
-                "the feed coax is close-wound on it"),
+                "run to the station, plus the choke turns and a pigtail at the tap" if sleeve is None
+                else "run to the station, plus a pigtail at the tap"),
     ]
+    if sleeve is None:
+        items.append(CutItem("choke form", "pipe of the choke form's outside diameter",
+                             ch.coil_length_m + 0.05, 1, 0.05, "the feed coax is close-wound on it"))
+    else:
+        trim = 0.1 * sleeve.length_m
+        items.append(CutItem("choke sleeve", "copper or aluminium tube, inside diameter "
+                             f"{sleeve.sleeve_inner_diameter_m * 1e3:.0f} mm ({sleeve.sleeve_inner_diameter_m / 0.0254:.2f} in) or a little more",
+                             sleeve.length_m + trim, 1, trim,
+                             "slides over the feed coax at the tap; cut long, trim the open end to "
+                             "resonance"))
     if design.site.orientation != "vertical":
         rope = max(10.0, design.site.height_m * 2.5)
         items.append(CutItem("support rope", "UV-resistant polyester rope", rope, 2, 0.0,
@@ -645,10 +667,19 @@ def _cut_list(design: Design, d: Dimensions, wrap: float, ch, first: FirstCut) -
                              "well over twice the height)"))
     hardware = [
         HardwareItem("tap clamps", 2, "hose clamps or split-bolt clamps that can slide along the stub"),
-        HardwareItem("coax connector", 2, f"for {design.feed.coax}: one at the station, one at the choke"),
+        HardwareItem(f"coax connector, {_connector(design)}", 2,
+                     f"for {design.feed.coax}: one at the station, one at the choke"),
         HardwareItem("self-amalgamating tape", 1, "roll, to weatherproof the tap and the connectors"),
-        HardwareItem("cable ties, UV-resistant", max(8, 2 * ch.turns), "to hold the choke turns"),
     ]
+    if sleeve is None:
+        hardware.append(HardwareItem("cable ties, UV-resistant", max(8, 2 * ch.turns), "to hold the choke turns"))
+    else:
+        hardware += [
+            HardwareItem("hose clamp", 1, "bonds the sleeve's closed end to the coax braid, bared "
+                         "through a window in the jacket"),
+            HardwareItem("insulating spacers", 2, "plastic, drilled to the coax, to centre the sleeve at "
+                         "both ends"),
+        ]
     if design.site.orientation == "vertical":
         hardware.append(HardwareItem("mast clamps and stand-off insulators", 3,
                                      "to mount the stub below the short without touching the conductors"))

@@ -87,9 +87,19 @@ def summary_text(design: Design, s: Solution) -> str:
     if c.impedance_ohm is not None:
         coil += (f", |Z| {units.format_impedance(c.impedance_ohm)} at the design frequency, "
                  f"{units.format_impedance(c.impedance_low_edge_ohm)} at the band's low edge")
-    add(coil)
-    if c.warning:
-        add(f"  choke warning: {c.warning}")
+    sl = s.sleeve
+    if sl is not None:
+        add(f"  choke: quarter-wave sleeve over the {design.feed.coax}, tube {L(sl.sleeve_inner_diameter_m)} "
+            f"inside, {L(sl.length_m)} long (velocity factor {sl.velocity_factor:.3f}), |Z| "
+            f"{units.format_impedance(sl.impedance_ohm)} at the design frequency, at least "
+            f"{units.format_impedance(sl.impedance_band_min_ohm)} across the band")
+        add(f"  not built, a coil instead:{coil[len('  choke:'):]}")
+        if c.warning:
+            add(f"  why not the coil: {c.warning}")
+    else:
+        add(coil)
+        if c.warning:
+            add(f"  choke warning: {c.warning}")
     e = s.exposure
     standard = {"us-fcc": "47 CFR 1.1310 (US FCC)", "icnirp-2020": "ICNIRP 2020"}[e.standard]
     add(f"  RF exposure ({standard}, {units.format_power(e.average_power_w)} average, "

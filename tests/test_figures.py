@@ -127,14 +127,17 @@ def expected_lengths(design, solution) -> dict[str, dict[str, float]]:
         "radiator": radiator,
         "stub": {"stub": d.stub, "tap": d.tap, "spacing": d.spacing},
         "short-tap": {"tap": d.tap, "spacing": d.spacing},
-        "choke": {"coil": c.coil_length_m, "form": c.form_diameter_m,
-                  "coax in the coil": c.turns * math.pi * c.mean_diameter_m},
+        "choke": ({"coil": c.coil_length_m, "form": c.form_diameter_m,
+                   "coax in the coil": c.turns * math.pi * c.mean_diameter_m} if solution.sleeve is None
+                  else {"sleeve": solution.sleeve.length_m,
+                        "inside": solution.sleeve.sleeve_inner_diameter_m,
+                        "outside": solution.sleeve.cable_od_m}),
         "swr": {"coax": design.feed.length_m},
         "smith": {},
     }
 
 
-_NAMED = re.compile(r"^(radiator|stub|tap|height|spacing|cut length|wrap|allowance|tuning margin|coil|form)"
+_NAMED = re.compile(r"^(radiator|stub|tap|height|spacing|cut length|wrap|allowance|tuning margin|coil|form|sleeve)"
                     r" (.+)$")
 
 
@@ -158,7 +161,8 @@ def check_printed_lengths(design, solution, drawings) -> None:
             assert abs(value - expected[name]) <= half + 1e-9, (key, name)
         required = {"overview": {"radiator", "stub", "tap", "height"},
                     "radiator": {"radiator", "cut length"}, "stub": {"stub", "tap", "spacing"},
-                    "short-tap": {"tap", "spacing"}, "choke": {"coil", "form"}}.get(key, set())
+                    "short-tap": {"tap", "spacing"},
+                    "choke": {"coil", "form"} if solution.sleeve is None else {"sleeve"}}.get(key, set())
         assert required <= set(named), f"{key}: missing {required - set(named)}"
 
 

@@ -878,7 +878,8 @@ def _stub(ctx: _Context) -> Drawing:
                   angles=(160, 180, 135, 200), radii=(30, 42, 56, 72))
     sheet.callout(x_mid - 2.0, e_y, ["coax centre to the radiator", "side, braid to the other"],
                   angles=(150, 135, 165), radii=(56, 72, 90))
-    choke_text = [f"choke: {_turns(s.choke.turns)} of the coax,", "right at the tap"]
+    choke_text = ([f"choke: {_turns(s.choke.turns)} of the coax,", "right at the tap"] if s.sleeve is None
+                  else ["choke: quarter-wave sleeve", "over the coax, right at the tap"])
     if s.choke.warning:
         choke_text.append("(not enough here: see the choke figure)")
     sheet.callout(x_mid + 7.0, y_choke + 17.0, choke_text, angles=(0, 20, 340), radii=(30, 42, 56))
@@ -1004,10 +1005,70 @@ def _short_tap(ctx: _Context) -> Drawing:
 
 # ---------------------------------------------------------------- choke
 
+def _sleeve(ctx: _Context) -> Drawing:
+    """The quarter-wave sleeve choke (built instead of a coil above HF): the sleeve over the feed
+    coax in a side view (length to scale, diameters enlarged) and an end view to scale; which end is
+    bonded to the braid and which end faces the tap."""
+    d, sl = ctx.design, ctx.solution.sleeve
+    L = ctx.length
+    y_ax = 78.0
+    x_open, x_closed = 120.0, 380.0          # open end toward the tap (left), bonded end (right)
+    tube_h, coax_h = 30.0, 14.0
+    body_h = 205.0
+    sheet = _Sheet(WIDTH, body_h)
+    sheet.add(Rect(PAD + 30.0, y_ax - coax_h / 2, WIDTH - 2 * PAD - 120.0, coax_h, width=0.6,
+                   fill=COAX_GREY))
+    sheet.add(Rect(x_open, y_ax - tube_h / 2, x_closed - x_open, tube_h, width=0.9, fill=SUPPORT_GREY))
+    sheet.add(Rect(PAD + 30.0, y_ax - coax_h / 2, x_open - PAD - 30.0, coax_h, width=0.6,
+                   fill=COAX_GREY))
+    # the bond at the closed end: a hose clamp over the sleeve's end and the bared braid
+    sheet.add(Hatch(x_closed - 10.0, y_ax - tube_h / 2, 10.0, tube_h, spacing=2.0))
+    sheet.add(Rect(x_closed, y_ax - coax_h / 2 - 1.0, 12.0, coax_h + 2.0, width=0.6))
+    sheet.add(Hatch(x_closed, y_ax - coax_h / 2 - 1.0, 12.0, coax_h + 2.0, spacing=2.0))
+    for x in (x_open + 2.0, x_closed - 16.0):       # spacers
+        sheet.add(Rect(x, y_ax - tube_h / 2 + 1.0, 4.0, (tube_h - coax_h) / 2 - 1.0, width=0.5, fill=1.0))
+        sheet.add(Rect(x, y_ax + coax_h / 2, 4.0, (tube_h - coax_h) / 2 - 1.0, width=0.5, fill=1.0))
+    sheet.add(Line(PAD + 24.0, y_ax, WIDTH - PAD - 84.0, y_ax, width=THIN, dash=CENTRE_DASH))
+    sheet.add(Dimension(x_open, y_ax - tube_h / 2, x_closed, y_ax - tube_h / 2,
+                        f"sleeve {L(sl.length_m)}", 16.0))
+    sheet.callout(PAD + 34.0, y_ax + coax_h / 2, ["from the tap"], angles=(270, 250, 290),
+                  radii=(14, 22, 30))
+    sheet.callout(x_open, y_ax + tube_h / 2, ["open end: toward the tap,", "as close to it as it goes"],
+                  angles=(250, 270, 230), radii=(22, 32, 44))
+    sheet.callout(x_closed + 6.0, y_ax + coax_h / 2 + 1.0,
+                  ["bonded end: hose clamp over the sleeve", "and the braid, bared through a window",
+                   "cut in the jacket; tape it over"], angles=(290, 310, 270), radii=(22, 32, 44))
+    sheet.callout(x_open + 4.0, y_ax - tube_h / 2 + 2.0, ["plastic spacers centre the sleeve"],
+                  angles=(120, 100, 140), radii=(30, 40, 52))
+    sheet.callout(WIDTH - PAD - 90.0, y_ax - coax_h / 2, ["to the station"], angles=(60, 80, 40),
+                  radii=(16, 24, 32))
+    # end view, to scale (enlarged so the tube is 60 points across)
+    k = 60.0 / sl.sleeve_inner_diameter_m
+    xe, ye = WIDTH - PAD - 40.0, 162.0
+    sheet.add(Circle(xe, ye, sl.sleeve_inner_diameter_m / 2 * k + 2.0, width=0.9, fill=SUPPORT_GREY))
+    sheet.add(Circle(xe, ye, sl.sleeve_inner_diameter_m / 2 * k, width=0.6, fill=1.0))
+    sheet.add(Circle(xe, ye, sl.cable_od_m / 2 * k, width=0.6, fill=COAX_GREY))
+    sheet.add(Circle(xe, ye, sl.shield_diameter_m / 2 * k, width=THIN))
+    sheet.add(Text(xe, ye - sl.sleeve_inner_diameter_m / 2 * k - 8.0, "end view", LABEL, "middle"))
+    sheet.place_text([(PAD + 2.0, 150.0), (PAD + 2.0, 160.0)],
+                     [f"Sleeve: {L(sl.sleeve_inner_diameter_m)} inside (or a little more), over the "
+                      f"{d.feed.coax} ({L(sl.cable_od_m)} outside).",
+                      f"A quarter wave at {units.format_frequency(sl.centre_hz)} with velocity factor "
+                      f"{sl.velocity_factor:.3f} (air and the jacket between braid and sleeve).",
+                      "Cut it long; check its resonance with an analyzer or dip meter loosely coupled",
+                      "at the open end, and trim the open end until it dips at that frequency."],
+                     size=LABEL)
+    notes = ["Side view: length to scale, diameters enlarged; end view to scale.", ctx.rounding_note()]
+    return _finish(ctx, "Choke: quarter-wave sleeve over the feed coax at the tap", sheet.items, body_h,
+                   notes)
+
+
 def _choke(ctx: _Context) -> Drawing:
     """The choke to scale: the feed coax close-wound on its form (side and end views), turns,
     form diameter, coil length, which end goes to the tap."""
     d, s = ctx.design, ctx.solution
+    if s.sleeve is not None:
+        return _sleeve(ctx)
     c = s.choke
     L = ctx.length
     od = d.feed.coax_outer_diameter_m

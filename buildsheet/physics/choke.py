@@ -351,3 +351,114 @@ def design_coax_choke(f_design, f_band_high, form_od, cable_od, z_target=1000.0,
                        impedance_ohm=float(z[i, k_f0]) if supported else None,
                        impedance_low_edge_ohm=float(z[i, 0]) if supported else None,
                        warning=warning)
+
+
+# --- the quarter-wave sleeve choke (VHF/UHF) -----------------------------------------------------
+#
+# Where a coil of coax cannot be a choke (its self-resonance falls below the band), builders slide a
+# conducting sleeve over the feed coax at the tap: a tube (or braid over a spacer) bonded to the coax
+# braid at the end away from the antenna and open at the end toward it, an electrical quarter wave
+# long. The coax's braid (inside) and the sleeve (outside) form a coaxial line shorted at the far end:
+# at its open end it presents a high impedance to current on the outside of the braid (the common
+# mode), as a shorted quarter-wave stub does (common practice; the "sleeve" or "bazooka" balun).
+#
+#     d_s    diameter over the coax's braid (under the jacket), m
+#     OD     the coax's outer diameter (over the jacket), m
+#     D      the sleeve's inner diameter, m (D >= OD; air between the jacket and the sleeve)
+#     eps_j  relative permittivity of the jacket; tan_j its loss tangent
+
+
+def sleeve_line(f, shield_d, cable_od, sleeve_id, jacket_eps, jacket_tan_delta, sigma=SIGMA_COPPER):
+    """Characteristic impedance and propagation constant (complex arrays, ohm and 1/m) of the coaxial
+    line formed by the coax's braid inside a sleeve, with the jacket and air between them in layers.
+
+    Per unit length (Ramo, Whinnery & Van Duzer, coaxial line; layered dielectric as series
+    capacitances; from memory): L' = mu0/(2 pi) ln(D/d_s); 1/C' = [ln(OD/d_s)/eps_j + ln(D/OD)]/(2 pi
+    eps0); R' = Rs/(2 pi) (2/d_s + 2/D) (skin effect on both surfaces, smooth copper: braid loses
+    more, so |Z| at resonance is an upper bound); G' = omega C' tan_eff, tan_eff = tan_j x the share
+    of the electric energy in the jacket, ln(OD/d_s)/eps_j over the sum. Then Z0 = sqrt((R'+j omega
+    L')/(G'+j omega C')), gamma = sqrt((R'+j omega L')(G'+j omega C')).
+    """
+    f = np.asarray(f, dtype=float)
+    omega = 2 * np.pi * f
+    jacket = np.log(cable_od / shield_d) / jacket_eps
+    air = np.log(sleeve_id / cable_od)
+    l_per = mu_0 / (2 * np.pi) * np.log(sleeve_id / shield_d)
+    c_per = 2 * np.pi * epsilon_0 / (jacket + air)
+    r_per = surface_resistance(f, sigma) / (2 * np.pi) * (2 / shield_d + 2 / sleeve_id)
+    g_per = omega * c_per * jacket_tan_delta * jacket / (jacket + air)
+    z = r_per + 1j * omega * l_per
+    y = g_per + 1j * omega * c_per
+    return np.sqrt(z / y), np.sqrt(z * y)
+
+
+def sleeve_velocity_factor(shield_d, cable_od, sleeve_id, jacket_eps) -> float:
+    """Velocity factor of the lossless sleeve line, 1/(c0 sqrt(L' C')): sqrt of [ln(OD/d_s)/eps_j +
+    ln(D/OD)] over ln(D/d_s) (see sleeve_line)."""
+    jacket = np.log(cable_od / shield_d) / jacket_eps
+    return float(np.sqrt((jacket + np.log(sleeve_id / cable_od)) / np.log(sleeve_id / shield_d)))
+
+
+@dataclass(frozen=True)
+class SleeveChoke:
+    """A quarter-wave sleeve choke over the feed coax.
+
+    sleeve_inner_diameter_m: D, m; shield_diameter_m: d_s, m; cable_od_m: OD, m; length_m: from the
+    bonded (shorted) end to the open end, an electrical quarter wave at centre_hz; velocity_factor:
+    of the sleeve line; z0_ohm: its characteristic impedance (lossless); impedance_ohm: |Z| at the
+    open end at the design frequency; impedance_band_min_ohm: the least |Z| across the band;
+    z_target: the target, ohm; meets_target: whether the least |Z| reaches it."""
+    sleeve_inner_diameter_m: float
+    shield_diameter_m: float
+    cable_od_m: float
+    length_m: float
+    centre_hz: float
+    velocity_factor: float
+    z0_ohm: float
+    impedance_ohm: float
+    impedance_band_min_ohm: float
+    z_target: float
+    meets_target: bool
+
+
+#: sleeve inner diameter over the coax's OD, tried smallest first (a tube a little over the coax up
+#: to four times it): the smallest that reaches the target is taken, else the largest
+SLEEVE_RATIOS = (1.5, 2.0, 2.5, 3.0, 4.0)
+
+
+def design_sleeve_choke(f_design, f_band_low, f_band_high, cable_od, shield_d, jacket_eps,
+                        jacket_tan_delta, z_target=1000.0, ratios=SLEEVE_RATIOS) -> SleeveChoke:
+    """Size a quarter-wave sleeve choke: its length an electrical quarter wave of the sleeve line at
+    the band's geometric centre (so both edges are equally far off resonance), its inner diameter
+    the smallest of `ratios` x the coax's OD whose least |Z| across the band (open end, the line
+    shorted a length away: Z = Z0 tanh(gamma l)) reaches z_target; else the largest ratio, with
+    meets_target False. A wider sleeve raises Z0 and with it |Z| off resonance.
+
+    f_design, f_band_low, f_band_high: Hz; cable_od, shield_d: m; jacket_eps, jacket_tan_delta:
+    the jacket's dielectric; z_target: ohm.
+    """
+    if not 0 < f_band_low <= f_design <= f_band_high:
+        raise DesignError(f"sleeve band must satisfy 0 < low edge <= design frequency <= high edge, "
+                          f"got {f_band_low} Hz, {f_design} Hz, {f_band_high} Hz")
+    if not 0 < shield_d < cable_od:
+        raise DesignError(f"the braid's diameter {shield_d} m must be positive and under the cable's "
+                          f"outer diameter {cable_od} m")
+    centre = float(np.sqrt(f_band_low * f_band_high))
+    band = np.union1d(np.linspace(f_band_low, f_band_high, _BAND_POINTS), [f_design])
+    best = None
+    for ratio in ratios:
+        d_sleeve = ratio * cable_od
+        vf = sleeve_velocity_factor(shield_d, cable_od, d_sleeve, jacket_eps)
+        length = vf * C0 / (4 * centre)
+        z0, gamma = sleeve_line(band, shield_d, cable_od, d_sleeve, jacket_eps, jacket_tan_delta)
+        z = np.abs(z0 * np.tanh(gamma * length))
+        k0 = int(np.argmin(np.abs(band - f_design)))
+        z0_lossless = float(60.0 * np.log(d_sleeve / shield_d) * vf)   # sqrt(L'/C') = eta0 ln/(2 pi) x vf
+        best = SleeveChoke(sleeve_inner_diameter_m=float(d_sleeve), shield_diameter_m=float(shield_d),
+                           cable_od_m=float(cable_od), length_m=float(length), centre_hz=centre,
+                           velocity_factor=vf, z0_ohm=z0_lossless, impedance_ohm=float(z[k0]),
+                           impedance_band_min_ohm=float(z.min()), z_target=float(z_target),
+                           meets_target=bool(z.min() >= z_target))
+        if best.meets_target:
+            break
+    return best
