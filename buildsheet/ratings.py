@@ -120,7 +120,7 @@ def ratings() -> Ratings:
 
 def _how_sure(source: str) -> str:
     """'from memory' or 'published' for a rating's source text."""
-    return "from memory" if "from memory" in source.lower() else "published"
+    return "from memory" if "from memory" in source.lower() else "a published figure"
 
 
 def connector_for(frequency_hz: float) -> Rated:
@@ -423,7 +423,7 @@ def _coax_voltage(design, s) -> list[Finding]:
     conn = connector_for(design.frequency_hz)
     if need > conn.working_voltage_peak:
         out.append(Finding(
-            part=f"coax connectors ({conn.label})", anchor="coax",
+            part=f"coax connectors, {conn.label}", anchor="coax",
             figure=f"{_v(v)} peak on the coax at {_w(pep)} PEP, {_v(need)} with the {_margin_words()}",
             rating=f"rated {_v(conn.working_voltage_peak)} peak ({_how_sure(conn.source)})",
             change=(("use type N connectors" if conn.name != "N" else "use larger connectors (7/16 DIN)")
@@ -459,7 +459,8 @@ def _reach(design, s) -> list[Finding]:
                 f"up to {_v(s.voltage_open_end_v_peak)} peak at its open top"),
         rating=(f"a standing person reaches {units.format_distance(REACH_M, u)} (the arm's reach of "
                 "IEC 60364-4-41, from memory)"),
-        change=(f"raise `{key}` by at least {units.format_length(raise_by, u)} (to "
+        change=(f"raise the {'short' if design.site.orientation == 'vertical' else 'open top'} "
+                f"({key}) by at least {units.format_length(raise_by, u)} (to "
                 f"{units.format_length(design.site.height_m + raise_by, u)}), or fence off the ground "
                 "under the stub so that nobody can reach it"))]
 
@@ -495,9 +496,9 @@ def assumptions(design: "Design", s: "Solution") -> tuple[str, ...]:
     st = design.stub
     if st.kind == "nominal" and st.name == "custom" and not st.loss_db_per_100ft:
         out.append("The stub line is given by its impedance and velocity factor without `loss`, so it "
-                   "is treated as lossless: the efficiency and the voltages are upper bounds (a real "
-                   "line of this kind loses some power and voltage). Give `stub.line.loss` as "
-                   "[frequency, dB per 100 ft] pairs from the maker's sheet or a measurement")
+                   "is treated as lossless: the efficiency is an upper bound (a real line of this kind "
+                   "loses some of the power in the stub). Give stub.line.loss as [frequency, dB per "
+                   "100 ft] pairs from the maker's sheet or a measurement")
     if stub_voltage_rating(design) is None:
         out.append("No voltage rating is known for this stub line (given by its figures, or with a "
                    "solid dielectric): its voltage is not checked; compare the open-end voltage with "

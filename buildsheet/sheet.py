@@ -309,6 +309,14 @@ def _source_tag(source: str) -> str:
     return "from memory, not confirmed"
 
 
+def _diameter(m: float, system: str) -> str:
+    """A small diameter (a tube, a cable): to 0.1 mm, with inches to 0.01 in on imperial sheets
+    (an eighth of an inch is too coarse for a cable)."""
+    if system == "metric":
+        return _nb(units.format_length(m, system))
+    return _nb(f"{m * 1e3:.1f} mm ({m / 0.0254:.2f} in)")
+
+
 def _capital(text: str) -> str:
     """The first letter in upper case ("RF exposure" stays as it is)."""
     return text[:1].upper() + text[1:]
@@ -535,7 +543,7 @@ class _Context:
                                           f"{_volts(s.voltage_far_end_v_peak)} peak")),
                 ("current in the short", _e(f"{_amps(s.current_short_a_rms)} rms")),
             )),
-            *self.findings_at("voltages", "current"),
+            *self.findings_at("voltages", "current", "reach"),
             Heading("Efficiency"),
             Facts((
                 ("efficiency", _e(f"{_percent(s.efficiency)} (radiated / delivered to the tap)")),
@@ -599,9 +607,9 @@ class _Context:
                     f"({coil}), so the sheet gives a quarter-wave sleeve choke instead (common "
                     "practice); the coil below is not built."), "note"),
             Facts((
-                ("sleeve", _e(f"tube of inside diameter {self.length(sl.sleeve_inner_diameter_m)} "
-                              f"over the {self.d.feed.coax} ({self.length(sl.cable_od_m)} outside, "
-                              f"{self.length(sl.shield_diameter_m)} over the braid)")),
+                ("sleeve", _e(f"tube of inside diameter {_diameter(sl.sleeve_inner_diameter_m, self.u)} "
+                              f"over the {self.d.feed.coax} ({_diameter(sl.cable_od_m, self.u)} outside, "
+                              f"{_diameter(sl.shield_diameter_m, self.u)} over the braid)")),
                 ("length", _e(f"{self.length(sl.length_m)} from the bonded end to the open end: a "
                               f"quarter wave at {_freq(sl.centre_hz)} on the sleeve line (velocity "
                               f"factor {sl.velocity_factor:.3f}, {_ohm(sl.z0_ohm)})")),

@@ -656,7 +656,7 @@ def _cut_list(design: Design, d: Dimensions, wrap: float, ch, first: FirstCut,
     else:
         trim = 0.1 * sleeve.length_m
         items.append(CutItem("choke sleeve", "copper or aluminium tube, inside diameter "
-                             f"{sleeve.sleeve_inner_diameter_m * 1e3:.0f} mm ({sleeve.sleeve_inner_diameter_m / 0.0254:.2f} in) or a little more",
+                             f"{sleeve.sleeve_inner_diameter_m * 1e3:.1f} mm ({sleeve.sleeve_inner_diameter_m / 0.0254:.2f} in) or a little more",
                              sleeve.length_m + trim, 1, trim,
                              "slides over the feed coax at the tap; cut long, trim the open end to "
                              "resonance"))

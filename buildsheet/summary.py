@@ -89,7 +89,7 @@ def summary_text(design: Design, s: Solution) -> str:
                  f"{units.format_impedance(c.impedance_low_edge_ohm)} at the band's low edge")
     sl = s.sleeve
     if sl is not None:
-        add(f"  choke: quarter-wave sleeve over the {design.feed.coax}, tube {L(sl.sleeve_inner_diameter_m)} "
+        add(f"  choke: quarter-wave sleeve over the {design.feed.coax}, tube {sl.sleeve_inner_diameter_m * 1e3:.1f} mm "
             f"inside, {L(sl.length_m)} long (velocity factor {sl.velocity_factor:.3f}), |Z| "
             f"{units.format_impedance(sl.impedance_ohm)} at the design frequency, at least "
             f"{units.format_impedance(sl.impedance_band_min_ohm)} across the band")

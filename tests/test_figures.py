@@ -130,8 +130,10 @@ def expected_lengths(design, solution) -> dict[str, dict[str, float]]:
         "choke": ({"coil": c.coil_length_m, "form": c.form_diameter_m,
                    "coax in the coil": c.turns * math.pi * c.mean_diameter_m} if solution.sleeve is None
                   else {"sleeve": solution.sleeve.length_m,
-                        "inside": solution.sleeve.sleeve_inner_diameter_m,
-                        "outside": solution.sleeve.cable_od_m}),
+                        # diameters print in mm with inches on imperial sheets (not parsed there)
+                        **({"inside": solution.sleeve.sleeve_inner_diameter_m,
+                            "outside": solution.sleeve.cable_od_m}
+                           if design.output.units == "metric" else {})}),
         "swr": {"coax": design.feed.length_m},
         "smith": {},
     }

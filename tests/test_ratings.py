@@ -114,7 +114,7 @@ def test_10_kw_through_rg58(cases):
     found = parts(s.findings)
     assert "coax (RG-58)" in found
     assert "stub line (window-450)" in found and "end insulators" in found
-    assert any(p.startswith("coax connectors (UHF") for p in found)
+    assert any(p.startswith("coax connectors, UHF") for p in found)
     coax = next(f for f in s.findings if f.part == "coax (RG-58)")
     # the dissipated power it names is what the Solution says is lost in the coax
     assert units_text(d.power.transmitter_w - s.power_at_tap_w) in coax.figure

@@ -1005,6 +1005,12 @@ def _short_tap(ctx: _Context) -> Drawing:
 
 # ---------------------------------------------------------------- choke
 
+def _mm_in(m: float, system: str) -> str:
+    """A small diameter: the metric sheet's length, or 0.1 mm with inches to 0.01 in on imperial
+    sheets (an eighth of an inch is too coarse for a cable)."""
+    return units.format_length(m, "metric") if system == "metric" else f"{m * 1e3:.1f} mm ({m / 0.0254:.2f} in)"
+
+
 def _sleeve(ctx: _Context) -> Drawing:
     """The quarter-wave sleeve choke (built instead of a coil above HF): the sleeve over the feed
     coax in a side view (length to scale, diameters enlarged) and an end view to scale; which end is
@@ -1051,8 +1057,8 @@ def _sleeve(ctx: _Context) -> Drawing:
     sheet.add(Circle(xe, ye, sl.shield_diameter_m / 2 * k, width=THIN))
     sheet.add(Text(xe, ye - sl.sleeve_inner_diameter_m / 2 * k - 8.0, "end view", LABEL, "middle"))
     sheet.place_text([(PAD + 2.0, 150.0), (PAD + 2.0, 160.0)],
-                     [f"Sleeve: {L(sl.sleeve_inner_diameter_m)} inside (or a little more), over the "
-                      f"{d.feed.coax} ({L(sl.cable_od_m)} outside).",
+                     [f"Sleeve: {_mm_in(sl.sleeve_inner_diameter_m, ctx.units)} inside (or a little "
+                      f"more), over the {d.feed.coax} ({_mm_in(sl.cable_od_m, ctx.units)} outside).",
                       f"A quarter wave at {units.format_frequency(sl.centre_hz)} with velocity factor "
                       f"{sl.velocity_factor:.3f} (air and the jacket between braid and sleeve).",
                       "Cut it long; check its resonance with an analyzer or dip meter loosely coupled",
