@@ -221,6 +221,9 @@ class Design:
     calibration: Calibration = field(default_factory=Calibration)
     record: tuple = ()
     path: str | None = field(default=None, compare=False)
+    #: the `country` whose national band edges were asked for (None: the ITU table of the region);
+    #: not part of the canonical form: the band edges it chose are
+    country: str | None = None
 
     @property
     def wavelength_m(self) -> float:
@@ -231,7 +234,7 @@ class Design:
         the antenna (title, output, record, the file path).  Floats are written to 9 significant
         digits, so '14175 kHz' and '14.175 MHz' give the same form."""
         data = dataclasses.asdict(self)
-        for key in ("title", "output", "record", "path"):
+        for key in ("title", "output", "record", "path", "country"):
             data.pop(key)
         data["stub"].pop("source")  # where the catalogue's numbers come from is not the antenna
         for part in ("stub", "radiator"):  # nor the range the sources give for a velocity factor
@@ -455,7 +458,7 @@ class _Validator:
         design = Design(schema=SCHEMA, name=name, title=title, frequency_hz=frequency, band_hz=band,
                         band_name=band_name, region=region, radiator=radiator, stub=stub, feed=feed,
                         site=site, power=power, output=output, calibration=calibration, record=record,
-                        path=self.path)
+                        path=self.path, country=country)
         self.cross_checks(design)
         return design
 

@@ -31,6 +31,7 @@ import numpy as np
 from markupsafe import escape
 
 from buildsheet import units
+from buildsheet.catalog import national_bands
 from buildsheet.design import Design
 from buildsheet.solver import RIGID_DIAMETER_M, Solution, velocity_factor_text
 
@@ -385,7 +386,7 @@ class _Context:
         d, s = self.d, self.s
         low, high = s.band_hz
         band = f"{_freq(low)} to {_freq(high)}"
-        band += (f" ({d.band_name} band, ITU region {d.region})" if d.band_name else
+        band += (f" ({d.band_name} band, {self.band_table()})" if d.band_name else
                  " (as given in the design)")
         dims = s.dimensions
         rounding = units.length_rounding(self.u)
@@ -414,6 +415,17 @@ class _Context:
                        + "; ".join(dict.fromkeys(f.part for f in s.findings)) + "."), "caution"),)
               if s.findings else ()),
         )
+
+    def band_table(self) -> str:
+        """Which table the band edges come from: a country's national table (catalog
+        national_bands, with its rule) or the ITU table of the region."""
+        d = self.d
+        if d.country:
+            for b in national_bands(d.country):
+                if (b.low_hz, b.high_hz) == tuple(d.band_hz):
+                    rule = b.source.split(",")[0].split(":")[0]
+                    return f"{d.country} national table, {rule}"
+        return f"ITU region {d.region}"
 
     def margin_summary(self) -> str:
         """One sentence on the tuning margins (solver.FirstCut), or '' when there are none."""
