@@ -474,7 +474,8 @@ class _Validator:
                             f"catalogue ({', '.join(known)}), got {_describe(raw)}; for another "
                             "country give `band: [low, high]` from its national table")
         if raw.strip().upper() == "US" and region != 2:
-            raise self.fail("country", f"US band edges are those of ITU region 2, but `region` is {region}")
+            raise self.fail("country", f"US band edges are those of ITU region 2, but `region` is {region}; "
+                            "set `region: 2`, or give `band: [low, high]` instead of `country`")
         return raw.strip().upper()
 
     def _found_band(self, frequency: float, region: int, country: str | None):
