@@ -352,6 +352,17 @@ def _coil_symbol(cx: float, y0: float, length: float, turns: int, w: float = 11.
     return out
 
 
+def _choke_symbol(solution, cx: float, y0: float, length: float, w: float = 11.0) -> list:
+    """The choke as a symbol (overview and stub figures): the coil, or where a quarter-wave sleeve
+    is built instead (Solution.sleeve), the sleeve as a tube around the coax, its bonded end at the
+    bottom hatched."""
+    if solution.sleeve is None:
+        return _coil_symbol(cx, y0, length, solution.choke.turns, w)
+    return [Line(cx, y0, cx, y0 + length, width=COAX),
+            Rect(cx - w / 2, y0, w, length, width=0.9, fill=SUPPORT_GREY),
+            Hatch(cx - w / 2, y0 + length - 4.0, w, 4.0, spacing=2.0)]
+
+
 def _station(x0: float, y_g: float, w: float = 46.0, h: float = 24.0) -> list:
     """A small house standing on the ground at y_g, left wall at x0, with its name inside."""
     roof = 12.0
@@ -482,7 +493,7 @@ def _stub_and_feed(sheet: _Sheet, ctx: _Context, x_j: float, x_o: float, y_top: 
               Line(x_o - 1.0, y_tap, x_mid, y_tap + 2.0, width=LEAD))
     sheet.add(Circle(x_j, y_tap, 1.8, width=0, fill=0.0), Circle(x_o, y_tap, 1.8, width=0, fill=0.0))
     sheet.add(Circle(x_j, y_top, 2.0, width=0, fill=0.0))
-    sheet.add(*_coil_symbol(x_mid, y_choke, 26.0, ctx.solution.choke.turns))
+    sheet.add(*_choke_symbol(ctx.solution, x_mid, y_choke, 26.0))
     sheet.add(Polyline(((x_mid, y_choke + 26.0), *coax_to), width=COAX))
     return y_choke
 
@@ -856,7 +867,7 @@ def _stub(ctx: _Context) -> Drawing:
     sheet.add(Line(x_mid + 3.0, e_y + 6.0, x_o - 4.0, y_tap, width=LEAD))
     sheet.add(Line(x_mid, e_y, x_mid, y_short - 4.0, width=COAX))
     sheet.add(Line(x_mid, y_short + 4.0, x_mid, y_choke, width=COAX))
-    sheet.add(*_coil_symbol(x_mid, y_choke, 34.0, s.choke.turns, 14.0))
+    sheet.add(*_choke_symbol(s, x_mid, y_choke, 34.0, 14.0))
     coax_end_y = y_choke + 50.0
     sheet.add(Polyline(((x_mid, y_choke + 34.0), (x_mid, coax_end_y), (PAD + 60.0, coax_end_y)),
                        width=COAX))
@@ -880,7 +891,7 @@ def _stub(ctx: _Context) -> Drawing:
                   angles=(150, 135, 165), radii=(56, 72, 90))
     choke_text = ([f"choke: {_turns(s.choke.turns)} of the coax,", "right at the tap"] if s.sleeve is None
                   else ["choke: quarter-wave sleeve", "over the coax, right at the tap"])
-    if s.choke.warning:
+    if s.choke.warning and s.sleeve is None:
         choke_text.append("(not enough here: see the choke figure)")
     sheet.callout(x_mid + 7.0, y_choke + 17.0, choke_text, angles=(0, 20, 340), radii=(30, 42, 56))
     sheet.callout(PAD + 60.0, coax_end_y, [f"coax {d.feed.coax} to the station"],
