@@ -345,7 +345,8 @@ def _line_power(design, s) -> list[Finding]:
 def _coax_rho(design, s) -> float:
     z0 = design.feed.coax_z0_ohm
     z = s.feed_impedance
-    return float(abs((z - z0) / (z + z0)))
+    # a short or an open at the tap (|rho| = 1) would make the SWR infinite: held just below
+    return min(float(abs((z - z0) / (z + z0))), 0.999999)
 
 
 def _feed_mismatch(design, s) -> list[Finding]:

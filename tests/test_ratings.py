@@ -323,3 +323,24 @@ def test_sleeve_is_a_quarter_wave_at_the_band_centre():
     sl = choke.design_sleeve_choke(433.5e6, 430e6, 440e6, 10.3e-3, 8.3e-3, 3.5, 0.02)
     assert sl.centre_hz == pytest.approx(math.sqrt(430e6 * 440e6))
     assert sl.length_m == pytest.approx(sl.velocity_factor * 299792458.0 / (4 * sl.centre_hz))
+
+
+# ---------------------------------------------------------------- where the warnings appear
+
+def test_solve_prints_and_json_carries_the_warnings(capsys):
+    import json
+    path = str(CASES / "z600.yaml")
+    assert main(["solve", path]) == 0
+    out = capsys.readouterr().out
+    assert "warning: feed: the tap is matched to 600" in out
+    assert main(["solve", path, "--json"]) == 0
+    data = json.loads(capsys.readouterr().out)
+    (w,) = data["rating_warnings"]
+    assert w["part"] == "feed" and w["anchor"] == "feed" and w["rating"] and w["change"]
+    assert data["assumptions"] and data["sleeve_choke"] is None
+
+
+def test_a_warning_refuses_nothing(tmp_path):
+    # the 10 kW case builds its sheet (exit 0) with its warnings in it
+    assert main(["build", str(CASES / "kw10-rg58.yaml"), "-o", str(tmp_path), "--date", "2026-12-01"]) == 0
+    assert (tmp_path / "kw10-rg58.pdf").stat().st_size > 0
