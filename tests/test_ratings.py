@@ -344,3 +344,23 @@ def test_a_warning_refuses_nothing(tmp_path):
     # the 10 kW case builds its sheet (exit 0) with its warnings in it
     assert main(["build", str(CASES / "kw10-rg58.yaml"), "-o", str(tmp_path), "--date", "2026-12-01"]) == 0
     assert (tmp_path / "kw10-rg58.pdf").stat().st_size > 0
+
+
+def test_coax_power_points_scale_with_the_matched_loss():
+    # the catalogue says its power points (from memory at 30 MHz) scale as 1/matched loss, the
+    # rating being thermal: check every point against that rule with the cable's own loss law
+    # (CHECK_VALUES §6c fit), within the 2 % the figures were rounded to
+    from buildsheet.catalog import catalog
+    for name, rated in ratings.ratings().coax.items():
+        loss = catalog().coax(name).matched_loss_db_per_m
+        ref = rated.power_at(30e6) * loss(30e6)
+        for f, p in rated.power:
+            assert p * loss(f) == pytest.approx(ref, rel=0.02), (name, f)
+
+
+def test_us_national_band_edges():
+    # 47 CFR 97.301(a), Region 2: 70 cm 420-450 MHz, 1.25 m 222-225 MHz
+    from buildsheet.catalog import national_bands
+    edges = {b.name: (b.low_hz, b.high_hz) for b in national_bands("us")}
+    assert edges == {"1.25 m": (222e6, 225e6), "70 cm": (420e6, 450e6)}
+    assert all("97.301" in b.source for b in national_bands("US"))
