@@ -84,6 +84,34 @@ def _parser() -> argparse.ArgumentParser:
                    help="date of the sweep stored with --write (default: the sweep file's date)")
     p.set_defaults(run=_fit)
 
+    p = sub.add_parser("start", help="write a new commented design file from a few answers (asks on a "
+                       "terminal for what the options do not give)")
+    p.add_argument("file", metavar="FILE", help="the new design file (never overwritten); its name "
+                   "gives the design's name")
+    p.add_argument("--band", metavar="BAND", help="amateur band such as '20 m' or '70 cm' (the design "
+                   "frequency is its middle)")
+    p.add_argument("--frequency", metavar="FREQ", help="design frequency, such as '14.2 MHz'")
+    p.add_argument("--line", metavar="NAME", help="stub line from the catalogue (default window-450)")
+    p.add_argument("--coax", metavar="NAME", help="feed coax from the catalogue (default RG-8X)")
+    p.add_argument("--orientation", choices=("horizontal", "sloper", "vertical"),
+                   help="how it is hung (default: horizontal below 30 MHz, vertical above)")
+    p.add_argument("--height", metavar="LEN", help="height of the stub's open top (vertical: of the "
+                   "short), with a unit")
+    p.add_argument("--units", choices=("imperial", "metric"), help="units of the sheet")
+    p.add_argument("--region", type=int, choices=(1, 2, 3), default=None, help="ITU region (default 2)")
+    p.add_argument("--title", metavar="TEXT", help="title printed on the sheet")
+    p.set_defaults(run=_start)
+
+    p = sub.add_parser("catalogue", help="list the wires, materials, lines, coax, grounds, tube and rod "
+                       "stock and bands the design files may name, with figures and sources")
+    from buildsheet.listing import KINDS as _LIST_KINDS
+    p.add_argument("sections", nargs="*", metavar="SECTION",
+                   help=f"what to list: {', '.join(_LIST_KINDS)} (default: all)")
+    p.add_argument("--region", type=int, choices=(1, 2, 3), default=2, help="ITU region of the bands")
+    p.add_argument("--units", choices=("imperial", "metric"), default="imperial",
+                   help="units of the sizes (default imperial)")
+    p.set_defaults(run=_catalogue)
+
     p = sub.add_parser("handout", help="one booklet of build sheets for several designs (a club handout)")
     p.add_argument("designs", nargs="+", metavar="DESIGN",
                    help="design files, or folders standing for the *.yaml designs in them")
@@ -99,6 +127,41 @@ def _parser() -> argparse.ArgumentParser:
     p.add_argument("--quiet", action="store_true", help="no progress bar on a terminal")
     p.set_defaults(run=_handout)
     return parser
+
+
+#: what `start` asks on a terminal for the answers its options did not give: (option, question)
+_QUESTIONS = (("band", "band, such as 20 m or 2 m (or leave empty and give a frequency)"),
+              ("frequency", "design frequency, such as 14.2 MHz"),
+              ("line", "stub line"), ("coax", "feed coax"),
+              ("orientation", "horizontal, sloper or vertical"),
+              ("height", "height of the stub's open top (vertical: of the short), such as 10 m"),
+              ("units", "imperial or metric"))
+
+
+def _start(args) -> int:
+    from buildsheet.catalog import catalog
+    from buildsheet.starter import Answers, design_text, slug, write_new
+
+    given = {key: getattr(args, key) for key, _ in _QUESTIONS}
+    if sys.stdin is not None and sys.stdin.isatty() and sys.stdout.isatty():
+        hints = {"line": ", ".join(catalog().names("stub_line")), "coax": ", ".join(catalog().names("coax"))}
+        for key, question in _QUESTIONS:
+            if given[key] or (key == "frequency" and given["band"]):
+                continue
+            hint = f" ({hints[key]})" if key in hints else ""
+            reply = input(f"{question}{hint} [default]: ").strip()
+            given[key] = reply or None
+    answers = Answers(name=slug(args.file), region=args.region or 2, title=args.title, **given)
+    write_new(args.file, design_text(answers))
+    print(f"{args.file}: new design '{answers.name}' written; next: buildsheet check {args.file}")
+    return 0
+
+
+def _catalogue(args) -> int:
+    from buildsheet.listing import listing
+
+    print(listing(tuple(args.sections), args.region, args.units), end="")
+    return 0
 
 
 def _handout(args) -> int:
