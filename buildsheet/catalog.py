@@ -228,12 +228,15 @@ class Catalog:
 
     def stock_size(self, diameter_m: float, system: str, material: str = "") -> StockSize | None:
         """The stock tube or rod sold in `system` (imperial | metric) whose outer diameter is within
-        STOCK_MATCH of diameter_m (m), the nearest of them, one of `material` (a word of its name,
-        "copper") first where sizes tie; None if no such size is sold."""
-        near = [s for s in self.stock if s.system == system
+        STOCK_MATCH of diameter_m (m), the nearest of them; a tube named by its metal only for that
+        `material` (a rod of any); None if no such size is sold."""
+        def sold_as(s: StockSize) -> bool:      # a tube named by its metal is that metal only
+            metals = [m for m in ("copper", "aluminium") if m in s.name]
+            return not metals or any(m in material for m in metals)
+
+        near = [s for s in self.stock if s.system == system and sold_as(s)
                 and abs(s.outer_diameter_m - diameter_m) <= STOCK_MATCH * diameter_m]
-        return min(near, key=lambda s: (round(abs(s.outer_diameter_m - diameter_m), 6),
-                                        not (material and material in s.name)), default=None)
+        return min(near, key=lambda s: abs(s.outer_diameter_m - diameter_m), default=None)
 
     def _table(self, kind: str) -> Mapping:
         tables = {"material": self.materials, "insulation": self.insulations,

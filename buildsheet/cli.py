@@ -63,6 +63,8 @@ def _parser() -> argparse.ArgumentParser:
     p = sub.add_parser("build", help="write the PDF build sheet and the SVG figures")
     p.add_argument("design", metavar="DESIGN")
     p.add_argument("-o", "--output", metavar="DIR", help="output folder (default: out/<name>/)")
+    p.add_argument("--card", action="store_true", help="also write the yard card <name>-card.pdf: one "
+                   "or two pages to take out to the antenna")
     _output_options(p, paper=True)
     p.set_defaults(run=_build)
 
@@ -125,6 +127,8 @@ def _parser() -> argparse.ArgumentParser:
                    help="paper of the whole booklet (default: the paper most of the designs ask for)")
     p.add_argument("--units", choices=("imperial", "metric"), help="override every design's output.units")
     p.add_argument("--quiet", action="store_true", help="no progress bar on a terminal")
+    p.add_argument("--cards", action="store_true", help="yard cards instead of full build sheets, "
+                   "with one shared safety page")
     p.set_defaults(run=_handout)
     return parser
 
@@ -180,9 +184,9 @@ def _handout(args) -> int:
         raise BuildsheetError("is one of the designs; the booklet would overwrite it", file=args.output)
     progress = Progress(sys.stderr, enabled=sys.stderr.isatty() and not args.quiet)
     try:
-        parts = prepare(designs, args.date,
+        parts = prepare(designs, args.date, cards=args.cards,
                         on_done=lambda n: progress.show("preparing sheets", n, len(designs)))
-        booklet = make_booklet(parts, title=title, event=event, paper=args.paper)
+        booklet = make_booklet(parts, title=title, event=event, paper=args.paper, cards=args.cards)
         pdf, pages = render_booklet(booklet,
                                     on_sheet=lambda i: progress.show("laying out sheets", i + 1, len(parts)))
     finally:
@@ -192,7 +196,8 @@ def _handout(args) -> int:
         write_atomic(args.output, pdf)      # nothing is written before the whole booklet is ready
     except OSError as exc:
         raise BuildsheetError(f"cannot write the handout: {exc.strerror or exc}", file=args.output) from None
-    print(f"{args.output}: {len(parts)} build sheets, {pages} pages, dated {booklet.date}")
+    what = "yard cards" if args.cards else "build sheets"
+    print(f"{args.output}: {len(parts)} {what}, {pages} pages, dated {booklet.date}")
     return 0
 
 
@@ -256,6 +261,10 @@ def _build(args) -> int:
     out = args.output or os.path.join("out", design.name)
     files = {os.path.join(out, f"{design.name}.pdf"): render_pdf(build_sheet(design, solution, date),
                                                                   drawings)}
+    if args.card:
+        from buildsheet.card import build_card
+        files[os.path.join(out, f"{design.name}-card.pdf")] = render_pdf(build_card(design, solution, date),
+                                                                         drawings)
     files.update({os.path.join(out, f"{design.name}-{key}.svg"): render_svg(drawing)
                   for key, drawing in drawings.items()})
     _not_the_design(files, args.design)
@@ -264,7 +273,8 @@ def _build(args) -> int:
         write_many_atomic(files)   # all or nothing: an interrupted build keeps the previous files
     except OSError as exc:
         raise BuildsheetError(f"cannot write the build sheet: {exc.strerror or exc}", file=out) from None
-    print(f"{out}: {design.name}.pdf and {len(drawings)} SVG figures, document {solution.design_id}, "
+    card = f", {design.name}-card.pdf" if args.card else ""
+    print(f"{out}: {design.name}.pdf{card} and {len(drawings)} SVG figures, document {solution.design_id}, "
           f"revised {date}")
     return 0
 

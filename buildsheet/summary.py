@@ -40,12 +40,13 @@ def summary_text(design: Design, s: Solution) -> str:
     add(f"  radiator   {L(d.radiator):>14}   attachment point to attachment point")
     add(f"  stub       {L(d.stub):>14}   open top to the centre of the short")
     add(f"  tap        {L(d.tap):>14}   centre of the short to the tap")
-    add(f"  spacing    {L(d.spacing):>14}   centre to centre of the stub conductors")
+    add(f"  spacing    {units.format_length(d.spacing, u, 'size'):>14}   centre to centre of the stub conductors")
     add("")
     add("Cut list")
     for item in s.cut_list:
         qty = f"{item.quantity} x" if item.quantity > 1 else ""
-        add(f"  [ ] {item.part:<12} {qty:>3} {L(item.length_m):>12}  {item.material}; {item.note}")
+        length = units.format_length(item.length_m, u, "coarse" if item.coarse else "fine")
+        add(f"  [ ] {item.part:<14} {qty:>3} {length:>12}  {item.material}; {item.note}")
     fc = s.first_cut
     margins = [(what, m, span) for what, m, span in (("stub line", fc.stub_margin_m, fc.stub_m),
                                                      ("radiator", fc.radiator_margin_m, fc.radiator_m))

@@ -154,10 +154,12 @@ def test_two_wire_line_z0_from_its_geometry(name):
 def test_stock_sizes():
     c = catalog()
     # ASTM B88: 3/4 in nominal copper water tube is 7/8 in outside (nominal + 1/8 in), from memory
-    assert c.stock_size(0.875 * 0.0254, "imperial").name == "3/4 in copper pipe"
-    assert c.stock_size(0.0222, "imperial").name == "3/4 in copper pipe"
-    assert c.stock_size(0.004, "metric").name == "4 mm rod"
-    assert c.stock_size(0.004, "imperial") is None      # 4 mm is 0.157 in: between 1/8 and 3/16
-    assert c.stock_size(0.0159, "imperial").outer_diameter_m == pytest.approx(0.625 * 0.0254)
+    assert c.stock_size(0.875 * 0.0254, "imperial", "copper").name == "3/4 in copper pipe"
+    assert c.stock_size(0.0222, "imperial", "copper").name == "3/4 in copper pipe"
+    assert c.stock_size(0.004, "metric", "copper").name == "4 mm rod"
+    assert c.stock_size(0.004, "imperial", "copper") is None   # 4 mm is 0.157 in: between 1/8 and 3/16
+    assert c.stock_size(0.0159, "imperial", "aluminium").name == "5/8 in aluminium tube"
+    assert c.stock_size(0.0159, "metric", "copper") is None     # no 16 mm copper tube (EN 1057)
+    assert c.stock_size(0.0222, "imperial", "bronze") is None
     for s in c.stock:
         assert s.source.strip() and s.system in ("imperial", "metric") and s.kind in ("tube", "rod")
