@@ -47,7 +47,7 @@ def _cut_list(ctx: _Context) -> tuple:
     allowances are included; the sheet's notes say what each piece is for)."""
     s = ctx.s
     site = ctx.layout()
-    cut_rows = tuple((_e(i.part), str(i.quantity), _e(ctx.length(i.length_m, i.coarse)), _e(i.material))
+    cut_rows = tuple((_e(i.part), str(i.quantity), _e(ctx.length(i.length_m, i.coarse)), _e(ctx.cut_material(i)))
                      for i in s.cut_list)
     return (
         Para(_e(f"Cut lengths include the allowances ({units.length_rounding(ctx.u)}; coax and rope "

@@ -440,7 +440,8 @@ class _Context:
     def radiator_text(self) -> str:
         r = self.d.radiator
         if r.diameter_m >= RIGID_DIAMETER_M and r.insulation == "bare":
-            return f"{conductor_size(r.diameter_m, self.u, r.material)}, {r.material}, bare"
+            size = conductor_size(r.diameter_m, self.u, r.material)
+            return f"{size}, bare" if r.material in size else f"{size}, {r.material}, bare"
         if r.insulation == "bare":
             return f"{r.label} {r.material}, bare"
         spread = (f"; sources {velocity_factor_text(*r.velocity_factor_spread)}"
@@ -483,7 +484,7 @@ class _Context:
     def cut_list(self) -> tuple:
         cut_rows = tuple((_e(i.part), str(i.quantity), _e(self.length(i.length_m, i.coarse)),
                           _e(self.length(i.allowance_m, i.coarse)) if i.allowance_m > 0 else "none",
-                          _e(i.material), _e(self.cut_note(i))) for i in self.s.cut_list)
+                          _e(self.cut_material(i)), _e(self.cut_note(i))) for i in self.s.cut_list)
         hardware_rows = tuple((str(h.quantity), _e(h.item), _e(h.note)) for h in self.s.hardware)
         d, s = self.d, self.s
         return (
@@ -511,6 +512,17 @@ class _Context:
             Table(header=("qty", "item", "note"), rows=hardware_rows, widths=(0.45, 2.6, 4.9),
                   align=("right", "left", "left"), boxes=(1,) * len(hardware_rows)),
         )
+
+    def cut_material(self, item) -> str:
+        """What a piece is cut from; a pipe or rod radiator given by its diameter is named by the
+        stock size a shop sells (stock.py) rather than by the bare diameter."""
+        r = self.d.radiator
+        label = r.label.lower()
+        if (item.part == "radiator" and r.diameter_m >= RIGID_DIAMETER_M and "awg" not in label
+                and not label.startswith("#") and r.insulation == "bare"):
+            size = conductor_size(r.diameter_m, self.u, r.material)
+            return size if r.material in size else f"{size}, {r.material}"
+        return item.material
 
     def cut_list_margin(self) -> str:
         """One sentence on the pieces cut long for tuning (solver.FirstCut), or ''."""

@@ -163,3 +163,26 @@ def test_stock_sizes():
     assert c.stock_size(0.0222, "imperial", "bronze") is None
     for s in c.stock:
         assert s.source.strip() and s.system in ("imperial", "metric") and s.kind in ("tube", "rod")
+
+
+def test_on_a_terminal_it_asks_for_what_the_options_leave_out(tmp_path, monkeypatch, capsys):
+    import io
+    import sys
+
+    class Terminal(io.StringIO):
+        def isatty(self):
+            return True
+
+    replies = iter(["", "18.1 MHz", "twinlead-300", "", "sloper", "12 m", "metric"])
+    asked: list[str] = []
+    monkeypatch.setattr(sys, "stdin", Terminal())
+    monkeypatch.setattr(sys, "stdout", Terminal())
+    monkeypatch.setattr("builtins.input", lambda question: asked.append(question) or next(replies))
+    path = tmp_path / "asked.yaml"
+    assert main(["start", str(path)]) == 0
+    assert len(asked) == 7 and asked[0].startswith("band") and "window-450" in asked[2]
+    d = load_design(path)
+    assert d.frequency_hz == pytest.approx(18.1e6) and d.stub.name == "twinlead-300"
+    assert d.feed.coax == "RG-8X"                       # the empty reply takes the default
+    assert d.site.orientation == "sloper" and d.site.height_m == pytest.approx(12.0)
+    assert d.output.units == "metric"

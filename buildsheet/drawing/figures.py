@@ -402,7 +402,8 @@ class _Context:
         insulation = "" if r.insulation == "bare" else f", {r.insulation} insulated"
         if "awg" in label.lower() or label.startswith("#"):
             return f"{label} {r.material}{insulation}"
-        return f"{conductor_size(r.diameter_m, self.units, r.material)}, {r.material}{insulation}"
+        size = conductor_size(r.diameter_m, self.units, r.material)
+        return f"{size}{insulation}" if r.material in size else f"{size}, {r.material}{insulation}"
 
 
 def _strip(ctx: _Context, caption: str, notes: list[str], width: float, top: float) -> tuple[list, float]:
@@ -538,12 +539,14 @@ def _overview_hanging(ctx: _Context) -> tuple[_Sheet, float]:
         u = (-math.cos(theta), math.sin(theta))
         reach = min((x_j - 130.0) / math.cos(theta), (y_g - 64.0 - y_top) / math.sin(theta))
         far = _along((x_j, y_top), u, reach)
-        rope_len = max(10.0, min(34.0, (y_g - 22.0 - far[1]) / math.sin(theta) - 16.0))
         ins_end = _along(far, u, 16.0)
-        support = _along(ins_end, u, rope_len)
-        rope_mid = _along(ins_end, u, rope_len / 2)
+        # the anchor rope runs on down the radiator's line to a stake in the ground; where that point
+        # is off the drawing it is drawn steeper (the overview is not to scale)
+        to_ground = (y_g - ins_end[1]) / math.sin(theta)
+        support = (max(PAD + 14.0, ins_end[0] + u[0] * to_ground), y_g)
+        rope_mid = ((ins_end[0] + support[0]) / 2, (ins_end[1] + support[1]) / 2)
         sheet.add(Line(*ins_end, *support, width=ROPE, dash=ROPE_DASH))
-        sheet.add(_pole(support[0], support[1] - 2.0, y_g, 6.0))
+        sheet.add(_pole(support[0], y_g - 9.0, y_g + 4.0, 3.0))
         site = ctx.layout()
         support_name = [f"anchor rope {ctx.paced(site.ropes[1].length_m - TIE_OFF_M)}",
                         f"to a ground anchor {ctx.paced(site.anchor_distance_m)}",
