@@ -365,7 +365,7 @@ def _line(design: Design, u: str) -> str:
     if stub.name != "custom":
         return stub.name
     if stub.kind == "geometry":
-        return f"two-wire, {_nb(units.format_length(stub.spacing_m, u))} spacing, {stub.dielectric}"
+        return f"two-wire, {_nb(units.format_length(stub.spacing_m, u, 'size'))} spacing, {stub.dielectric}"
     return f"two-wire, {_nb(units.format_impedance(stub.z0_ohm))} as measured"
 
 

@@ -75,8 +75,8 @@ def _rows(kind: str, region: int, u: str) -> tuple[str, list[tuple[str, str, str
         return "grounds (site.ground)", rows
     if kind == "stock":
         return "tube and rod stock (printed beside a pipe or rod conductor)", [
-            (s.name, f"{s.kind}, {size(s.outer_diameter_m)} outside ({s.outer_diameter_m * 1e3:.2f} mm), "
-                     f"sold in {s.system} sizes", s.source) for s in c.stock]
+            (s.name, f"{s.kind}, outside {units.format_length(s.outer_diameter_m, 'imperial', 'size')} = "
+                     f"{s.outer_diameter_m * 1e3:.2f} mm, sold in {s.system} sizes", s.source) for s in c.stock]
     if kind == "bands":
         return f"bands of ITU region {region} (band)", [
             (b.name, f"{units.format_frequency(b.low_hz)} to {units.format_frequency(b.high_hz)}", b.source)

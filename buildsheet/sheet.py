@@ -433,8 +433,7 @@ class _Context:
             return st.name
         if st.kind == "geometry":
             return (f"two-wire line, {self.size(st.spacing_m)} spacing, "
-                    f"{conductor_size(st.conductor_diameter_m, self.u, st.conductor_material)} "
-                    f"conductors in {st.dielectric}")
+                    f"{self.size(st.conductor_diameter_m)} conductors in {st.dielectric}")
         return "two-wire line as measured"
 
     def radiator_text(self) -> str:
