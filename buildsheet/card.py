@@ -55,7 +55,7 @@ def _cut_list(ctx: _Context) -> tuple:
                 + (describe(site, lambda m: ctx.length(m, coarse=True)) if site else "")), "note"),
         Table(header=("part", "qty", "cut length", "material"), rows=cut_rows, widths=(1.6, 0.45, 1.1, 4.0),
               align=("left", "right", "right", "left"), boxes=tuple(i.quantity for i in s.cut_list)),
-        Table(header=("qty", "hardware"), rows=tuple((str(h.quantity), _e(f"{h.item}: {h.note}"))
+        Table(header=("qty", "hardware"), rows=tuple((str(h.quantity), _e(f"{h.item}: {ctx.hardware_note(h)}"))
                                                     for h in s.hardware),
               widths=(0.45, 6.7), align=("right", "left"), boxes=(1,) * len(s.hardware)),
     )

@@ -484,7 +484,7 @@ class _Context:
         cut_rows = tuple((_e(i.part), str(i.quantity), _e(self.length(i.length_m, i.coarse)),
                           _e(self.length(i.allowance_m, i.coarse)) if i.allowance_m > 0 else "none",
                           _e(self.cut_material(i)), _e(self.cut_note(i))) for i in self.s.cut_list)
-        hardware_rows = tuple((str(h.quantity), _e(h.item), _e(h.note)) for h in self.s.hardware)
+        hardware_rows = tuple((str(h.quantity), _e(h.item), _e(self.hardware_note(h))) for h in self.s.hardware)
         d, s = self.d, self.s
         return (
             Facts((
@@ -511,6 +511,13 @@ class _Context:
             Table(header=("qty", "item", "note"), rows=hardware_rows, widths=(0.45, 2.6, 4.9),
                   align=("right", "left", "left"), boxes=(1,) * len(hardware_rows)),
         )
+
+    def hardware_note(self, item) -> str:
+        """A hardware item's note, with the stock size it must fit where its size matters."""
+        if item.fits_m is None:
+            return item.note
+        material = self.d.stub.conductor_material
+        return f"{item.note}; to fit {conductor_size(item.fits_m, self.u, material)}"
 
     def cut_material(self, item) -> str:
         """What a piece is cut from; a pipe or rod radiator given by its diameter is named by the

@@ -94,9 +94,12 @@ class FirstCut:
 
 @dataclass(frozen=True)
 class HardwareItem:
+    """Something to buy; fits_m: the diameter (m) of the conductor it must fit, where that sets its
+    size (the sheet names the stock size), else None."""
     item: str
     quantity: int
     note: str
+    fits_m: float | None = None
 
 
 @dataclass(frozen=True)
@@ -641,7 +644,8 @@ def _cut_list(design: Design, d: Dimensions, wrap: float, ch, first: FirstCut) -
         items.append(CutItem(rope.what, "UV-resistant polyester rope", rope.length_m, 1, TIE_OFF_M,
                              rope.note + " (common practice)", coarse=True))
     hardware = [
-        HardwareItem("tap clamps", 2, "hose clamps or split-bolt clamps that can slide along the stub"),
+        HardwareItem("tap clamps", 2, "hose clamps or split-bolt clamps that can slide along the stub",
+                     fits_m=design.stub.conductor_diameter_m if rigid_stub else None),
         HardwareItem("coax connector", 2, f"for {design.feed.coax}: one at the station, one at the choke"),
         HardwareItem("self-amalgamating tape", 1, "roll, to weatherproof the tap and the connectors"),
         HardwareItem("cable ties, UV-resistant", max(8, 2 * ch.turns), "to hold the choke turns"),
@@ -655,5 +659,6 @@ def _cut_list(design: Design, d: Dimensions, wrap: float, ch, first: FirstCut) -
         spreaders = int(math.ceil(d.stub / 0.30)) + 1
         hardware.append(HardwareItem("line spreaders", spreaders, "about every 30 cm along the stub"))
     if rigid_stub:
-        hardware.append(HardwareItem("pipe tees or elbows for the short", 2, "or a drilled bar and bolts"))
+        hardware.append(HardwareItem("pipe tees or elbows for the short", 2, "or a drilled bar and bolts",
+                                     fits_m=design.stub.conductor_diameter_m))
     return tuple(items), tuple(hardware)

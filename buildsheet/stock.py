@@ -11,13 +11,14 @@ OTHER = {"imperial": "metric", "metric": "imperial"}
 
 def conductor_size(diameter_m: float, system: str, material: str = "") -> str:
     """A conductor's diameter (m) as a builder buys it, in the sheet's units `system`:
-    '3/4 in copper pipe (7/8" OD)' where a stock size of that system matches, '4 mm rod (0.157")'
-    where only one of the other system does, else '5/32" dia.'."""
+    '3/4 in copper pipe (7/8" OD)' or '6 mm rod' where a stock size of that system matches,
+    '4 mm rod (5/32")' where only one of the other system does, else '5/32" dia.'."""
     size = units.format_length(diameter_m, system, "size")
     c = catalog()
     stock = c.stock_size(diameter_m, system, material)
     if stock is not None:
-        return f"{stock.name} ({size} OD)" if stock.kind == "tube" else f"{stock.name} ({size})"
+        # a rod's name is its diameter; a tube's name is a trade size, so its outside diameter follows
+        return f"{stock.name} ({size} OD)" if stock.kind == "tube" else stock.name
     stock = c.stock_size(diameter_m, OTHER[system], material)
     if stock is not None:
         return f"{stock.name} ({size})"

@@ -6,6 +6,7 @@ from __future__ import annotations
 from buildsheet import units
 from buildsheet.design import Design
 from buildsheet.solver import Solution
+from buildsheet.stock import conductor_size
 
 
 def _band(edges, fmt=units.format_frequency) -> str:
@@ -63,7 +64,9 @@ def summary_text(design: Design, s: Solution) -> str:
             f"between its sources; start with {start}, then {then} as the tuning table says.")
     add("Hardware")
     for h in s.hardware:
-        add(f"  [ ] {h.quantity:>3} x {h.item}: {h.note}")
+        fits = (f"; to fit {conductor_size(h.fits_m, u, design.stub.conductor_material)}"
+                if h.fits_m is not None else "")
+        add(f"  [ ] {h.quantity:>3} x {h.item}: {h.note}{fits}")
     add("")
     add("Predicted performance")
     add(f"  feed impedance at {units.format_frequency(s.frequency_hz)}: "

@@ -311,8 +311,9 @@ def format_length(m: float, units: str, step: str = "fine") -> str:
     reads like 1-3/4"), a leading '-' when negative. metric: nearest mm, "4.872 m" from 1 m up,
     "434 mm" below 1 m, "6.1 mm" (0.1 mm) below 10 mm.
     step "coarse" (coax, rope): imperial to the inch, 82' 3"; metric to the cm, "25.00 m", "43 cm".
-    step "size" (diameters, spacings): imperial to 0.001 in below 1/8 in ("0.040\"", as wire is
-    measured), to 1/32 in below 2 in, else as "fine"; metric as "fine" (0.1 mm below 10 mm).
+    step "size" (diameters, spacings): imperial to 0.001 in below 1/4 in ("0.040\"", as wire and
+    small rod are measured), to 1/32 in below 2 in, else as "fine"; metric to 0.1 mm below 100 mm
+    ("15.9 mm", "22 mm"), else as "fine".
     """
     _check_units(units)
     if step not in STEPS:
@@ -320,7 +321,7 @@ def format_length(m: float, units: str, step: str = "fine") -> str:
     if not math.isfinite(m):
         raise ValueError(f"cannot format a length of {m}")
     if units == "imperial":
-        if step == "size" and abs(m) < INCH_M / 8:
+        if step == "size" and abs(m) < INCH_M / 4:
             # wire and thin conductors are measured in thousandths (a 1/32 step is 20 % of 18 AWG)
             thou = math.floor(abs(m) / INCH_M * 1000 + 0.5)
             return f"{'-' if m < 0 and thou else ''}{thou / 1000:.3f}\""
@@ -340,6 +341,9 @@ def format_length(m: float, units: str, step: str = "fine") -> str:
             return f"{sign if cm else ''}{cm} cm"
         return f"{sign}{cm / 100:.2f} m"
     tenths = math.floor(mm * 10 + 0.5)
+    if step == "size" and tenths < 1000:
+        text = f"{tenths / 10:.1f}".removesuffix(".0")
+        return f"{sign if tenths else ''}{text} mm"
     if tenths < 100:
         return f"{sign if tenths else ''}{tenths / 10:.1f} mm"
     whole_mm = math.floor(mm + 0.5)

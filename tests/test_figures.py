@@ -141,8 +141,9 @@ def expected_lengths(design, solution) -> dict[str, dict[str, float]]:
     if solution.first_cut.radiator_margin_m > 0:  # the radiator is cut long by its tuning margin
         radiator["tuning margin"] = solution.first_cut.radiator_margin_m
     label = design.radiator.label.lower()
-    if "awg" not in label and not label.startswith("#"):
-        radiator["wire"] = design.radiator.diameter_m
+    stock = catalog().stock_size(design.radiator.diameter_m, design.output.units, design.radiator.material)
+    if "awg" not in label and not label.startswith("#") and not (stock and stock.kind == "rod"):
+        radiator["wire"] = design.radiator.diameter_m      # a rod of a stock size is named only
     overview = {"radiator": d.radiator, "stub": d.stub, "tap": d.tap,
                 "height": design.site.height_m, "coax": design.feed.length_m}
     site = site_layout(design.site.orientation, design.site.height_m, design.site.slope_rad, d.radiator,

@@ -186,3 +186,18 @@ def test_on_a_terminal_it_asks_for_what_the_options_leave_out(tmp_path, monkeypa
     assert d.feed.coax == "RG-8X"                       # the empty reply takes the default
     assert d.site.orientation == "sloper" and d.site.height_m == pytest.approx(12.0)
     assert d.output.units == "metric"
+
+
+@pytest.mark.parametrize("diameter, system, material, text", [
+    # issue 18: "4 mm rod becomes 1/8"": a size is printed as it is sold, in the sheet's system
+    # where it is sold in it, else by its own system's name with the sheet's figure
+    (0.004, "imperial", "copper", '4 mm rod (0.157")'),
+    (0.004, "metric", "aluminium", "4 mm rod"),
+    (0.0159, "imperial", "copper", '1/2 in copper pipe (5/8" OD)'),
+    (0.0159, "metric", "copper", "1/2 in copper pipe (15.9 mm)"),
+    (0.0222, "metric", "copper", "22 mm copper tube (22.2 mm OD)"),
+    (0.0035, "imperial", "copper", '0.138" dia.'),
+])
+def test_conductor_named_by_stock_size(diameter, system, material, text):
+    from buildsheet.stock import conductor_size
+    assert conductor_size(diameter, system, material) == text

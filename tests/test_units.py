@@ -221,14 +221,19 @@ def test_format_length_coarse(metres, units, text):
 
 
 @pytest.mark.parametrize("metres, units, text", [
-    # diameters and spacings: 1/32 in below 2 in, so 20 mm is not "3/4"" nor 4 mm "1/8"" (issue 18)
+    # diameters and spacings: 0.001 in below 1/4 in, 1/32 in below 2 in, so 20 mm is not "3/4"" nor
+    # 4 mm "1/8"" (issue 18)
     (0.020, "imperial", "25/32\""),
-    (0.004, "imperial", "5/32\""),
+    (0.004, "imperial", "0.157\""),
+    (0.005, "imperial", "0.197\""),
+    (0.3 * IN, "imperial", "5/16\""),
     (0.5 * IN, "imperial", "1/2\""),
     (3.0 * IN, "imperial", "3\""),
     (0.0010236, "imperial", "0.040\""),        # 18 AWG (ASTM B258: 0.0403 in)
-    (0.004, "metric", "4.0 mm"),
-    (0.0254, "metric", "25 mm"),
+    (0.004, "metric", "4 mm"),
+    (0.0159, "metric", "15.9 mm"),
+    (0.0254, "metric", "25.4 mm"),
+    (0.1234, "metric", "123 mm"),
 ])
 def test_format_length_size(metres, units, text):
     assert format_length(metres, units, "size") == text
@@ -240,9 +245,10 @@ def test_every_step_parses_back_within_half_its_resolution(metres, step, units):
     back = parse_quantity(format_length(metres, units, step), "length")
     if units == "imperial":
         res = {"fine": IN / 8, "coarse": IN,
-               "size": IN / 1000 if abs(metres) < IN / 8 else IN / 32 if abs(metres) < 2 * IN else IN / 8}[step]
+               "size": IN / 1000 if abs(metres) < IN / 4 else IN / 32 if abs(metres) < 2 * IN else IN / 8}[step]
     else:
-        res = 0.01 if step == "coarse" else (1e-4 if abs(metres) < 0.00995 else 1e-3)
+        size_fine = step == "size" and abs(metres) < 0.09995
+        res = 0.01 if step == "coarse" else (1e-4 if abs(metres) < 0.00995 or size_fine else 1e-3)
     assert abs(back - metres) <= res / 2 + 1e-9
 
 
