@@ -5,6 +5,7 @@ from __future__ import annotations
 
 from buildsheet import units
 from buildsheet.design import Design
+from buildsheet.layout import describe, site_layout
 from buildsheet.solver import Solution
 from buildsheet.stock import conductor_size
 
@@ -62,6 +63,10 @@ def summary_text(design: Design, s: Solution) -> str:
         then = " and ".join(parts[what][1] for what, _, _ in margins)
         add("  Why: the velocity factor of dielectric line and jacketed wire is only known to the spread "
             f"between its sources; start with {start}, then {then} as the tuning table says.")
+    site = site_layout(design.site.orientation, design.site.height_m, design.site.slope_rad,
+                       s.dimensions.radiator, design.wavelength_m)
+    if site is not None:
+        add("  Site: " + describe(site, lambda m: units.format_length(m, u, "coarse")))
     add("Hardware")
     for h in s.hardware:
         fits = (f"; to fit {conductor_size(h.fits_m, u, design.stub.conductor_material)}"
