@@ -168,3 +168,11 @@ def assert_all_coarse(items, u) -> bool:
         assert "/" not in text and (u == "imperial" or text.endswith((" cm", " m")))
         assert i.coarse
     return True
+
+
+def test_card_bytes_are_reproducible(tmp_path):
+    design = str(ROOT / "designs" / "mill-lane-15m.yaml")
+    for out in ("a", "b"):
+        assert main(["build", design, "--card", "-o", str(tmp_path / out), "--date", DATE]) == 0
+    assert (tmp_path / "a" / "mill-lane-15m-card.pdf").read_bytes() == \
+        (tmp_path / "b" / "mill-lane-15m-card.pdf").read_bytes()
