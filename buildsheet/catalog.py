@@ -112,7 +112,8 @@ class StubLine:
 @dataclass(frozen=True)
 class Coax:
     """A coaxial cable: z0_ohm (ohm), velocity_factor, outer_diameter_m (m, over the jacket) and
-    loss_db_per_100ft ((f_hz, dB per 100 ft), ...) as the cable data give it."""
+    loss_db_per_100ft ((f_hz, dB per 100 ft), ...) as the cable data give it; inner_diameter_m and
+    dielectric_diameter_m (m) where the construction is known (None otherwise), for checking z0."""
 
     name: str
     z0_ohm: float
@@ -120,6 +121,9 @@ class Coax:
     outer_diameter_m: float
     loss_db_per_100ft: tuple[tuple[float, float], ...]
     source: str
+    inner_diameter_m: float | None = None
+    dielectric_diameter_m: float | None = None
+    note: str = ""
 
     @cached_property
     def line(self):
@@ -164,6 +168,23 @@ class Mode:
 
 
 @dataclass(frozen=True)
+class StockSize:
+    """A tube or rod size sold in shops: kind 'tube' | 'rod', system 'imperial' | 'metric' (how it
+    is sold), outer_diameter_m in m."""
+
+    name: str
+    kind: str
+    system: str
+    outer_diameter_m: float
+    source: str
+
+
+#: a conductor is named by a stock size within this share of its diameter (tube walls and rod
+#: tolerances are a few per cent; a closer size is the one meant)
+STOCK_MATCH = 0.03
+
+
+@dataclass(frozen=True)
 class Band:
     """An amateur band in one ITU region: edges low_hz, high_hz in Hz."""
 
@@ -203,6 +224,19 @@ class Catalog:
     grounds: Mapping[str, Ground]
     modes: Mapping[str, Mode]
     band_plan: Mapping[int, tuple[Band, ...]]
+    stock: tuple[StockSize, ...] = ()
+
+    def stock_size(self, diameter_m: float, system: str, material: str = "") -> StockSize | None:
+        """The stock tube or rod sold in `system` (imperial | metric) whose outer diameter is within
+        STOCK_MATCH of diameter_m (m), the nearest of them; a tube named by its metal only for that
+        `material` (a rod of any); None if no such size is sold."""
+        def sold_as(s: StockSize) -> bool:      # a tube named by its metal is that metal only
+            metals = [m for m in ("copper", "aluminium") if m in s.name]
+            return not metals or any(m in material for m in metals)
+
+        near = [s for s in self.stock if s.system == system and sold_as(s)
+                and abs(s.outer_diameter_m - diameter_m) <= STOCK_MATCH * diameter_m]
+        return min(near, key=lambda s: abs(s.outer_diameter_m - diameter_m), default=None)
 
     def _table(self, kind: str) -> Mapping:
         tables = {"material": self.materials, "insulation": self.insulations,
@@ -328,6 +362,16 @@ def _stub_line(name: str, e: dict) -> StubLine:
         spread_source=spread_source)
 
 
+def _coax(name: str, e: dict) -> Coax:
+    def length(key):
+        return parse_quantity(e[key], "length") if key in e else None
+
+    return Coax(name, parse_quantity(e["z0"], "impedance"), _plain_number(e["velocity_factor"], name),
+                parse_quantity(e["outer_diameter"], "length"), _loss_points(e["loss_db_per_100ft"]),
+                e["source"], inner_diameter_m=length("inner_diameter"),
+                dielectric_diameter_m=length("dielectric_diameter"), note=e.get("note", ""))
+
+
 def _ground(name: str, e: dict) -> Ground:
     kind = e["kind"]
     if kind == "real":
@@ -358,14 +402,13 @@ def _build(raw: dict) -> Catalog:
                                           e["source"])
                             for n, e in raw["dielectrics"].items()}),
         stub_lines=frozen({n: _stub_line(n, e) for n, e in raw["stub_lines"].items()}),
-        coaxes=frozen({n: Coax(n, parse_quantity(e["z0"], "impedance"), _plain_number(e["velocity_factor"], n),
-                               parse_quantity(e["outer_diameter"], "length"),
-                               _loss_points(e["loss_db_per_100ft"]), e["source"])
-                       for n, e in raw["coax"].items()}),
+        coaxes=frozen({n: _coax(n, e) for n, e in raw["coax"].items()}),
         grounds=frozen({n: _ground(n, e) for n, e in raw["grounds"].items()}),
         modes=frozen({n: Mode(n, parse_quantity(e["duty_factor"], "fraction"), e["source"])
                       for n, e in raw["modes"].items()}),
         band_plan=frozen(_bands(raw["bands"])),
+        stock=tuple(StockSize(e["name"], e["kind"], e["system"], parse_quantity(e["outer_diameter"], "length"),
+                              e["source"]) for e in raw.get("stock", ())),
     )
 
 

@@ -63,6 +63,8 @@ def _parser() -> argparse.ArgumentParser:
     p = sub.add_parser("build", help="write the PDF build sheet and the SVG figures")
     p.add_argument("design", metavar="DESIGN")
     p.add_argument("-o", "--output", metavar="DIR", help="output folder (default: out/<name>/)")
+    p.add_argument("--card", action="store_true", help="also write the yard card <name>-card.pdf: one "
+                   "or two pages to take out to the antenna")
     _output_options(p, paper=True)
     p.set_defaults(run=_build)
 
@@ -84,6 +86,34 @@ def _parser() -> argparse.ArgumentParser:
                    help="date of the sweep stored with --write (default: the sweep file's date)")
     p.set_defaults(run=_fit)
 
+    p = sub.add_parser("start", help="write a new commented design file from a few answers (asks on a "
+                       "terminal for what the options do not give)")
+    p.add_argument("file", metavar="FILE", help="the new design file (never overwritten); its name "
+                   "gives the design's name")
+    p.add_argument("--band", metavar="BAND", help="amateur band such as '20 m' or '70 cm' (the design "
+                   "frequency is its middle)")
+    p.add_argument("--frequency", metavar="FREQ", help="design frequency, such as '14.2 MHz'")
+    p.add_argument("--line", metavar="NAME", help="stub line from the catalogue (default window-450)")
+    p.add_argument("--coax", metavar="NAME", help="feed coax from the catalogue (default RG-8X)")
+    p.add_argument("--orientation", choices=("horizontal", "sloper", "vertical"),
+                   help="how it is hung (default: horizontal below 30 MHz, vertical above)")
+    p.add_argument("--height", metavar="LEN", help="height of the stub's open top (vertical: of the "
+                   "short), with a unit")
+    p.add_argument("--units", choices=("imperial", "metric"), help="units of the sheet")
+    p.add_argument("--region", type=int, choices=(1, 2, 3), default=None, help="ITU region (default 2)")
+    p.add_argument("--title", metavar="TEXT", help="title printed on the sheet")
+    p.set_defaults(run=_start)
+
+    p = sub.add_parser("catalogue", help="list the wires, materials, lines, coax, grounds, tube and rod "
+                       "stock and bands the design files may name, with figures and sources")
+    from buildsheet.listing import KINDS as _LIST_KINDS
+    p.add_argument("sections", nargs="*", metavar="SECTION",
+                   help=f"what to list: {', '.join(_LIST_KINDS)} (default: all)")
+    p.add_argument("--region", type=int, choices=(1, 2, 3), default=2, help="ITU region of the bands")
+    p.add_argument("--units", choices=("imperial", "metric"), default="imperial",
+                   help="units of the sizes (default imperial)")
+    p.set_defaults(run=_catalogue)
+
     p = sub.add_parser("handout", help="one booklet of build sheets for several designs (a club handout)")
     p.add_argument("designs", nargs="+", metavar="DESIGN",
                    help="design files, or folders standing for the *.yaml designs in them")
@@ -97,8 +127,45 @@ def _parser() -> argparse.ArgumentParser:
                    help="paper of the whole booklet (default: the paper most of the designs ask for)")
     p.add_argument("--units", choices=("imperial", "metric"), help="override every design's output.units")
     p.add_argument("--quiet", action="store_true", help="no progress bar on a terminal")
+    p.add_argument("--cards", action="store_true", help="yard cards instead of full build sheets, "
+                   "with one shared safety page")
     p.set_defaults(run=_handout)
     return parser
+
+
+#: what `start` asks on a terminal for the answers its options did not give: (option, question)
+_QUESTIONS = (("band", "band, such as 20 m or 2 m (or leave empty and give a frequency)"),
+              ("frequency", "design frequency, such as 14.2 MHz"),
+              ("line", "stub line"), ("coax", "feed coax"),
+              ("orientation", "horizontal, sloper or vertical"),
+              ("height", "height of the stub's open top (vertical: of the short), such as 10 m"),
+              ("units", "imperial or metric"))
+
+
+def _start(args) -> int:
+    from buildsheet.catalog import catalog
+    from buildsheet.starter import Answers, design_text, slug, write_new
+
+    given = {key: getattr(args, key) for key, _ in _QUESTIONS}
+    if sys.stdin is not None and sys.stdin.isatty() and sys.stdout.isatty():
+        hints = {"line": ", ".join(catalog().names("stub_line")), "coax": ", ".join(catalog().names("coax"))}
+        for key, question in _QUESTIONS:
+            if given[key] or (key == "frequency" and given["band"]):
+                continue
+            hint = f" ({hints[key]})" if key in hints else ""
+            reply = input(f"{question}{hint} [default]: ").strip()
+            given[key] = reply or None
+    answers = Answers(name=slug(args.file), region=args.region or 2, title=args.title, **given)
+    write_new(args.file, design_text(answers))
+    print(f"{args.file}: new design '{answers.name}' written; next: buildsheet check {args.file}")
+    return 0
+
+
+def _catalogue(args) -> int:
+    from buildsheet.listing import listing
+
+    print(listing(tuple(args.sections), args.region, args.units), end="")
+    return 0
 
 
 def _handout(args) -> int:
@@ -117,9 +184,9 @@ def _handout(args) -> int:
         raise BuildsheetError("is one of the designs; the booklet would overwrite it", file=args.output)
     progress = Progress(sys.stderr, enabled=sys.stderr.isatty() and not args.quiet)
     try:
-        parts = prepare(designs, args.date,
+        parts = prepare(designs, args.date, cards=args.cards,
                         on_done=lambda n: progress.show("preparing sheets", n, len(designs)))
-        booklet = make_booklet(parts, title=title, event=event, paper=args.paper)
+        booklet = make_booklet(parts, title=title, event=event, paper=args.paper, cards=args.cards)
         pdf, pages = render_booklet(booklet,
                                     on_sheet=lambda i: progress.show("laying out sheets", i + 1, len(parts)))
     finally:
@@ -129,7 +196,8 @@ def _handout(args) -> int:
         write_atomic(args.output, pdf)      # nothing is written before the whole booklet is ready
     except OSError as exc:
         raise BuildsheetError(f"cannot write the handout: {exc.strerror or exc}", file=args.output) from None
-    print(f"{args.output}: {len(parts)} build sheets, {pages} pages, dated {booklet.date}")
+    what = "yard cards" if args.cards else "build sheets"
+    print(f"{args.output}: {len(parts)} {what}, {pages} pages, dated {booklet.date}")
     return 0
 
 
@@ -193,6 +261,10 @@ def _build(args) -> int:
     out = args.output or os.path.join("out", design.name)
     files = {os.path.join(out, f"{design.name}.pdf"): render_pdf(build_sheet(design, solution, date),
                                                                   drawings)}
+    if args.card:
+        from buildsheet.card import build_card
+        files[os.path.join(out, f"{design.name}-card.pdf")] = render_pdf(build_card(design, solution, date),
+                                                                         drawings)
     files.update({os.path.join(out, f"{design.name}-{key}.svg"): render_svg(drawing)
                   for key, drawing in drawings.items()})
     _not_the_design(files, args.design)
@@ -201,7 +273,8 @@ def _build(args) -> int:
         write_many_atomic(files)   # all or nothing: an interrupted build keeps the previous files
     except OSError as exc:
         raise BuildsheetError(f"cannot write the build sheet: {exc.strerror or exc}", file=out) from None
-    print(f"{out}: {design.name}.pdf and {len(drawings)} SVG figures, document {solution.design_id}, "
+    card = f", {design.name}-card.pdf" if args.card else ""
+    print(f"{out}: {design.name}.pdf{card} and {len(drawings)} SVG figures, document {solution.design_id}, "
           f"revised {date}")
     return 0
 

@@ -156,14 +156,19 @@ def check_text(option: str, text: str | None) -> str:
 # ----------------------------------------------------------------------------------------------
 # Preparing the designs
 
-def prepare_one(index: int, design: Design, date: str | None) -> Part:
-    """Solve design number `index` (from 0) of the booklet and lay out its figures and sheet, dated
-    `date` (YYYY-MM-DD) or by its own revision date."""
+def prepare_one(index: int, design: Design, date: str | None, cards: bool = False) -> Part:
+    """Solve design number `index` (from 0) of the booklet and lay out its figures and sheet (its
+    yard card with `cards`), dated `date` (YYYY-MM-DD) or by its own revision date."""
     day = revision_date(design.path, date)
     solution = solve(design)
     key = f"sheet-{index + 1}"
     band = design.band_name or f"{_mhz(design.band_hz[0])} to {_mhz(design.band_hz[1])}"
-    return Part(key=key, sheet=build_sheet(design, solution, day),
+    if cards:
+        from buildsheet.card import build_card
+        sheet = build_card(design, solution, day, safety_where="the handout's safety page")
+    else:
+        sheet = build_sheet(design, solution, day)
+    return Part(key=key, sheet=sheet,
                 drawings=figures(design, solution, day), band=band, frequency_hz=design.frequency_hz,
                 v_peak_v=max(solution.voltage_open_end_v_peak, solution.voltage_far_end_v_peak),
                 power_w=design.power.transmitter_w,
@@ -206,7 +211,7 @@ def _die_with_parent() -> None:
 
 
 def prepare(designs: Sequence[Design], date: str | None = None, *, jobs: int | None = None,
-            on_done: Callable[[int], None] | None = None) -> list[Part]:
+            on_done: Callable[[int], None] | None = None, cards: bool = False) -> list[Part]:
     """Every design prepared (prepare_one), in order, across at most `jobs` worker processes
     (default and most: os.cpu_count()); in this process when one would do. `on_done(n)` is told
     how many are ready. The first design that fails stops the rest; of those that failed by then,
@@ -216,7 +221,7 @@ def prepare(designs: Sequence[Design], date: str | None = None, *, jobs: int | N
         parts = []
         for i, design in enumerate(designs):
             try:
-                parts.append(prepare_one(i, design, date))
+                parts.append(prepare_one(i, design, date, cards))
             except Exception as exc:
                 _fail(design, exc)
             if on_done:
@@ -225,7 +230,7 @@ def prepare(designs: Sequence[Design], date: str | None = None, *, jobs: int | N
     from concurrent.futures import FIRST_COMPLETED, ProcessPoolExecutor, wait
 
     with ProcessPoolExecutor(max_workers=jobs, initializer=_ignore_interrupt) as pool:
-        futures = [pool.submit(prepare_one, i, d, date) for i, d in enumerate(designs)]
+        futures = [pool.submit(prepare_one, i, d, date, cards) for i, d in enumerate(designs)]
         try:
             pending = set(futures)
             while pending:
@@ -256,10 +261,11 @@ def _fail(design: Design, exc: Exception) -> None:
 # The booklet
 
 def make_booklet(parts: Sequence[Part], *, title: str = "", event: str = "",
-                 paper: str | None = None) -> Booklet:
+                 paper: str | None = None, cards: bool = False) -> Booklet:
     """The booklet of the prepared designs, in order. paper: letter | a4, default the paper most of
     the designs ask for (the first of them on a tie); every sheet is set on it. The booklet is dated
-    by the latest of its sheets' dates."""
+    by the latest of its sheets' dates. cards: the parts are yard cards (card.py): the front is the
+    shared safety page and the summary (whose page column serves as the contents)."""
     if not parts:
         raise BuildsheetError("a handout needs at least one design")
     title = title or DEFAULT_TITLE
@@ -269,19 +275,23 @@ def make_booklet(parts: Sequence[Part], *, title: str = "", event: str = "",
         paper = max(dict.fromkeys(papers), key=papers.count)    # max keeps the first of equals
     parts = [dataclasses.replace(p, sheet=dataclasses.replace(p.sheet, paper=paper)) for p in parts]
     n = len(parts)
-    sheets = f"{n} build sheet{'s' if n != 1 else ''}"
+    sheets = f"{n} {'yard card' if cards else 'build sheet'}{'s' if n != 1 else ''}"
+    front = (Section("safety", "Safety first", _safety(parts)),
+             Section("contents", "Contents", (_contents(parts),)),
+             Section("summary", "Summary of the designs", _summary(parts)))
+    if cards:
+        front = (front[0], front[2])
     return Booklet(
         title=title, event=event, date=date, paper=paper,
-        subtitle="Club handout: build sheets for end-fed half-wave antennas",
+        subtitle=("Club handout: yard cards for end-fed half-wave antennas" if cards else
+                  "Club handout: build sheets for end-fed half-wave antennas"),
         furniture=(event or "club handout", sheets, f"dated {date}"),
         page_label="page {page} of {pages}",
         footer="Caution: high RF voltage at the stub's open end and the radiator's far end. Never touch "
                "an antenna while transmitting; keep it clear of power lines. Read the safety page first.",
         subject=f"{title}: {sheets}" + (f", {event}" if event else "") + f", dated {date}",
-        cover=_cover(parts, title, event, date),
-        front=(Section("safety", "Safety first", _safety(parts)),
-               Section("contents", "Contents", (_contents(parts),)),
-               Section("summary", "Summary of the designs", _summary(parts))),
+        cover=_cover(parts, title, event, date, cards),
+        front=front,
         sheets=tuple(parts),
     )
 
@@ -305,13 +315,15 @@ def _bands(parts: Sequence[Part]) -> str:
     return names[0] if len(names) == 1 else ", ".join(names[:-1]) + " and " + names[-1]
 
 
-def _cover(parts: Sequence[Part], title: str, event: str, date: str) -> Cover:
+def _cover(parts: Sequence[Part], title: str, event: str, date: str, cards: bool = False) -> Cover:
     n = len(parts)
+    what = ("one yard card each (the full build sheets are the record copies)" if cards else
+            "one build sheet each")
     return Cover(
         title=_e(title), event=_e(event), date=_e(date),
         facts=(("bands", _e(_bands(parts))),
                ("designs", _e(f"{n} end-fed half-wave antenna{'s' if n != 1 else ''}, each matched by a "
-                              "shorted quarter-wave stub, one build sheet each")),
+                              f"shorted quarter-wave stub, {what}")),
                ("document IDs", _e("each sheet's title block carries the document ID of its design "
                                    "file; check that they match before you build"))),
         note="<b>Read the safety page before you build or put up any of these antennas.</b> Local "
@@ -353,7 +365,7 @@ def _line(design: Design, u: str) -> str:
     if stub.name != "custom":
         return stub.name
     if stub.kind == "geometry":
-        return f"two-wire, {_nb(units.format_length(stub.spacing_m, u))} spacing, {stub.dielectric}"
+        return f"two-wire, {_nb(units.format_length(stub.spacing_m, u, 'size'))} spacing, {stub.dielectric}"
     return f"two-wire, {_nb(units.format_impedance(stub.z0_ohm))} as measured"
 
 

@@ -33,7 +33,9 @@ from markupsafe import escape
 from buildsheet import units
 from buildsheet.catalog import national_bands
 from buildsheet.design import Design
+from buildsheet.layout import describe, site_layout
 from buildsheet.solver import RIGID_DIAMETER_M, Solution, velocity_factor_text
+from buildsheet.stock import conductor_size
 
 #: the measurement log's columns: what the builder writes by hand
 LOG_COLUMNS = ("#", "frequency", "SWR", "R (Ω)", "X (Ω)", "what was changed")
@@ -367,8 +369,12 @@ class _Context:
         self.s = solution
         self.u = design.output.units
 
-    def length(self, m: float) -> str:
-        return _nb(units.format_length(m, self.u))
+    def length(self, m: float, coarse: bool = False) -> str:
+        return _nb(units.format_length(m, self.u, "coarse" if coarse else "fine"))
+
+    def size(self, m: float) -> str:
+        """A diameter or spacing: finer than a length (units.format_length's "size" step)."""
+        return _nb(units.format_length(m, self.u, "size"))
 
     def distance(self, m: float) -> str:
         return _nb(units.format_distance(m, self.u))
@@ -404,7 +410,7 @@ class _Context:
                           "open top (the junction) to the centre line of the short"),
                 KeyFigure("tap", _e(self.length(dims.tap)),
                           "centre line of the short to the tap, measured along the stub"),
-                KeyFigure("spacing", _e(self.length(dims.spacing)),
+                KeyFigure("spacing", _e(self.size(dims.spacing)),
                           "centre to centre of the stub conductors"),
             )),
             Para(_e(f"Dimensions as built, {rounding}; the pieces are cut longer (see the cut list)."
@@ -455,12 +461,15 @@ class _Context:
         if st.name != "custom":
             return st.name
         if st.kind == "geometry":
-            return (f"two-wire line, {self.length(st.spacing_m)} spacing, "
-                    f"{self.length(st.conductor_diameter_m)} conductors in {st.dielectric}")
+            return (f"two-wire line, {self.size(st.spacing_m)} spacing, "
+                    f"{self.size(st.conductor_diameter_m)} conductors in {st.dielectric}")
         return "two-wire line as measured"
 
     def radiator_text(self) -> str:
         r = self.d.radiator
+        if r.diameter_m >= RIGID_DIAMETER_M and r.insulation == "bare":
+            size = conductor_size(r.diameter_m, self.u, r.material)
+            return f"{size}, bare" if r.material in size else f"{size}, {r.material}, bare"
         if r.insulation == "bare":
             return f"{r.label} {r.material}, bare"
         spread = (f"; sources {velocity_factor_text(*r.velocity_factor_spread)}"
@@ -487,6 +496,12 @@ class _Context:
                     f"stub's open top {h} above {self.ground()}")
         return f"vertical; the short {h} above {self.ground()}, the stub and radiator standing above it"
 
+    def layout(self):
+        """The site layout of a horizontal or sloper (layout.site_layout), None for a vertical."""
+        site = self.d.site
+        return site_layout(site.orientation, site.height_m, site.slope_rad, self.s.dimensions.radiator,
+                           self.d.wavelength_m)
+
     def top_height(self) -> float:
         site, dims = self.d.site, self.s.dimensions
         if site.orientation == "vertical":
@@ -495,25 +510,28 @@ class _Context:
 
     # -- 4. cut list and hardware ------------------------------------------------------------
     def cut_list(self) -> tuple:
-        cut_rows = tuple((_e(i.part), str(i.quantity), _e(self.length(i.length_m)),
-                          _e(self.length(i.allowance_m)) if i.allowance_m > 0 else "none",
-                          _e(i.material), _e(self.cut_note(i))) for i in self.s.cut_list)
-        hardware_rows = tuple((str(h.quantity), _e(h.item), _e(h.note)) for h in self.s.hardware)
+        cut_rows = tuple((_e(i.part), str(i.quantity), _e(self.length(i.length_m, i.coarse)),
+                          _e(self.length(i.allowance_m, i.coarse)) if i.allowance_m > 0 else "none",
+                          _e(self.cut_material(i)), _e(self.cut_note(i))) for i in self.s.cut_list)
+        hardware_rows = tuple((str(h.quantity), _e(h.item), _e(self.hardware_note(h))) for h in self.s.hardware)
         d, s = self.d, self.s
         return (
             Facts((
                 ("hung", _e(self.hung())),
+                *((("site", _e(describe(site, lambda m: self.length(m, coarse=True)))),)
+                  if (site := self.layout()) else ()),
                 ("radiator", _e(self.radiator_text())),
                 ("stub line", _e(f"{self.line_name()}: {_ohm(s.stub_line.z0_ohm)}, "
                                  f"velocity factor {s.stub_line.velocity_factor:.3f}" +
                                  (f" (sources {velocity_factor_text(*d.stub.velocity_factor_spread)})"
                                   if d.stub.velocity_factor_spread is not None else ""))),
-                ("feed", _e(f"{d.feed.coax}, {self.length(d.feed.length_m)} from the tap to the "
+                ("feed", _e(f"{d.feed.coax}, {self.length(d.feed.length_m, coarse=True)} from the tap to the "
                             "station, choked at the tap")),
                 ("power", _e(f"{self.pep}, {MODE_NAMES.get(d.power.mode, d.power.mode)}")),
             )),
-            Para(_e(f"Cut lengths include the allowances ({units.length_rounding(self.u)}). Tick a box "
-                    "for each piece as it is cut."), "note"),
+            Para(_e(f"Cut lengths include the allowances ({units.length_rounding(self.u)}; coax and rope "
+                    f"{units.length_rounding(self.u, 'coarse')}). Tick a box for each piece as it is "
+                    "cut."), "note"),
             Table(header=("part", "qty", "cut length", "of which allowance", "material", "note"),
                   rows=cut_rows, widths=(1.1, 0.45, 1.0, 0.95, 1.7, 2.8),
                   align=("left", "right", "right", "right", "left", "left"),
@@ -522,6 +540,32 @@ class _Context:
             Table(header=("qty", "item", "note"), rows=hardware_rows, widths=(0.45, 2.6, 4.9),
                   align=("right", "left", "left"), boxes=(1,) * len(hardware_rows)),
         )
+
+    def hardware_note(self, item) -> str:
+        """A hardware item's note, with the stock size it must fit where its size matters."""
+        if item.fits_m is None:
+            return item.note
+        material = self.d.stub.conductor_material
+        return f"{item.note}; to fit {conductor_size(item.fits_m, self.u, material)}"
+
+    def cut_material(self, item) -> str:
+        """What a piece is cut from; a pipe or rod radiator given by its diameter is named by the
+        stock size a shop sells (stock.py) rather than by the bare diameter."""
+        r = self.d.radiator
+        label = r.label.lower()
+        if (item.part == "radiator" and r.diameter_m >= RIGID_DIAMETER_M and "awg" not in label
+                and not label.startswith("#") and r.insulation == "bare"):
+            size = conductor_size(r.diameter_m, self.u, r.material)
+            return size if r.material in size else f"{size}, {r.material}"
+        return item.material
+
+    def cut_list_margin(self) -> str:
+        """One sentence on the pieces cut long for tuning (solver.FirstCut), or ''."""
+        fc = self.s.first_cut
+        long = [f"the {what} by {self.length(m)}" for what, m in (("stub line", fc.stub_margin_m),
+                                                                 ("radiator", fc.radiator_margin_m))
+                if self.shown(m)]
+        return f"Cut long for tuning (included): {' and '.join(long)}. " if long else ""
 
     def cut_note(self, item) -> str:
         """A cut item's note, with its tuning margin (solver.FirstCut) where it has one."""

@@ -13,6 +13,7 @@ import numpy as np
 
 from buildsheet.design import Design
 from buildsheet.errors import BuildsheetError, DesignError
+from buildsheet.layout import TIE_OFF_M, site_layout
 from buildsheet.physics import choke as choke_physics
 from buildsheet.physics import exposure as exposure_physics
 from buildsheet.physics import jpole
@@ -62,6 +63,7 @@ class CutItem:
     allowance_m: float
     note: str
     margin_m: float = 0.0
+    coarse: bool = False      # cut roughly to length (coax, rope): printed to the inch or the cm
 
 
 @dataclass(frozen=True)
@@ -92,9 +94,12 @@ class FirstCut:
 
 @dataclass(frozen=True)
 class HardwareItem:
+    """Something to buy; fits_m: the diameter (m) of the conductor it must fit, where that sets its
+    size (the sheet names the stock size), else None."""
     item: str
     quantity: int
     note: str
+    fits_m: float | None = None
 
 
 @dataclass(frozen=True)
@@ -625,6 +630,10 @@ def _cut_list(design: Design, d: Dimensions, wrap: float, ch, first: FirstCut,
     lam = design.wavelength_m
     beyond_short = 0.02 if rigid_stub else min(0.10, 0.01 * lam)
     junction = 0.0 if rigid_stub else wrap
+    # a wire short bar is wrapped three turns round each conductor and soldered (common practice), so
+    # its allowance follows the conductors' size, not the radiator's wrap
+    conductor = design.stub.conductor_diameter_m
+    bar_ends = 0.02 if rigid_stub else 2 * (3 * math.pi * 2 * conductor + 0.01)
     line_name = design.stub.name if design.stub.name != "custom" else (
         "two-wire line by geometry" if design.stub.kind == "geometry" else "two-wire line as measured")
     coil_coax = 0.0 if sleeve is not None else ch.turns * math.pi * ch.mean_diameter_m
@@ -642,13 +651,12 @@ def _cut_list(design: Design, d: Dimensions, wrap: float, ch, first: FirstCut,
                 "includes the length below the short" +
                 (" and the wrap at the open top" if junction else ""), margin_m=m_stub),
         CutItem("short bar", "bare copper wire" if not rigid_stub else design.stub.conductor_material + " bar",
-                d.spacing + (2 * wrap if not rigid_stub else 0.02), 1, 2 * wrap if not rigid_stub else 0.02,
-                "across the stub at the short, soldered or clamped"),
+                d.spacing + bar_ends, 1, bar_ends, "across the stub at the short, soldered or clamped"),
         CutItem("tap leads", "insulated stranded wire", d.spacing / 2 + (0.05 if lam > 3 else 0.02), 2,
                 0.05 if lam > 3 else 0.02, "coax centre to the radiator-side conductor, braid to the other"),
         CutItem("feed coax", design.feed.coax, coax_total, 1, coil_coax + pigtail,
                 "run to the station, plus the choke turns and a pigtail at the tap" if sleeve is None
-                else "run to the station, plus a pigtail at the tap"),
+                else "run to the station, plus a pigtail at the tap", coarse=True),
     ]
     if sleeve is None:
         items.append(CutItem("choke form", "pipe of the choke form's outside diameter",
@@ -660,13 +668,14 @@ def _cut_list(design: Design, d: Dimensions, wrap: float, ch, first: FirstCut,
                              sleeve.length_m + trim, 1, trim,
                              "slides over the feed coax at the tap; cut long, trim the open end to "
                              "resonance"))
-    if design.site.orientation != "vertical":
-        rope = max(10.0, design.site.height_m * 2.5)
-        items.append(CutItem("support rope", "UV-resistant polyester rope", rope, 2, 0.0,
-                             "one at the far end insulator, one at the stub's open top (common practice: "
-                             "well over twice the height)"))
+    site = site_layout(design.site.orientation, design.site.height_m, design.site.slope_rad, d.radiator,
+                       lam)
+    for rope in site.ropes if site else ():
+        items.append(CutItem(rope.what, "UV-resistant polyester rope", rope.length_m, 1, TIE_OFF_M,
+                             rope.note + " (common practice)", coarse=True))
     hardware = [
-        HardwareItem("tap clamps", 2, "hose clamps or split-bolt clamps that can slide along the stub"),
+        HardwareItem("tap clamps", 2, "hose clamps or split-bolt clamps that can slide along the stub",
+                     fits_m=design.stub.conductor_diameter_m if rigid_stub else None),
         HardwareItem(f"coax connector, {_connector(design)}", 2,
                      f"for {design.feed.coax}: one at the station, one at the choke"),
         HardwareItem("self-amalgamating tape", 1, "roll, to weatherproof the tap and the connectors"),
@@ -689,5 +698,6 @@ def _cut_list(design: Design, d: Dimensions, wrap: float, ch, first: FirstCut,
         spreaders = int(math.ceil(d.stub / 0.30)) + 1
         hardware.append(HardwareItem("line spreaders", spreaders, "about every 30 cm along the stub"))
     if rigid_stub:
-        hardware.append(HardwareItem("pipe tees or elbows for the short", 2, "or a drilled bar and bolts"))
+        hardware.append(HardwareItem("pipe tees or elbows for the short", 2, "or a drilled bar and bolts",
+                                     fits_m=design.stub.conductor_diameter_m))
     return tuple(items), tuple(hardware)

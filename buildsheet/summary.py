@@ -5,7 +5,9 @@ from __future__ import annotations
 
 from buildsheet import units
 from buildsheet.design import Design
+from buildsheet.layout import describe, site_layout
 from buildsheet.solver import Solution
+from buildsheet.stock import conductor_size
 
 
 def _band(edges, fmt=units.format_frequency) -> str:
@@ -42,12 +44,13 @@ def summary_text(design: Design, s: Solution) -> str:
     add(f"  radiator   {L(d.radiator):>14}   attachment point to attachment point")
     add(f"  stub       {L(d.stub):>14}   open top to the centre of the short")
     add(f"  tap        {L(d.tap):>14}   centre of the short to the tap")
-    add(f"  spacing    {L(d.spacing):>14}   centre to centre of the stub conductors")
+    add(f"  spacing    {units.format_length(d.spacing, u, 'size'):>14}   centre to centre of the stub conductors")
     add("")
     add("Cut list")
     for item in s.cut_list:
         qty = f"{item.quantity} x" if item.quantity > 1 else ""
-        add(f"  [ ] {item.part:<12} {qty:>3} {L(item.length_m):>12}  {item.material}; {item.note}")
+        length = units.format_length(item.length_m, u, "coarse" if item.coarse else "fine")
+        add(f"  [ ] {item.part:<14} {qty:>3} {length:>12}  {item.material}; {item.note}")
     fc = s.first_cut
     margins = [(what, m, span) for what, m, span in (("stub line", fc.stub_margin_m, fc.stub_m),
                                                      ("radiator", fc.radiator_margin_m, fc.radiator_m))
@@ -62,9 +65,15 @@ def summary_text(design: Design, s: Solution) -> str:
         then = " and ".join(parts[what][1] for what, _, _ in margins)
         add("  Why: the velocity factor of dielectric line and jacketed wire is only known to the spread "
             f"between its sources; start with {start}, then {then} as the tuning table says.")
+    site = site_layout(design.site.orientation, design.site.height_m, design.site.slope_rad,
+                       s.dimensions.radiator, design.wavelength_m)
+    if site is not None:
+        add("  Site: " + describe(site, lambda m: units.format_length(m, u, "coarse")))
     add("Hardware")
     for h in s.hardware:
-        add(f"  [ ] {h.quantity:>3} x {h.item}: {h.note}")
+        fits = (f"; to fit {conductor_size(h.fits_m, u, design.stub.conductor_material)}"
+                if h.fits_m is not None else "")
+        add(f"  [ ] {h.quantity:>3} x {h.item}: {h.note}{fits}")
     add("")
     add("Predicted performance")
     add(f"  feed impedance at {units.format_frequency(s.frequency_hz)}: "

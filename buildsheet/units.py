@@ -37,7 +37,6 @@ from buildsheet.errors import UnitError
 
 INCH_M = 0.0254
 FOOT_M = 0.3048
-EIGHTHS_PER_FOOT = 96
 
 #: canonical unit -> (kind, factor to SI). AWG is listed only so that "14 AWG" given where a
 #: length is expected is named as a gauge; parse_wire reads gauges.
@@ -278,37 +277,73 @@ def _check_units(units: str) -> None:
         raise UnitError(f"units must be 'imperial' or 'metric', got '{units}'")
 
 
-def length_rounding(units: str) -> str:
-    """How format_length rounds, for the sheet's notes: "to the nearest 1/8 in" or "to the nearest mm"."""
+#: how finely a length is written (format_length's `step`): "fine" for what is cut and set to the
+#: tape (radiator, stub, tap, short: 1/8 in or 1 mm), "coarse" for what is only cut roughly to
+#: length (coax, rope: the inch or the centimetre), "size" for small hardware dimensions
+#: (diameters, spacings: 1/32 in under 2 in, 0.1 mm under 10 mm)
+STEPS = ("fine", "coarse", "size")
+
+
+def length_rounding(units: str, step: str = "fine") -> str:
+    """How format_length rounds, for the sheet's notes: "to the nearest 1/8 in" or "to the nearest mm"
+    (step "fine"), "to the nearest inch" or "to the nearest cm" (step "coarse")."""
     _check_units(units)
+    if step == "coarse":
+        return "to the nearest inch" if units == "imperial" else "to the nearest cm"
     return "to the nearest 1/8 in" if units == "imperial" else "to the nearest mm"
 
 
-def format_length(m: float, units: str) -> str:
+def _inches_text(parts: int, per_inch: int) -> str:
+    """Whole inches and a reduced fraction from a count of 1/per_inch inch: "4-3/8", "3/4", "12"."""
+    inches, frac = divmod(parts, per_inch)
+    if not frac:
+        return str(inches)
+    g = math.gcd(frac, per_inch)
+    frac_text = f"{frac // g}/{per_inch // g}"
+    return f"{inches}-{frac_text}" if inches else frac_text
+
+
+def format_length(m: float, units: str, step: str = "fine") -> str:
     """A length in m for a builder's tape.
 
-    imperial: nearest 1/8 in with reduced fractions, ASCII: 16' 4-3/8", 4-1/2" under a foot, 33' 0"
-    for whole feet, a leading '-' when negative. metric: nearest mm, "4.872 m" from 1 m up, "434 mm"
-    below 1 m, "6.1 mm" (0.1 mm) below 10 mm.
+    step "fine" (what is cut and set exactly). imperial: nearest 1/8 in with reduced fractions,
+    ASCII: 16' 4-3/8", 4-1/2" under a foot, 33' 0" for whole feet, 1' 0-3/4" (never 1' 3/4", which
+    reads like 1-3/4"), a leading '-' when negative. metric: nearest mm, "4.872 m" from 1 m up,
+    "434 mm" below 1 m, "6.1 mm" (0.1 mm) below 10 mm.
+    step "coarse" (coax, rope): imperial to the inch, 82' 3"; metric to the cm, "25.00 m", "43 cm".
+    step "size" (diameters, spacings): imperial to 0.001 in below 1/4 in ("0.040\"", as wire and
+    small rod are measured), to 1/32 in below 2 in, else as "fine"; metric to 0.1 mm below 100 mm
+    ("15.9 mm", "22 mm"), else as "fine".
     """
     _check_units(units)
+    if step not in STEPS:
+        raise ValueError(f"unknown length step {step!r}; expected one of {STEPS}")
     if not math.isfinite(m):
         raise ValueError(f"cannot format a length of {m}")
     if units == "imperial":
-        eighths = math.floor(abs(m) / INCH_M * 8 + 0.5)
-        sign = "-" if m < 0 and eighths else ""
-        feet, rest = divmod(eighths, EIGHTHS_PER_FOOT)
-        inches, frac = divmod(rest, 8)
-        if frac:
-            g = math.gcd(frac, 8)
-            frac_text = f"{frac // g}/{8 // g}"
-            inch_text = f"{inches}-{frac_text}" if inches else frac_text
-        else:
-            inch_text = str(inches)
+        if step == "size" and abs(m) < INCH_M / 4:
+            # wire and thin conductors are measured in thousandths (a 1/32 step is 20 % of 18 AWG)
+            thou = math.floor(abs(m) / INCH_M * 1000 + 0.5)
+            return f"{'-' if m < 0 and thou else ''}{thou / 1000:.3f}\""
+        per_inch = 1 if step == "coarse" else 32 if step == "size" and abs(m) < 2 * INCH_M else 8
+        parts = math.floor(abs(m) / INCH_M * per_inch + 0.5)
+        sign = "-" if m < 0 and parts else ""
+        feet, rest = divmod(parts, 12 * per_inch)
+        inch_text = _inches_text(rest, per_inch)
+        if feet and rest < per_inch and rest:
+            inch_text = "0-" + inch_text      # 1' 0-3/4": the zero keeps the fraction with the inches
         return f"{sign}{feet}' {inch_text}\"" if feet else f"{sign}{inch_text}\""
     mm = abs(m) * 1000.0
     sign = "-" if m < 0 else ""
+    if step == "coarse":
+        cm = math.floor(mm / 10 + 0.5)
+        if cm < 100:
+            return f"{sign if cm else ''}{cm} cm"
+        return f"{sign}{cm / 100:.2f} m"
     tenths = math.floor(mm * 10 + 0.5)
+    if step == "size" and tenths < 1000:
+        text = f"{tenths / 10:.1f}".removesuffix(".0")
+        return f"{sign if tenths else ''}{text} mm"
     if tenths < 100:
         return f"{sign if tenths else ''}{tenths / 10:.1f} mm"
     whole_mm = math.floor(mm + 0.5)

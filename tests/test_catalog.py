@@ -85,7 +85,7 @@ def test_lookup_forgives_case_and_separators(kind, written, name):
     ("stub_line", "windw-450", "unknown stub line 'windw-450'; did you mean 'window-450'?"),
     ("coax", "RG-213U", "unknown coax 'RG-213U'; did you mean 'RG-213'?"),
     ("ground", "averge", "did you mean 'average'?"),
-    ("coax", "LMR-9000-xyz", "unknown coax 'LMR-9000-xyz' (known: RG-58, RG-8X, RG-213)"),
+    ("coax", "LMR-9000-xyz", "unknown coax 'LMR-9000-xyz' (known: RG-58, RG-8X, RG-213, foam-400, RG-6)"),
     ("coax", 213, "unknown coax '213'"),
 ])
 def test_unknown_names_say_what_was_meant(kind, written, message):
@@ -260,7 +260,7 @@ def test_coax_loss_law_least_squares_with_more_points():
 def test_coax_data():
     c = catalog()
     for name in c.names("coax"):
-        assert c.coax(name).z0_ohm == 50.0
+        assert c.coax(name).z0_ohm == (75.0 if name == "RG-6" else 50.0)
     # CHECK_VALUES §7: solid PE 0.66 [S]; RG-8X 0.78-0.82 [M]
     assert c.coax("RG-58").velocity_factor == c.coax("RG-213").velocity_factor == 0.66
     assert 0.78 <= c.coax("RG-8X").velocity_factor <= 0.82

@@ -30,6 +30,7 @@ from hypothesis import strategies as st
 from reportlab.pdfgen.canvas import Canvas
 
 from buildsheet import fonts, units
+from buildsheet.catalog import catalog
 from buildsheet.design import design_from_text, load_design
 from buildsheet.drawing import plots
 from buildsheet.drawing.figures import (DETAIL_SCALE_RANGE, FIGURES, SMITH_WIDTH, SWR_HEIGHT, WIDTH,
@@ -37,6 +38,7 @@ from buildsheet.drawing.figures import (DETAIL_SCALE_RANGE, FIGURES, SMITH_WIDTH
 from buildsheet.drawing.shapes import (Arc, Box, BreakMark, Circle, Dimension, Line, Polyline, Text,
                                        clip_segment)
 from buildsheet.errors import DesignError
+from buildsheet.layout import TIE_OFF_M, site_layout
 from buildsheet.solver import solve
 from buildsheet.writers.pdf_shapes import draw_on_canvas
 from buildsheet.writers.svg import render_svg
@@ -69,9 +71,14 @@ def demo_figures(path: pathlib.Path, system: str):
 
 # ---------------------------------------------------------------- reading lengths back
 
-_IMPERIAL = re.compile(r"(?:(?P<ft>\d+)' )?(?:(?P<inch>\d+)(?:-(?P<n1>\d+)/(?P<d1>\d+))?"
+_IMPERIAL = re.compile(r"(?P<dec>\d+\.\d+)\"|(?:(?P<ft>\d+)' )?(?:(?P<inch>\d+)(?:-(?P<n1>\d+)/(?P<d1>\d+))?"
                        r"|(?P<n2>\d+)/(?P<d2>\d+))\"")
-_METRIC = re.compile(r"(?P<m>\d+\.\d{3}) m(?![A-Za-z])|(?P<mm>\d+(?:\.\d)?) mm(?![A-Za-z])")
+_METRIC = re.compile(r"(?P<m>\d+\.\d{2,3}) m(?![A-Za-z])|(?P<mm>\d+(?:\.\d)?) mm(?![A-Za-z])"
+                     r"|(?P<cm>\d+) cm(?![A-Za-z])")
+#: half the rounding step of each units.format_length step, m (the size step's finest: 1/64 in)
+HALF_STEP = {("imperial", "fine"): INCH / 16, ("imperial", "coarse"): INCH / 2,
+             ("imperial", "size"): INCH / 16, ("metric", "fine"): 0.0005, ("metric", "coarse"): 0.005,
+             ("metric", "size"): 0.0005}
 
 
 def lengths_in(text: str, system: str) -> list[tuple[str, float, float]]:
@@ -79,7 +86,7 @@ def lengths_in(text: str, system: str) -> list[tuple[str, float, float]]:
     out = []
     if system == "imperial":
         for m in _IMPERIAL.finditer(text):
-            inches = float(m["inch"] or 0)
+            inches = float(m["dec"] or m["inch"] or 0)
             if m["n1"]:
                 inches += int(m["n1"]) / int(m["d1"])
             if m["n2"]:
@@ -87,8 +94,10 @@ def lengths_in(text: str, system: str) -> list[tuple[str, float, float]]:
             out.append((m[0], int(m["ft"] or 0) * FOOT + inches * INCH, INCH / 16))
     else:
         for m in _METRIC.finditer(text):
-            if m["m"]:
-                out.append((m[0], float(m["m"]), 0.0005))
+            if m["cm"]:
+                out.append((m[0], float(m["cm"]) / 100, 0.005))
+            elif m["m"]:
+                out.append((m[0], float(m["m"]), 0.0005 if len(m["m"].split(".")[1]) == 3 else 0.005))
             else:
                 half = 0.00005 if "." in m["mm"] else 0.0005
                 out.append((m[0], float(m["mm"]) / 1000, half))
@@ -109,6 +118,19 @@ def svg_texts(drawing) -> list[str]:
     return [el.text for el in root.iter(f"{SVG}text")]
 
 
+#: lengths not cut to the tape: coax and rope to the inch or cm, diameters and spacings finer
+#: (units.format_length's steps; issue 18)
+COARSE = ("coax", "rope", "span", "far end height", "far end out", "anchor", "anchor rope")
+SIZE = ("spacing", "wire")
+
+
+STOCK_NAMES = sorted((s.name for s in catalog().stock), key=len, reverse=True)
+
+
+def step_of(name: str) -> str:
+    return "coarse" if name in COARSE else "size" if name in SIZE else "fine"
+
+
 def expected_lengths(design, solution) -> dict[str, dict[str, float]]:
     """Per figure, the lengths it must print (name on the drawing -> value in m)."""
     d, c = solution.dimensions, solution.choke
@@ -119,11 +141,21 @@ def expected_lengths(design, solution) -> dict[str, dict[str, float]]:
     if solution.first_cut.radiator_margin_m > 0:  # the radiator is cut long by its tuning margin
         radiator["tuning margin"] = solution.first_cut.radiator_margin_m
     label = design.radiator.label.lower()
-    if "awg" not in label and not label.startswith("#"):
-        radiator["wire"] = design.radiator.diameter_m
+    stock = catalog().stock_size(design.radiator.diameter_m, design.output.units, design.radiator.material)
+    if "awg" not in label and not label.startswith("#") and not (stock and stock.kind == "rod"):
+        radiator["wire"] = design.radiator.diameter_m      # a rod of a stock size is named only
+    overview = {"radiator": d.radiator, "stub": d.stub, "tap": d.tap,
+                "height": design.site.height_m, "coax": design.feed.length_m}
+    site = site_layout(design.site.orientation, design.site.height_m, design.site.slope_rad, d.radiator,
+                       design.wavelength_m)
+    if site is not None and site.orientation == "horizontal":
+        overview.update({"rope": site.standoff_m, "span": site.span_m})
+    elif site is not None:
+        overview.update({"rope": site.standoff_m, "far end height": site.far_end_height_m,
+                         "far end out": site.far_end_distance_m, "anchor": site.anchor_distance_m,
+                         "anchor rope": site.ropes[1].length_m - TIE_OFF_M})
     return {
-        "overview": {"radiator": d.radiator, "stub": d.stub, "tap": d.tap,
-                     "height": design.site.height_m, "coax": design.feed.length_m},
+        "overview": overview,
         "radiator": radiator,
         "stub": {"stub": d.stub, "tap": d.tap, "spacing": d.spacing},
         "short-tap": {"tap": d.tap, "spacing": d.spacing},
@@ -146,21 +178,26 @@ _NAMED = re.compile(r"^(radiator|stub|tap|height|spacing|cut length|wrap|allowan
 def check_printed_lengths(design, solution, drawings) -> None:
     system = design.output.units
     for key, expected in expected_lengths(design, solution).items():
-        texts = svg_texts(drawings[key])
+        # the design's title is the user's text ("70 cm rod vertical"), not a printed length
+        # and a stock size's name ("6 mm rod") is a name, printed beside the diameter
+        texts = [functools.reduce(lambda t, name: t.replace(name, ""), STOCK_NAMES, t)
+                 for t in svg_texts(drawings[key]) if t not in design.title]
         printed = [t for text in texts for t in lengths_in(text, system)]
-        wanted = {units.format_length(v, system) for v in expected.values()}
+        steps = {name: step_of(name) for name in expected}
+        wanted = {units.format_length(v, system, steps[n]) for n, v in expected.items()}
         assert {p for p, _, _ in printed} == wanted, f"{key}: lengths printed differ from the Solution"
-        for shown, value, half in printed:
-            assert any(abs(value - v) <= half + 1e-9 for v in expected.values()), (key, shown)
+        for shown, value, _ in printed:
+            assert any(abs(value - v) <= HALF_STEP[system, steps[n]] + 1e-9
+                       for n, v in expected.items()), (key, shown)
         named = {}
         for text in texts:
             m = _NAMED.match(text)
             if m and [p for p, _, _ in lengths_in(m[2], system)] == [m[2]]:
                 named.setdefault(m[1], set()).add(m[2])
         for name, values in named.items():
-            assert values == {units.format_length(expected[name], system)}, (key, name, values)
-            (_, value, half), = lengths_in(next(iter(values)), system)
-            assert abs(value - expected[name]) <= half + 1e-9, (key, name)
+            assert values == {units.format_length(expected[name], system, step_of(name))}, (key, name, values)
+            (_, value, _), = lengths_in(next(iter(values)), system)
+            assert abs(value - expected[name]) <= HALF_STEP[system, step_of(name)] + 1e-9, (key, name)
         required = {"overview": {"radiator", "stub", "tap", "height"},
                     "radiator": {"radiator", "cut length"}, "stub": {"stub", "tap", "spacing"},
                     "short-tap": {"tap", "spacing"},

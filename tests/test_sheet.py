@@ -96,11 +96,13 @@ def test_key_dimensions_and_cut_list_are_the_solution_formatted(solved, name):
     dims = s.dimensions
     assert [(f.label, plain(f.value)) for f in key.figures] == [
         ("radiator", units.format_length(dims.radiator, u)), ("stub", units.format_length(dims.stub, u)),
-        ("tap", units.format_length(dims.tap, u)), ("spacing", units.format_length(dims.spacing, u))]
+        ("tap", units.format_length(dims.tap, u)), ("spacing", units.format_length(dims.spacing, u, "size"))]
     cut = next(b for b in sheet.section("cut-list").blocks if isinstance(b, Table))
     assert cut.boxes == tuple(i.quantity for i in s.cut_list)      # one drawn box per piece
-    assert [plain(r[2]) for r in cut.rows] == [units.format_length(i.length_m, u)
-                                                       for i in s.cut_list]
+    # coax and rope to the inch or cm, the rest to 1/8 in or 1 mm (issue 18)
+    assert [plain(r[2]) for r in cut.rows] == [
+        units.format_length(i.length_m, u, "coarse" if i.part == "feed coax" or "rope" in i.part else "fine")
+        for i in s.cut_list]
     summary = " ".join(texts(sheet.section("summary").blocks))
     assert units.format_frequency(s.frequency_hz) in summary
     assert units.format_frequency(s.band_hz[0]) in summary and units.format_frequency(s.band_hz[1]) in summary

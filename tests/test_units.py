@@ -182,7 +182,9 @@ def test_awg_diameter_refuses_outside_the_standard(gauge):
     (4.5 * IN, "4-1/2\""),
     (33 * FT, "33' 0\""),
     (33 * FT + 2 * IN, "33' 2\""),
-    (16 * FT + 0.375 * IN, "16' 3/8\""),
+    (16 * FT + 0.375 * IN, "16' 0-3/8\""),       # never "16' 3/8\"", which reads like 16-3/8"
+    (1 * FT + 0.75 * IN, "1' 0-3/4\""),
+    (152 * FT + 0.5 * IN, "152' 0-1/2\""),
     (0.75 * IN, "3/4\""),
     (-(16 * FT + 4.375 * IN), "-16' 4-3/8\""),
     (11.97 * IN, "1' 0\""),                      # 11.97 in rounds to 12 in: a whole foot
@@ -203,6 +205,53 @@ def test_format_length_metric(metres, metric):
     assert format_length(metres, "metric") == metric
 
 
+@pytest.mark.parametrize("metres, units, text", [
+    # coax and rope are cut roughly: to the inch or the centimetre (issue 18)
+    (82 * FT + 0.25 * IN, "imperial", "82' 0\""),
+    (82 * FT + 3.6 * IN, "imperial", "82' 4\""),
+    (7.4 * IN, "imperial", "7\""),
+    (25.0, "metric", "25.00 m"),
+    (25.004, "metric", "25.00 m"),
+    (25.006, "metric", "25.01 m"),
+    (0.434, "metric", "43 cm"),
+    (0.996, "metric", "1.00 m"),
+])
+def test_format_length_coarse(metres, units, text):
+    assert format_length(metres, units, "coarse") == text
+
+
+@pytest.mark.parametrize("metres, units, text", [
+    # diameters and spacings: 0.001 in below 1/4 in, 1/32 in below 2 in, so 20 mm is not "3/4"" nor
+    # 4 mm "1/8"" (issue 18)
+    (0.020, "imperial", "25/32\""),
+    (0.004, "imperial", "0.157\""),
+    (0.005, "imperial", "0.197\""),
+    (0.3 * IN, "imperial", "5/16\""),
+    (0.5 * IN, "imperial", "1/2\""),
+    (3.0 * IN, "imperial", "3\""),
+    (0.0010236, "imperial", "0.040\""),        # 18 AWG (ASTM B258: 0.0403 in)
+    (0.004, "metric", "4 mm"),
+    (0.0159, "metric", "15.9 mm"),
+    (0.0254, "metric", "25.4 mm"),
+    (0.1234, "metric", "123 mm"),
+])
+def test_format_length_size(metres, units, text):
+    assert format_length(metres, units, "size") == text
+
+
+@given(st.floats(min_value=-2000.0, max_value=2000.0, allow_nan=False),
+       st.sampled_from(["fine", "coarse", "size"]), st.sampled_from(["imperial", "metric"]))
+def test_every_step_parses_back_within_half_its_resolution(metres, step, units):
+    back = parse_quantity(format_length(metres, units, step), "length")
+    if units == "imperial":
+        res = {"fine": IN / 8, "coarse": IN,
+               "size": IN / 1000 if abs(metres) < IN / 4 else IN / 32 if abs(metres) < 2 * IN else IN / 8}[step]
+    else:
+        size_fine = step == "size" and abs(metres) < 0.09995
+        res = 0.01 if step == "coarse" else (1e-4 if abs(metres) < 0.00995 or size_fine else 1e-3)
+    assert abs(back - metres) <= res / 2 + 1e-9
+
+
 def test_imperial_writing_is_ascii_for_the_embedded_font():
     # Vera has no ⅛ ′ ″ (DESIGN.md §8): every imperial length must be plain ASCII
     for eighths in range(0, 96 * 40, 7):
@@ -212,6 +261,8 @@ def test_imperial_writing_is_ascii_for_the_embedded_font():
 def test_length_rounding_statement():
     assert length_rounding("imperial") == "to the nearest 1/8 in"
     assert length_rounding("metric") == "to the nearest mm"
+    assert length_rounding("imperial", "coarse") == "to the nearest inch"
+    assert length_rounding("metric", "coarse") == "to the nearest cm"
     with pytest.raises(UnitError):
         length_rounding("furlongs")
 

@@ -26,7 +26,9 @@ from buildsheet.drawing import plots
 from buildsheet.drawing.shapes import (TEXT_GAP, TEXT_SIZE, THIN, Arc, Box, BreakMark, Circle,
                                        Dimension, Drawing, Hatch, Leader, Line, Polyline, Rect, Text,
                                        clip_segment)
+from buildsheet.layout import TIE_OFF_M, describe, site_layout
 from buildsheet.solver import RIGID_DIAMETER_M, Solution
+from buildsheet.stock import conductor_size
 
 #: figure keys in the order a builder reads them (also the order of the SVG files)
 FIGURES = ("overview", "radiator", "stub", "short-tap", "choke", "swr", "smith")
@@ -391,6 +393,15 @@ class _Context:
     def length(self, m: float) -> str:
         return units.format_length(m, self.units)
 
+    def paced(self, m: float) -> str:
+        """A distance paced out on the site or a rope's length: to the inch or the cm."""
+        return units.format_length(m, self.units, "coarse")
+
+    def layout(self):
+        site = self.design.site
+        return site_layout(site.orientation, site.height_m, site.slope_rad,
+                           self.solution.dimensions.radiator, self.design.wavelength_m)
+
     def rounding_note(self) -> str:
         system = "feet and inches" if self.units == "imperial" else "metres and millimetres"
         return f"Dimensions in {system}, {units.length_rounding(self.units)}."
@@ -399,10 +410,11 @@ class _Context:
         """The radiator wire as a builder buys it: the gauge as written, else its diameter."""
         r = self.design.radiator
         label = r.label.strip()
-        size = label if ("awg" in label.lower() or label.startswith("#")) else \
-            f"{self.length(r.diameter_m)} dia."
         insulation = "" if r.insulation == "bare" else f", {r.insulation} insulated"
-        return f"{size} {r.material}{insulation}"
+        if "awg" in label.lower() or label.startswith("#"):
+            return f"{label} {r.material}{insulation}"
+        size = conductor_size(r.diameter_m, self.units, r.material)
+        return f"{size}{insulation}" if r.material in size else f"{size}, {r.material}{insulation}"
 
 
 def _strip(ctx: _Context, caption: str, notes: list[str], width: float, top: float) -> tuple[list, float]:
@@ -468,6 +480,9 @@ def _overview(ctx: _Context) -> Drawing:
     else:
         sheet, h = _overview_hanging(ctx)
     notes = ["Not to scale: long spans are drawn shortened (break marks).", ctx.rounding_note()]
+    site = ctx.layout()
+    if site is not None:
+        notes.append("Site: " + describe(site, ctx.paced))
     slope = ctx.design.site.slope_rad
     if ctx.design.site.orientation == "sloper" and slope > MAX_DRAWN_SLOPE:
         notes.insert(1, f"The slope is drawn at {units.format_angle(MAX_DRAWN_SLOPE)}; "
@@ -506,7 +521,7 @@ def _feed_callouts(sheet: _Sheet, ctx: _Context, x_j: float, x_o: float, y_tap: 
     sheet.callout(x_mid - 5.5, y_choke + 13.0, ["choke at the tap"], angles=(180, 200, 160, 225))
     d = ctx.design
     sheet.callout(x_mid, (y_choke + 26.0 + y_coax) / 2,
-                  [f"coax {d.feed.coax}, {ctx.length(d.feed.length_m)}", "to the station"],
+                  [f"coax {d.feed.coax}, {ctx.paced(d.feed.length_m)}", "to the station"],
                   angles=(180, 200, 160, 135, 225))
 
 
@@ -535,13 +550,18 @@ def _overview_hanging(ctx: _Context) -> tuple[_Sheet, float]:
         u = (-math.cos(theta), math.sin(theta))
         reach = min((x_j - 130.0) / math.cos(theta), (y_g - 64.0 - y_top) / math.sin(theta))
         far = _along((x_j, y_top), u, reach)
-        rope_len = max(10.0, min(34.0, (y_g - 22.0 - far[1]) / math.sin(theta) - 16.0))
         ins_end = _along(far, u, 16.0)
-        support = _along(ins_end, u, rope_len)
-        rope_mid = _along(ins_end, u, rope_len / 2)
+        # the anchor rope runs on down the radiator's line to a stake in the ground; where that point
+        # is off the drawing it is drawn steeper (the overview is not to scale)
+        to_ground = (y_g - ins_end[1]) / math.sin(theta)
+        support = (max(PAD + 14.0, ins_end[0] + u[0] * to_ground), y_g)
+        rope_mid = ((ins_end[0] + support[0]) / 2, (ins_end[1] + support[1]) / 2)
         sheet.add(Line(*ins_end, *support, width=ROPE, dash=ROPE_DASH))
-        sheet.add(_pole(support[0], support[1] - 2.0, y_g, 6.0))
-        support_name = "post"
+        sheet.add(_pole(support[0], y_g - 9.0, y_g + 4.0, 3.0))
+        site = ctx.layout()
+        support_name = [f"anchor rope {ctx.paced(site.ropes[1].length_m - TIE_OFF_M)}",
+                        f"to a ground anchor {ctx.paced(site.anchor_distance_m)}",
+                        "from the high support"]
     else:
         u = (-1.0, 0.0)
         far = (100.0, y_top)
@@ -550,7 +570,7 @@ def _overview_hanging(ctx: _Context) -> tuple[_Sheet, float]:
         rope_mid = ((ins_end[0] + support[0]) / 2, (ins_end[1] + support[1] + 4.0) / 2)
         sheet.add(Line(*ins_end, support[0], support[1] + 4.0, width=ROPE, dash=ROPE_DASH))
         sheet.add(_pole(support[0], support[1], y_g))
-        support_name = "support"
+        support_name = ["support"]
     sheet.add(_insulator(far, u))
     sheet.add(BreakMark(far[0], far[1], x_j, y_top, at=0.5, width=CONDUCTOR))
     sheet.add(Dimension(far[0], far[1], x_j, y_top, f"radiator {L(dims.radiator)}", 22.0))
@@ -585,11 +605,12 @@ def _overview_hanging(ctx: _Context) -> tuple[_Sheet, float]:
     sheet.add(Text(pole_r, pole_top - 4.0, "support", LABEL, "end"))
     if sloper:
         _slope_mark(sheet, ctx, far, theta)
-        sheet.callout(support[0], support[1], [support_name], angles=(180, 200, 160, 135))
+        sheet.callout(*rope_mid, support_name, angles=(200, 180, 225, 160, 135, 250))
     else:
-        sheet.add(Text(support[0], support[1] - 4.0, support_name, LABEL, "middle"))
+        sheet.add(Text(support[0], support[1] - 4.0, support_name[0], LABEL, "middle"))
+        sheet.callout(*rope_mid, [f"rope {ctx.paced(ctx.layout().standoff_m)}"],
+                      angles=(270, 240, 300, 200, 90), radii=(16, 24, 34, 46))
     sheet.callout(*_along(far, u, 8.0), ["end insulator"], angles=(250, 270, 225, 290, 135))
-    sheet.callout(*rope_mid, ["rope"], angles=(270, 240, 300, 200, 90), radii=(16, 24, 34, 46))
     sheet.callout(x_j, y_top, ["open top: radiator on", "one conductor only"],
                   angles=(225, 200, 250, 135, 160))
     _feed_callouts(sheet, ctx, x_j, x_o, y_tap, y_short, y_choke, y_coax)
@@ -795,7 +816,7 @@ def _section(ctx: _Context, cx: float, cy: float) -> list:
     """Section through the stub centred at (cx, cy): the two conductors and the spacing, centre to
     centre."""
     line = ctx.design.stub
-    text = f"spacing {ctx.length(line.spacing_m)}"
+    text = f"spacing {units.format_length(line.spacing_m, ctx.units, 'size')}"
     gap = max(56.0, _width(text) + 14.0)
     r = 5.0
     x1, x2 = cx - gap / 2, cx + gap / 2
@@ -957,7 +978,8 @@ def _short_tap(ctx: _Context) -> Drawing:
         run(x_mid, y_a, y_end, lambda y0, y1: Hatch(x_j, y0, gap, y1 - y0, grey=0.94))
     for x in (x_j, x_o):
         run(x, y_a, y_end, lambda y0, y1, x=x: Line(x, y0, x, y1, width=cw, stroke=conductor_grey))
-    sheet.add(Dimension(x_j, y_a, x_o, y_a, f"spacing {L(dims.spacing)}", 14.0))
+    sheet.add(Dimension(x_j, y_a, x_o, y_a, f"spacing {units.format_length(dims.spacing, ctx.units, 'size')}",
+                        14.0))
 
     # short: bar across, joints at both conductors; its centre line
     sheet.add(Rect(x_j - cw / 2 - 4.0, y_short - 3.5, gap + cw + 8.0, 7.0, width=0.75, fill=0.55))
@@ -1158,7 +1180,7 @@ def _swr(ctx: _Context) -> Drawing:
     plot = plots.swr_plot(sw.frequency_hz, sw.swr, sw.swr_transmitter, s.band_hz, s.frequency_hz,
                           edges, WIDTH, SWR_HEIGHT, "SWR across the band (predicted)")
     notes = [f"At the feed point: SWR on {units.format_impedance(ctx.design.feed.impedance_ohm)}. "
-             f"At the transmitter: through {units.format_length(ctx.design.feed.length_m, ctx.units)}"
+             f"At the transmitter: through {units.format_length(ctx.design.feed.length_m, ctx.units, 'coarse')}"
              f" of {ctx.design.feed.coax}.", ctx.rounding_note()]
     return _with_strip(ctx, plot, "SWR across the band", notes)
 

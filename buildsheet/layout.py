@@ -1,0 +1,92 @@
+"""The site layout of a hung antenna (horizontal or sloper): owns where the supports and the ground
+anchor go and how long each rope is, from the design's height and slope and the solved radiator.
+Numbers in SI (m), and the one sentence that says them (`describe`, given a length formatter),
+shared by the sheet and the overview drawing; no I/O.
+
+Geometry (DESIGN.md §5). The radiator runs from the far end insulator's attachment point to the
+stub's open top, which hangs by its own insulator and rope from the near support at `height`.
+Horizontal: the far end is at the same height; the span between the supports is the radiator plus
+an insulator and a stand-off rope at each end. Sloper: the radiator slopes down at `slope` below
+horizontal from the open top; its far end insulator is tied by an anchor rope continuing along the
+same straight line to a ground anchor (so the wire pulls straight), which is at h / tan(slope) from
+the point below the open top, plus the near stand-off from the support's foot.
+"""
+
+from __future__ import annotations
+
+import math
+from dataclasses import dataclass
+
+#: length of an end insulator with its loops, m (common practice: 7-10 cm egg or dog-bone insulators)
+INSULATOR_M = 0.1
+#: the ropes that reach the supports are halyards: up to a pulley at the top of the support and back
+#: down to a cleat, with this much to tie off and handle, m (common practice)
+TIE_OFF_M = 2.0
+
+
+@dataclass(frozen=True)
+class Rope:
+    """One rope to cut: what it does (a few words) and its length_m."""
+    what: str
+    length_m: float
+    note: str
+
+
+@dataclass(frozen=True)
+class SiteLayout:
+    """Where things go on the ground, m. span_m (horizontal only): from support to support.
+    far_end_height_m and far_end_distance_m: the far end insulator's height and its horizontal
+    distance from the open top. anchor_distance_m (sloper only): the ground anchor from the high
+    support's foot. standoff_m: the rope between each end insulator and its support. ropes: what
+    to cut (Rope), including what is needed to tie off."""
+    orientation: str
+    height_m: float
+    standoff_m: float
+    far_end_height_m: float
+    far_end_distance_m: float
+    span_m: float | None
+    anchor_distance_m: float | None
+    ropes: tuple
+
+
+def standoff(wavelength_m: float) -> float:
+    """Rope between an end insulator and its support, m: the radiator's far end and the stub's open
+    top carry the highest RF voltage, so they are kept off trees and masts (common practice: a metre
+    or more, more on the low bands): 2 % of a wavelength, at least 1 m and at most 3 m."""
+    return min(3.0, max(1.0, 0.02 * wavelength_m))
+
+
+def site_layout(orientation: str, height_m: float, slope_rad: float, radiator_m: float,
+                wavelength_m: float) -> SiteLayout | None:
+    """The layout of a horizontal or sloper (None for a vertical, which stands on its mast)."""
+    if orientation == "vertical":
+        return None
+    gap = standoff(wavelength_m)
+    halyard = 2.0 * height_m + gap + TIE_OFF_M
+    near = Rope("rope, near end", halyard,
+                "from the open top's insulator over a pulley at the near support and down to a cleat")
+    if orientation == "horizontal":
+        span = radiator_m + 2.0 * (INSULATOR_M + gap)
+        far = Rope("rope, far end", halyard,
+                   "from the far end insulator over a pulley at the far support and down to a cleat")
+        return SiteLayout(orientation, height_m, gap, height_m, radiator_m, span, None, (near, far))
+    drop = radiator_m * math.sin(slope_rad)
+    far_height = height_m - drop
+    along_to_ground = height_m / math.sin(slope_rad)        # from the open top down the line to the ground
+    anchor_rope = along_to_ground - radiator_m - INSULATOR_M
+    anchor = Rope("anchor rope", max(anchor_rope, 0.0) + TIE_OFF_M,
+                  "from the far end insulator straight on down the radiator's line to the ground anchor")
+    return SiteLayout(orientation, height_m, gap, far_height, radiator_m * math.cos(slope_rad), None,
+                      gap + height_m / math.tan(slope_rad), (near, anchor))
+
+
+def describe(layout: SiteLayout, length) -> str:
+    """The layout in one sentence for the builder; `length(m)` formats a length (the sheet's units,
+    to the inch or the cm: these are paced out, not cut)."""
+    if layout.orientation == "horizontal":
+        return (f"Supports {length(layout.span_m)} apart: the radiator, an end insulator and "
+                f"{length(layout.standoff_m)} of rope at each end.")
+    return (f"The far end insulator is {length(layout.far_end_height_m)} up and "
+            f"{length(layout.far_end_distance_m)} out from the open top; the anchor rope runs on down "
+            f"the same line to a ground anchor {length(layout.anchor_distance_m)} from the foot of "
+            f"the high support (the open top hangs {length(layout.standoff_m)} out from it).")
