@@ -16,6 +16,7 @@ from buildsheet.errors import BuildsheetError, DesignError
 from buildsheet.physics import choke as choke_physics
 from buildsheet.physics import exposure as exposure_physics
 from buildsheet.physics import jpole
+from buildsheet.physics import radiation as radiation_physics
 from buildsheet.physics.coax import total_loss_db
 from buildsheet.physics.lines import DB_PER_NEPER, Line, input_impedance, reflection, swr
 
@@ -160,6 +161,7 @@ class Solution:
     exposure: Exposure
     first_cut: FirstCut
     warnings: tuple = ()
+    radiation: radiation_physics.Radiation | None = None
 
     @property
     def voltage_open_end_v_peak(self) -> float:
@@ -225,7 +227,21 @@ class Solution:
                          "limit_general_w_m2": e.limit_general_w_m2,
                          "near_field_m": e.near_field_m},
             "warnings": list(self.warnings),
+            "radiation": radiation_json(self.radiation),
         }
+
+
+def radiation_json(r: radiation_physics.Radiation | None) -> dict | None:
+    """The pattern's figures and cuts for the JSON: degrees, dBi relative to the power delivered to
+    the tap."""
+    if r is None:
+        return None
+    return {"max_gain_dbi": r.max_gain_dbi, "takeoff_deg": r.takeoff_deg, "azimuth_deg": r.azimuth_deg,
+            "gain_reference": "power delivered to the tap", "ground": r.ground_kind,
+            "elevation_cut": {"azimuth_deg": r.azimuth_deg, "elevation_deg": r.elevation_deg.tolist(),
+                              "gain_dbi": r.elevation_gain_dbi.tolist()},
+            "azimuth_cut": {"elevation_deg": r.takeoff_deg, "azimuth_deg": r.azimuth_cut_deg.tolist(),
+                            "gain_dbi": r.azimuth_gain_dbi.tolist()}}
 
 
 # ----------------------------------------------------------------------------------------------
@@ -330,7 +346,7 @@ def solution_problems(solution: Solution) -> list[str]:
     # the JSON form, and every field itself (some, such as the wrap allowance, are not in the JSON)
     fields = {f.name: getattr(solution, f.name) for f in dataclasses.fields(solution)}
     fields = {k: (dataclasses.asdict(v) if dataclasses.is_dataclass(v) else v) for k, v in fields.items()
-              if k not in ("cut_list", "hardware", "sweep", "feed_impedance")}   # (in the JSON, as R, X)
+              if k not in ("cut_list", "hardware", "sweep", "feed_impedance", "radiation")}   # (in the JSON)
     numbers = list(_numbers(solution.to_dict(), "")) + list(_numbers(fields, ""))
     for where, value in numbers:
         try:
@@ -416,6 +432,8 @@ def _solve(design: Design) -> Solution:
     except ValueError as exc:       # the ground efficiency of a structure resting on sea water
         raise DesignError(" ".join(str(exc).split()), file=design.path, key="site.height") from None
     sens = jpole.sensitivities(f0, ant, radiator, stub, tap, z_feed, prepared=at_f0)
+    with np.errstate(all="ignore"):     # a null's log is floored, not warned about
+        pattern = radiation_physics.radiation(at_f0, radiator, stub, state.efficiency)
 
     ch = choke_physics.design_coax_choke(f0, high, design.feed.choke_form_m,
                                          design.feed.coax_outer_diameter_m, f_band_low=low)
@@ -448,6 +466,7 @@ def _solve(design: Design) -> Solution:
                       "coax": design.power.transmitter_w - p_tap},
         sensitivity=sens._asdict(),
         choke=ch, exposure=exposure, first_cut=first, warnings=envelope_warnings(design),
+        radiation=pattern,
     )
 
 
