@@ -92,5 +92,5 @@ if __name__ == "__main__":      # the table of the report: python tests/test_rad
     for c in CASES:
         r = compare(c)
         print(f"{c.name:24s} {r['model_gain']:9.2f} {r['nec_gain']:8.2f} "
-              f"{r['model_gain'] - r['nec_gain']:+6.2f} | {r['model_takeoff']:8.1f} {r["nec_takeoff"]:6.1f} "
+              f"{r['model_gain'] - r['nec_gain']:+6.2f} | {r['model_takeoff']:8.1f} {r['nec_takeoff']:6.1f} "
               f"{r['model_takeoff'] - r['nec_takeoff']:+5.1f}", flush=True)
