@@ -532,6 +532,7 @@ class _Context:
                                 f"{_watts(s.power_at_tap_w)} PEP at the tap")),
                 ("lost", _e(self.losses())),
             )),
+            *self.radiation(),
             Heading("Choke"),
             Facts((
                 ("coil", _e(f"{c.turns} turn{'s' if c.turns != 1 else ''} of {d.feed.coax} close-wound "
@@ -569,6 +570,23 @@ class _Context:
                 near_field=self.distance(e.near_field_m), f0=self.f0),
         ]
         return tuple(blocks)
+
+    def radiation(self) -> tuple:
+        """The pattern's figure and its two figures (gain relative to the power delivered to the tap)."""
+        r = self.s.radiation
+        if r is None:
+            return ()
+        free = r.ground_kind == "free-space"
+        return (
+            Heading("Radiation"),
+            Figures(("pattern",)),
+            Facts((
+                ("maximum gain", _e(f"{r.max_gain_dbi:.1f} dBi (relative to the power delivered to the tap: "
+                                    f"the antenna's{'' if free else ' and the ground'} losses included)")),
+                ("elevation of the maximum" if free else "take-off angle",
+                 _e(f"{r.takeoff_deg:.0f}° above the horizon, toward azimuth {r.azimuth_deg:.0f}°")),
+            )),
+        )
 
     def losses(self) -> str:
         """Where the power is lost. A line given by its measured loss has no physical split between
