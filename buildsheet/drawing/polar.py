@@ -103,7 +103,7 @@ def pattern_plot(elevation_deg: Sequence[float], elevation_gain_dbi: Sequence[fl
         raise ValueError("each cut needs one gain per angle, at least 3 angles")
     if not (np.all(np.isfinite(g_el)) and np.all(np.isfinite(g_az)) and math.isfinite(max_gain_dbi)):
         raise ValueError("gains must be finite")
-    top = math.ceil(max_gain_dbi + 1e-9)
+    top = math.ceil(max_gain_dbi)
     items: list = [_title(PAD, PAD, title, TITLE_SIZE)]
     y0 = PAD + fonts.ascent(TITLE_SIZE, True) + fonts.descent(TITLE_SIZE, True) + 2 * PAD
     panel_w = (width - 3 * PAD) / 2
