@@ -556,7 +556,7 @@ class _Context:
             Facts((
                 ("standard", _e(STANDARD_NAMES[e.standard])),
                 ("average power", _e(f"{_watts(e.average_power_w)}; EIRP "
-                                     f"{_watts(e.eirp_w)} with {e.gain_dbi:.2f} dBi")),
+                                     f"{_watts(e.eirp_w)} with {e.gain_dbi:.2f} dBi ({e.gain_source})")),
                 (general, _e(f"keep people {self.distance(e.distance_general_m)} away "
                              f"(limit {e.limit_general_w_m2:.3g} W/m²)")),
                 (controlled, _e(f"{self.distance(e.distance_controlled_m)} "

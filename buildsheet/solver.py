@@ -120,6 +120,7 @@ class Exposure:
     limit_controlled_w_m2: float
     limit_general_w_m2: float
     near_field_m: float
+    gain_source: str = "a half-wave dipole's gain"
 
 
 @dataclass(frozen=True)
@@ -225,7 +226,7 @@ class Solution:
                          "distance_general_m": e.distance_general_m,
                          "limit_controlled_w_m2": e.limit_controlled_w_m2,
                          "limit_general_w_m2": e.limit_general_w_m2,
-                         "near_field_m": e.near_field_m},
+                         "near_field_m": e.near_field_m, "gain_source": e.gain_source},
             "warnings": list(self.warnings),
             "radiation": radiation_json(self.radiation),
         }
@@ -434,12 +435,13 @@ def _solve(design: Design) -> Solution:
     sens = jpole.sensitivities(f0, ant, radiator, stub, tap, z_feed, prepared=at_f0)
     with np.errstate(all="ignore"):     # a null's log is floored, not warned about
         pattern = radiation_physics.radiation(at_f0, radiator, stub, state.efficiency)
+        directivity = radiation_physics.free_space_directivity_dbi(at_f0, radiator, stub)
 
     ch = choke_physics.design_coax_choke(f0, high, design.feed.choke_form_m,
                                          design.feed.coax_outer_diameter_m, f_band_low=low)
     # exposure takes no credit for the power the ground absorbs (that happens in the ground's near
     # field under the antenna, where people stand): the field's share of what reaches the tap
-    exposure = _exposure(design, state.p_field / state.p_delivered, loss_db)
+    exposure = _exposure(design, state.p_field / state.p_delivered, loss_db, directivity)
     wrap = _wrap_allowance(design)
     line = ant.stub_line
     z0_line, gamma_line = line.z0_gamma(f0)
@@ -578,12 +580,25 @@ def first_cut(design: Design, dims: Dimensions, stub_vf_model: float) -> FirstCu
                     stub_source=stub_source, radiator_source=radiator_source)
 
 
-def _exposure(design: Design, efficiency: float, coax_loss_db: float) -> Exposure:
+def exposure_gain(directivity_dbi: float) -> tuple[float, str]:
+    """(gain in dBi, its source) for the exposure estimate: a half-wave dipole's 2.15 dBi, or the
+    antenna's own free-space directivity (the model's currents, radiation.free_space_directivity_dbi)
+    where that is higher. Never lower than the dipole's: the pattern over the ground describes the
+    far field above the horizon, not the near field where people stand, so the OET 65 ground factor
+    stays and the pattern may only make the estimate more conservative."""
+    if directivity_dbi > HALF_WAVE_GAIN_DBI:
+        return directivity_dbi, "the antenna's free-space directivity"
+    return HALF_WAVE_GAIN_DBI, "a half-wave dipole's gain"
+
+
+def _exposure(design: Design, efficiency: float, coax_loss_db: float,
+              directivity_dbi: float) -> Exposure:
     """Screening distances (OET Bulletin 65 far-field formula with the 2.56 ground-reflection factor)
-    at the band edge where the limit is strictest."""
+    at the band edge where the limit is strictest, with the gain of exposure_gain."""
     p = design.power
     avg = exposure_physics.average_power(p.transmitter_w, p.duty_factor, p.on_air)
-    gain = 10 ** (HALF_WAVE_GAIN_DBI / 10)
+    gain_dbi, source = exposure_gain(directivity_dbi)
+    gain = 10 ** (gain_dbi / 10)
     eirp = avg * 10 ** (-coax_loss_db / 10) * efficiency * gain
     low, high = design.band_hz
     edges = np.array([low, design.frequency_hz, high])
@@ -594,11 +609,12 @@ def _exposure(design: Design, efficiency: float, coax_loss_db: float) -> Exposur
     controlled = float(np.min(controlled))
     general = float(np.min(general))
     return Exposure(
-        standard=p.exposure_standard, average_power_w=avg, gain_dbi=HALF_WAVE_GAIN_DBI, eirp_w=eirp,
+        standard=p.exposure_standard, average_power_w=avg, gain_dbi=gain_dbi, eirp_w=eirp,
         distance_controlled_m=float(exposure_physics.compliance_distance(eirp, controlled)),
         distance_general_m=float(exposure_physics.compliance_distance(eirp, general)),
         limit_controlled_w_m2=controlled, limit_general_w_m2=general,
         near_field_m=float(exposure_physics.reactive_near_field_limit(design.frequency_hz)),
+        gain_source=source,
     )
 
 

@@ -101,7 +101,7 @@ def summary_text(design: Design, s: Solution) -> str:
     e = s.exposure
     standard = {"us-fcc": "47 CFR 1.1310 (US FCC)", "icnirp-2020": "ICNIRP 2020"}[e.standard]
     add(f"  RF exposure ({standard}, {units.format_power(e.average_power_w)} average, "
-        f"{e.gain_dbi:.2f} dBi): keep people {units.format_distance(e.distance_general_m, u)} away "
+        f"{e.gain_dbi:.2f} dBi, {e.gain_source}): keep people {units.format_distance(e.distance_general_m, u)} away "
         f"(general public), {units.format_distance(e.distance_controlled_m, u)} (controlled)")
     if e.distance_general_m < e.near_field_m:
         add(f"    these distances lie inside the reactive near field ({units.format_distance(e.near_field_m, u)})"

@@ -104,3 +104,24 @@ def test_plot_puts_the_maximum_on_the_outer_rings_scale():
     assert r[30] == pytest.approx(r.max())
     assert r[30] == pytest.approx(r_max, rel=0.01)
     assert np.degrees(np.arctan2(centre[1] - pts[30][1], pts[30][0] - centre[0])) == pytest.approx(30.0)
+
+
+@pytest.mark.parametrize("name", [p.stem for p in DEMOS])
+def test_exposure_gain_is_never_below_a_half_wave_dipole(solved, name):
+    """The exposure estimate uses the antenna's own free-space directivity where it exceeds the
+    2.15 dBi of a half-wave dipole (OET Bulletin 65's usual figure), never less, and names which it
+    used; the distance grows as the square root of the gain (far-field formula, OET 65 eq. 3)."""
+    from buildsheet.physics import exposure as exposure_physics
+    from buildsheet.solver import HALF_WAVE_GAIN_DBI
+
+    d, s = solved[name]
+    e = s.exposure
+    prep = jpole.at_frequency(d.frequency_hz, antenna_model(d))
+    directivity = radiation.free_space_directivity_dbi(prep, s.dimensions.radiator, s.dimensions.stub)
+    assert e.gain_dbi == pytest.approx(max(HALF_WAVE_GAIN_DBI, directivity), abs=1e-12)
+    assert e.gain_source == ("the antenna's free-space directivity" if directivity > HALF_WAVE_GAIN_DBI
+                             else "a half-wave dipole's gain")
+    dipole_eirp = e.eirp_w / 10 ** ((e.gain_dbi - HALF_WAVE_GAIN_DBI) / 10)
+    dipole = float(exposure_physics.compliance_distance(dipole_eirp, e.limit_general_w_m2))
+    assert e.distance_general_m == pytest.approx(dipole * 10 ** ((e.gain_dbi - HALF_WAVE_GAIN_DBI) / 20),
+                                                 rel=1e-9)

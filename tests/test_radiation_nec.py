@@ -86,6 +86,33 @@ def test_max_gain_and_takeoff_match_nec(case, results):
     assert r["model_takeoff"] == pytest.approx(r["nec_takeoff"], abs=3.0), why
 
 
+
+# The exposure estimate's antenna gain (solver.exposure_gain): the larger of a half-wave dipole's 2.15
+# dBi and the model's free-space directivity. NEC-2's directivity is its maximum gain over its
+# radiated fraction (lossless wires, free space: what NEC-2 puts in and does not radiate is its own
+# imbalance, above). Measured (model - NEC): 20m-free +0.04, 6m-horiz-free -0.02, 2m-wire-vert-free
+# -0.22 dB: the model's vertical is 0.22 dB under NEC-2's 2.67 dBi, the fixed 2.15 dBi 0.52 dB.
+FREE_CASES = (
+    _BY_NAME["20m-free"],
+    acc.Case("6m-horiz-free", 50.125e6, (50.0e6, 54.0e6), AWG(12), AWG(14), 0.025, "horizontal", 6.0,
+             acc.FREE),
+    CASES[-1],
+)
+
+
+@pytest.mark.parametrize("case", FREE_CASES, ids=[c.name for c in FREE_CASES])
+def test_free_space_directivity_matches_nec(case):
+    """The model's free-space directivity (the exposure gain where it exceeds 2.15 dBi) within 0.3 dB
+    of NEC-2's."""
+    ant, L, S, T = acc.model_design(case)
+    model = radiation.free_space_directivity_dbi(jpole.at_frequency(case.f0, ant), L, S)
+    dims = case.nec_dims(L, S, T)
+    wires = necref.jpole_wires(dims, case.f0)
+    source = (necref.TAG_TAP, (wires[necref.TAG_TAP - 1].nseg + 1) // 2)
+    nec = necref.pattern(wires, case.f0, dims.ground, source, None, theta_step=1.0, phi_step=5.0)
+    nec_d = float(np.max(nec.gain_dbi)) - 10 * np.log10(nec.radiated_fraction)
+    assert model == pytest.approx(nec_d, abs=0.3), f"model {model:.2f} dBi, NEC-2 {nec_d:.2f} dBi"
+
 if __name__ == "__main__":      # the table of the report: python tests/test_radiation_nec.py
     print(f"{'design':24s} {'model dBi':>9s} {'NEC dBi':>8s} {'diff':>6s} | {'model TO':>8s} "
           f"{'NEC TO':>6s} {'diff':>5s}")

@@ -90,14 +90,9 @@ def _lobe_spacing_deg(wires, f: float, ground_kind: str) -> float:
     return float(np.degrees(lam / (2 * max(z_top, lam / 4))))
 
 
-def radiation(prep, radiator_length: float, stub_length: float, efficiency: float) -> Radiation:
-    """The pattern of the antenna prepared at its design frequency (jpole.at_frequency(f0, ant)),
-    radiator and stub lengths in m, with `efficiency` = radiated / delivered (jpole.state_at's): see
-    the module docstring."""
-    ant = prep.ant
-    f = float(prep.f)
-    kind, eps_r, sigma = ant.ground_kind, ant.ground_eps_r, ant.ground_sigma
-    wires = jpole.current_wires(prep, radiator_length, stub_length, 1.0)
+def _gain_of(wires, f: float, kind: str, eps_r: float, sigma: float, efficiency: float):
+    """gain(el_deg, az_deg): the power gain (a ratio) of the wires' currents, relative to the
+    power delivered when `efficiency` = radiated / delivered (see the module docstring)."""
     p_upper = pattern.space_wave_power(wires, f, kind, eps_r, sigma)
     scale = 4 * np.pi * efficiency / (ETA0 * p_upper)
 
@@ -105,7 +100,11 @@ def radiation(prep, radiator_length: float, stub_length: float, efficiency: floa
         e_th, e_ph = pattern.far_field(wires, f, np.radians(90.0 - el_deg), np.radians(az_deg),
                                        kind, eps_r, sigma)
         return scale * (np.abs(e_th) ** 2 + np.abs(e_ph) ** 2)
+    return gain
 
+
+def _maximum(gain, wires, f: float, kind: str) -> tuple[float, float, float, float]:
+    """(elevation, azimuth, gain) of the maximum and the fine elevation step used, degrees."""
     lo = -90.0 if kind == "free-space" else 0.0
     az_step = COARSE_AZ_DEG
     el = np.arange(lo, 90.0 + COARSE_EL_DEG / 2, COARSE_EL_DEG)
@@ -126,16 +125,38 @@ def radiation(prep, radiator_length: float, stub_length: float, efficiency: floa
     g_max = float(gain(np.array(e_max), np.array(a_max)))
     if g_max < g[i, j]:
         e_max, a_max, g_max = float(el[i]), float(az[j]), float(g[i, j])
+    return e_max, a_max, g_max, step
+
+
+def _dbi(x):
+    return np.maximum(10 * np.log10(np.maximum(x, 1e-30)), FLOOR_DBI)
+
+
+def radiation(prep, radiator_length: float, stub_length: float, efficiency: float) -> Radiation:
+    """The pattern of the antenna prepared at its design frequency (jpole.at_frequency(f0, ant)),
+    radiator and stub lengths in m, with `efficiency` = radiated / delivered (jpole.state_at's): see
+    the module docstring."""
+    ant = prep.ant
+    f = float(prep.f)
+    kind = ant.ground_kind
+    wires = jpole.current_wires(prep, radiator_length, stub_length, 1.0)
+    gain = _gain_of(wires, f, kind, ant.ground_eps_r, ant.ground_sigma, efficiency)
+    e_max, a_max, g_max, step = _maximum(gain, wires, f, kind)
     # the elevation cut through the maximum (beyond 90: the far side of the zenith)
+    lo = -90.0 if kind == "free-space" else 0.0
     e_cut = np.arange(lo, 180.0 - lo + step / 2, step)
     far = e_cut > 90.0
     g_el = gain(np.where(far, 180.0 - e_cut, e_cut), np.where(far, a_max + 180.0, a_max))
     a_cut = np.arange(0.0, 360.0, CUT_STEP_DEG)
     g_az = gain(np.full_like(a_cut, e_max), a_cut)
+    return Radiation(max_gain_dbi=float(_dbi(g_max)), takeoff_deg=e_max, azimuth_deg=a_max,
+                     elevation_deg=e_cut, elevation_gain_dbi=_dbi(g_el), azimuth_cut_deg=a_cut,
+                     azimuth_gain_dbi=_dbi(g_az), efficiency=float(efficiency), ground_kind=kind)
 
-    def dbi(x):
-        return np.maximum(10 * np.log10(np.maximum(x, 1e-30)), FLOOR_DBI)
 
-    return Radiation(max_gain_dbi=float(dbi(g_max)), takeoff_deg=e_max, azimuth_deg=a_max,
-                     elevation_deg=e_cut, elevation_gain_dbi=dbi(g_el), azimuth_cut_deg=a_cut,
-                     azimuth_gain_dbi=dbi(g_az), efficiency=float(efficiency), ground_kind=kind)
+def free_space_directivity_dbi(prep, radiator_length: float, stub_length: float) -> float:
+    """The maximum directivity, dBi, of the antenna's currents (radiator and stub common mode) in
+    free space: the exposure estimate's antenna gain where it exceeds a half-wave dipole's."""
+    wires = jpole.current_wires(prep, radiator_length, stub_length, 1.0)
+    gain = _gain_of(wires, float(prep.f), "free-space", 13.0, 0.005, 1.0)
+    return float(_dbi(_maximum(gain, wires, float(prep.f), "free-space")[2]))
