@@ -76,12 +76,26 @@ def _ring_labels(cx: float, cy: float, r_max: float, top: float, angle_deg: floa
     return out
 
 
-def _quiet_angle(angles: np.ndarray, gains: np.ndarray, candidates: Sequence[float]) -> float:
-    """Of the candidate angles, the one where the curve is lowest (for the ring labels)."""
-    def gain_at(a):
-        d = np.abs((angles - a + 180.0) % 360.0 - 180.0)
-        return float(np.max(gains[d <= 12.0])) if np.any(d <= 12.0) else -1e9
-    return min(candidates, key=gain_at)
+def _ring_labels_clear_of(cx: float, cy: float, r_max: float, top: float, points: np.ndarray,
+                          candidates: Sequence[float]) -> list:
+    """The ring labels along the candidate ray whose labels the curve (page points) crosses least:
+    the number of curve points inside the labels' boxes (grown by 1.5 points), then the fewest
+    points near the ray's labels at all."""
+    def cost(angle):
+        hits = 0
+        for text in _ring_labels(cx, cy, r_max, top, angle):
+            b = text.bbox()
+            inside = ((points[:, 0] > b.x0 - 1.5) & (points[:, 0] < b.x1 + 1.5)
+                      & (points[:, 1] > b.y0 - 1.5) & (points[:, 1] < b.y1 + 1.5))
+            hits += int(np.count_nonzero(inside))
+        return hits
+    best = min(candidates, key=cost)
+    return _ring_labels(cx, cy, r_max, top, best)
+
+
+def _spoke(cx: float, cy: float, r_max: float, angle_deg: float) -> np.ndarray:
+    """Points every 2 points along the marked spoke at angle_deg (for keeping labels off it)."""
+    return np.array([_point(cx, cy, r, angle_deg) for r in np.arange(0.0, r_max, 2.0)])
 
 
 def _curve(cx: float, cy: float, r: np.ndarray, angles: np.ndarray, closed: bool) -> Polyline:
@@ -129,10 +143,12 @@ def pattern_plot(elevation_deg: Sequence[float], elevation_gain_dbi: Sequence[fl
         items.append(Line(cx - r_max - 6.0, cy, cx + r_max + 6.0, cy, width=0.9))
         items.append(text_centered_at(cx, cy + 5.0 + fonts.ascent(TICK_SIZE) / 2, "ground", TICK_SIZE))
         bottom_el = cy + 2 * fonts.ascent(TICK_SIZE) + 6.0
-    quiet = _quiet_angle(el, g_el, [15.0, 45.0, 75.0, 105.0, 135.0, 165.0] if not free_space
-                         else [-75.0, -45.0, -15.0, 15.0, 45.0, 75.0, 105.0, 135.0, 165.0, 195.0, 225.0, 255.0])
-    items += _ring_labels(cx, cy, r_max, top, quiet)
-    items.append(_curve(cx, cy, _radius(g_el, top, r_max), el, closed=free_space))
+    curve = _curve(cx, cy, _radius(g_el, top, r_max), el, closed=free_space)
+    rays = np.arange(-80.0, 261.0, 10.0) if free_space else np.arange(10.0, 171.0, 10.0)
+    items += _ring_labels_clear_of(cx, cy, r_max, top,
+                                   np.vstack([curve.points, _spoke(cx, cy, r_max, takeoff_deg)]),
+                                   [float(a) for a in rays if a % 30])
+    items.append(curve)
     tx, ty = _point(cx, cy, r_max, takeoff_deg)
     items.append(Line(cx, cy, tx, ty, width=0.8, dash=MARK_DASH))
     angle = "take-off angle" if not free_space else "elevation of the maximum"
@@ -158,9 +174,11 @@ def pattern_plot(elevation_deg: Sequence[float], elevation_gain_dbi: Sequence[fl
     cy2 = y0 + head + LABEL_ROOM + r_max
     spokes2 = list(range(0, 360, 30))
     items += _grid(cx2, cy2, r_max, 0.0, 360.0, spokes2, [f"{a}\u00b0" for a in spokes2])
-    quiet2 = _quiet_angle(az, g_az, [15.0 + 30 * k for k in range(12)])
-    items += _ring_labels(cx2, cy2, r_max, top, quiet2)
-    items.append(_curve(cx2, cy2, _radius(g_az, top, r_max), az, closed=True))
+    curve2 = _curve(cx2, cy2, _radius(g_az, top, r_max), az, closed=True)
+    items += _ring_labels_clear_of(cx2, cy2, r_max, top,
+                                   np.vstack([curve2.points, _spoke(cx2, cy2, r_max, max_azimuth_deg)]),
+                                   [float(a) for a in range(10, 360, 10) if a % 30])
+    items.append(curve2)
     mx, my = _point(cx2, cy2, r_max, max_azimuth_deg)
     items.append(Line(cx2, cy2, mx, my, width=0.8, dash=MARK_DASH))
     height = max(bottom_el, cy2 + r_max + LABEL_ROOM) + PAD
