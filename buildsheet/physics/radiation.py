@@ -103,6 +103,14 @@ def _gain_of(wires, f: float, kind: str, eps_r: float, sigma: float, efficiency:
     return gain
 
 
+def _first_max(g: np.ndarray) -> tuple[int, int]:
+    """Index of the largest gain, the first (lowest elevation, then azimuth) of those equal to 9
+    digits: the wires lie in one vertical plane, so the pattern is its mirror image across it and
+    two azimuths tie exactly but for rounding; which one wins must not depend on the last bit."""
+    i, j = np.unravel_index(int(np.argmax(np.round(g / np.max(g), 9))), g.shape)
+    return int(i), int(j)
+
+
 def _maximum(gain, wires, f: float, kind: str) -> tuple[float, float, float, float]:
     """(elevation, azimuth, gain) of the maximum and the fine elevation step used, degrees."""
     lo = -90.0 if kind == "free-space" else 0.0
@@ -110,7 +118,7 @@ def _maximum(gain, wires, f: float, kind: str) -> tuple[float, float, float, flo
     el = np.arange(lo, 90.0 + COARSE_EL_DEG / 2, COARSE_EL_DEG)
     az = np.arange(0.0, 360.0, az_step)
     g = gain(el[:, None], az[None, :])
-    j = int(np.unravel_index(int(np.argmax(g)), g.shape)[1])
+    j = _first_max(g)[1]
     # over ground, the direct and reflected waves make lobes in elevation about lambda / (2 z_top)
     # rad apart (z_top: the highest point): a high VHF antenna's lobes are narrower than the
     # grid, so the elevation is scanned again finely at the best azimuth and its neighbours
@@ -118,10 +126,10 @@ def _maximum(gain, wires, f: float, kind: str) -> tuple[float, float, float, flo
     el = np.arange(lo, 90.0 + step / 2, step)
     az = az[[j - 1, j, (j + 1) % len(az)]]
     g = gain(el[:, None], az[None, :])
-    i, j = np.unravel_index(int(np.argmax(g)), g.shape)
+    i, j = _first_max(g)
     d_az = _parabola_peak(g[i, j - 1], g[i, j], g[i, j + 1]) * az_step if j == 1 else 0.0
     d_el = (_parabola_peak(g[i - 1, j], g[i, j], g[i + 1, j]) * step if 0 < i < len(el) - 1 else 0.0)
-    e_max, a_max = float(el[i] + d_el), float((az[j] + d_az) % 360.0)
+    e_max, a_max = round(float(el[i] + d_el), 6), round(float(az[j] + d_az), 6) % 360.0
     g_max = float(gain(np.array(e_max), np.array(a_max)))
     if g_max < g[i, j]:
         e_max, a_max, g_max = float(el[i]), float(az[j]), float(g[i, j])
