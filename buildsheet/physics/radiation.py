@@ -42,7 +42,7 @@ from buildsheet.physics import jpole, pattern
 from buildsheet.physics.radiator import C0, ETA0
 
 #: the coarse grid the maximum is first searched on, degrees (elevation, azimuth)
-COARSE_EL_DEG, COARSE_AZ_DEG = 2.0, 6.0
+COARSE_EL_DEG, COARSE_AZ_DEG = 3.0, 10.0
 #: the fine elevation step of the second scan and the elevation cut, at most, degrees
 FINE_EL_DEG = 0.5
 #: the azimuth cut's angle step, degrees
