@@ -607,6 +607,7 @@ class _Context:
                                 f"{_watts(s.power_at_tap_w)} PEP at the tap")),
                 ("lost", _e(self.losses())),
             )),
+            *self.radiation(),
             Heading("Choke"),
             *self.sleeve_facts(),
             Facts((
@@ -631,7 +632,7 @@ class _Context:
             Facts((
                 ("standard", _e(STANDARD_NAMES[e.standard])),
                 ("average power", _e(f"{_watts(e.average_power_w)}; EIRP "
-                                     f"{_watts(e.eirp_w)} with {e.gain_dbi:.2f} dBi")),
+                                     f"{_watts(e.eirp_w)} with {e.gain_dbi:.2f} dBi ({e.gain_source})")),
                 (general, _e(f"keep people {self.distance(e.distance_general_m)} away "
                              f"(limit {e.limit_general_w_m2:.3g} W/m²)")),
                 (controlled, _e(f"{self.distance(e.distance_controlled_m)} "
@@ -682,6 +683,23 @@ class _Context:
         caution paragraphs to set beside them."""
         return tuple(Para(f"<b>{_e(_capital(f.part))}.</b> {_e(f.body)}", "caution")
                      for f in self.s.findings if f.anchor in anchors)
+
+    def radiation(self) -> tuple:
+        """The pattern's figure and its two figures (gain relative to the power delivered to the tap)."""
+        r = self.s.radiation
+        if r is None:
+            return ()
+        free = r.ground_kind == "free-space"
+        return (
+            Heading("Radiation"),
+            Figures(("pattern",)),
+            Facts((
+                ("maximum gain", _e(f"{r.max_gain_dbi:.1f} dBi (relative to the power delivered to the tap: "
+                                    f"the antenna's{'' if free else ' and the ground'} losses included)")),
+                ("elevation of the maximum" if free else "take-off angle",
+                 _e(f"{r.takeoff_deg:.0f}° above the horizon, toward azimuth {r.azimuth_deg:.0f}°")),
+            )),
+        )
 
     def losses(self) -> str:
         """Where the power is lost. A line given by its measured loss has no physical split between

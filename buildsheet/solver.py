@@ -17,6 +17,7 @@ from buildsheet.layout import TIE_OFF_M, site_layout
 from buildsheet.physics import choke as choke_physics
 from buildsheet.physics import exposure as exposure_physics
 from buildsheet.physics import jpole
+from buildsheet.physics import radiation as radiation_physics
 from buildsheet.physics.coax import total_loss_db
 from buildsheet.physics.lines import DB_PER_NEPER, Line, input_impedance, reflection, swr
 
@@ -124,6 +125,7 @@ class Exposure:
     limit_controlled_w_m2: float
     limit_general_w_m2: float
     near_field_m: float
+    gain_source: str = "a half-wave dipole's gain"
 
 
 @dataclass(frozen=True)
@@ -171,6 +173,7 @@ class Solution:
     assumptions: tuple = ()
     #: physics.choke.SleeveChoke: the quarter-wave sleeve built instead of the coil above HF, or None
     sleeve: object = None
+    radiation: radiation_physics.Radiation | None = None
 
     @property
     def voltage_open_end_v_peak(self) -> float:
@@ -234,12 +237,26 @@ class Solution:
                          "distance_general_m": e.distance_general_m,
                          "limit_controlled_w_m2": e.limit_controlled_w_m2,
                          "limit_general_w_m2": e.limit_general_w_m2,
-                         "near_field_m": e.near_field_m},
+                         "near_field_m": e.near_field_m, "gain_source": e.gain_source},
             "sleeve_choke": None if self.sleeve is None else dataclasses.asdict(self.sleeve),
             "warnings": list(self.warnings),
             "rating_warnings": [f.to_dict() for f in self.findings],
             "assumptions": list(self.assumptions),
+            "radiation": radiation_json(self.radiation),
         }
+
+
+def radiation_json(r: radiation_physics.Radiation | None) -> dict | None:
+    """The pattern's figures and cuts for the JSON: degrees, dBi relative to the power delivered to
+    the tap."""
+    if r is None:
+        return None
+    return {"max_gain_dbi": r.max_gain_dbi, "takeoff_deg": r.takeoff_deg, "azimuth_deg": r.azimuth_deg,
+            "gain_reference": "power delivered to the tap", "ground": r.ground_kind,
+            "elevation_cut": {"azimuth_deg": r.azimuth_deg, "elevation_deg": r.elevation_deg.tolist(),
+                              "gain_dbi": r.elevation_gain_dbi.tolist()},
+            "azimuth_cut": {"elevation_deg": r.takeoff_deg, "azimuth_deg": r.azimuth_cut_deg.tolist(),
+                            "gain_dbi": r.azimuth_gain_dbi.tolist()}}
 
 
 # ----------------------------------------------------------------------------------------------
@@ -346,7 +363,7 @@ def solution_problems(solution: Solution) -> list[str]:
     # the JSON form, and every field itself (some, such as the wrap allowance, are not in the JSON)
     fields = {f.name: getattr(solution, f.name) for f in dataclasses.fields(solution)}
     fields = {k: (dataclasses.asdict(v) if dataclasses.is_dataclass(v) else v) for k, v in fields.items()
-              if k not in ("cut_list", "hardware", "sweep", "feed_impedance")}   # (in the JSON, as R, X)
+              if k not in ("cut_list", "hardware", "sweep", "feed_impedance", "radiation")}   # (in the JSON)
     numbers = list(_numbers(solution.to_dict(), "")) + list(_numbers(fields, ""))
     for where, value in numbers:
         try:
@@ -432,12 +449,15 @@ def _solve(design: Design) -> Solution:
     except ValueError as exc:       # the ground efficiency of a structure resting on sea water
         raise DesignError(" ".join(str(exc).split()), file=design.path, key="site.height") from None
     sens = jpole.sensitivities(f0, ant, radiator, stub, tap, z_feed, prepared=at_f0)
+    with np.errstate(all="ignore"):     # a null's log is floored, not warned about
+        pattern = radiation_physics.radiation(at_f0, radiator, stub, state.efficiency)
+        directivity = radiation_physics.free_space_directivity_dbi(at_f0, radiator, stub)
 
     ch = choke_physics.design_coax_choke(f0, high, design.feed.choke_form_m,
                                          design.feed.coax_outer_diameter_m, f_band_low=low)
     # exposure takes no credit for the power the ground absorbs (that happens in the ground's near
     # field under the antenna, where people stand): the field's share of what reaches the tap
-    exposure = _exposure(design, state.p_field / state.p_delivered, loss_db)
+    exposure = _exposure(design, state.p_field / state.p_delivered, loss_db, directivity)
     wrap = _wrap_allowance(design)
     line = ant.stub_line
     z0_line, gamma_line = line.z0_gamma(f0)
@@ -466,6 +486,7 @@ def _solve(design: Design) -> Solution:
                       "coax": design.power.transmitter_w - p_tap},
         sensitivity=sens._asdict(),
         choke=ch, exposure=exposure, first_cut=first, warnings=envelope_warnings(design), sleeve=sl,
+        radiation=pattern,
     )
 
 
@@ -577,12 +598,25 @@ def first_cut(design: Design, dims: Dimensions, stub_vf_model: float) -> FirstCu
                     stub_source=stub_source, radiator_source=radiator_source)
 
 
-def _exposure(design: Design, efficiency: float, coax_loss_db: float) -> Exposure:
+def exposure_gain(directivity_dbi: float) -> tuple[float, str]:
+    """(gain in dBi, its source) for the exposure estimate: a half-wave dipole's 2.15 dBi, or the
+    antenna's own free-space directivity (the model's currents, radiation.free_space_directivity_dbi)
+    where that is higher. Never lower than the dipole's: the pattern over the ground describes the
+    far field above the horizon, not the near field where people stand, so the OET 65 ground factor
+    stays and the pattern may only make the estimate more conservative."""
+    if directivity_dbi > HALF_WAVE_GAIN_DBI:
+        return directivity_dbi, "the antenna's free-space directivity"
+    return HALF_WAVE_GAIN_DBI, "a half-wave dipole's gain"
+
+
+def _exposure(design: Design, efficiency: float, coax_loss_db: float,
+              directivity_dbi: float) -> Exposure:
     """Screening distances (OET Bulletin 65 far-field formula with the 2.56 ground-reflection factor)
-    at the band edge where the limit is strictest."""
+    at the band edge where the limit is strictest, with the gain of exposure_gain."""
     p = design.power
     avg = exposure_physics.average_power(p.transmitter_w, p.duty_factor, p.on_air)
-    gain = 10 ** (HALF_WAVE_GAIN_DBI / 10)
+    gain_dbi, source = exposure_gain(directivity_dbi)
+    gain = 10 ** (gain_dbi / 10)
     eirp = avg * 10 ** (-coax_loss_db / 10) * efficiency * gain
     low, high = design.band_hz
     edges = np.array([low, design.frequency_hz, high])
@@ -593,11 +627,12 @@ def _exposure(design: Design, efficiency: float, coax_loss_db: float) -> Exposur
     controlled = float(np.min(controlled))
     general = float(np.min(general))
     return Exposure(
-        standard=p.exposure_standard, average_power_w=avg, gain_dbi=HALF_WAVE_GAIN_DBI, eirp_w=eirp,
+        standard=p.exposure_standard, average_power_w=avg, gain_dbi=gain_dbi, eirp_w=eirp,
         distance_controlled_m=float(exposure_physics.compliance_distance(eirp, controlled)),
         distance_general_m=float(exposure_physics.compliance_distance(eirp, general)),
         limit_controlled_w_m2=controlled, limit_general_w_m2=general,
         near_field_m=float(exposure_physics.reactive_near_field_limit(design.frequency_hz)),
+        gain_source=source,
     )
 
 

@@ -25,6 +25,14 @@ def _off(span, L) -> str:
     return f"up to {L(high)} longer" if high > 0 else f"up to {L(-low)} shorter"
 
 
+def radiation_line(r) -> str:
+    """The pattern's two figures in one line (gain relative to the power delivered to the tap)."""
+    where = "in free space" if r.ground_kind == "free-space" else "over the ground"
+    angle = "elevation of the maximum" if r.ground_kind == "free-space" else "take-off angle"
+    return (f"  radiation {where}: maximum gain {r.max_gain_dbi:.1f} dBi (relative to the power delivered "
+            f"to the tap), {angle} {r.takeoff_deg:.0f}\u00b0")
+
+
 def summary_text(design: Design, s: Solution) -> str:
     u = design.output.units
     L = lambda m: units.format_length(m, u)  # noqa: E731 - a local shorthand
@@ -88,6 +96,8 @@ def summary_text(design: Design, s: Solution) -> str:
         f"{units.format_voltage(s.voltage_far_end_v_peak)} peak")
     add(f"  current through the short: {units.format_current(s.current_short_a_rms)} rms")
     add(f"  efficiency (radiated / delivered to the tap): {units.format_percent(s.efficiency)}")
+    if s.radiation is not None:
+        add(radiation_line(s.radiation))
     c = s.choke
     coil = (f"  choke: {c.turns} turn{'s' if c.turns != 1 else ''} of {design.feed.coax} on a "
             f"{L(c.form_diameter_m)} form, coil {L(c.coil_length_m)} long, {c.inductance_h * 1e6:.2f} uH")
@@ -112,7 +122,7 @@ def summary_text(design: Design, s: Solution) -> str:
     e = s.exposure
     standard = {"us-fcc": "47 CFR 1.1310 (US FCC)", "icnirp-2020": "ICNIRP 2020"}[e.standard]
     add(f"  RF exposure ({standard}, {units.format_power(e.average_power_w)} average, "
-        f"{e.gain_dbi:.2f} dBi): keep people {units.format_distance(e.distance_general_m, u)} away "
+        f"{e.gain_dbi:.2f} dBi, {e.gain_source}): keep people {units.format_distance(e.distance_general_m, u)} away "
         f"(general public), {units.format_distance(e.distance_controlled_m, u)} (controlled)")
     if e.distance_general_m < e.near_field_m:
         add(f"    these distances lie inside the reactive near field ({units.format_distance(e.near_field_m, u)})"

@@ -20,6 +20,7 @@ import pathlib
 import pytest
 
 from buildsheet.cli import main
+from buildsheet.drawing.figures import FIGURES
 from buildsheet.writers import files
 
 ROOT = pathlib.Path(__file__).resolve().parent.parent
@@ -103,7 +104,7 @@ def _killed_build(out, date, die_at: tuple[str, int]):
     return p.exitcode
 
 
-N_FILES = 8     # the PDF and 7 SVGs of a build
+N_FILES = 1 + len(FIGURES)     # the PDF and the SVGs of a build
 
 
 # a kill before the first rename, after the first, in the middle, before the last; while writing

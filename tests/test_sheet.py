@@ -80,7 +80,7 @@ def test_sections_follow_design_md_8(solved):
     details = [b for b in sheet.section("details").blocks if isinstance(b, Figures)]
     assert [k for b in details for k in b.keys] == ["radiator", "stub", "short-tap", "choke"]
     perf = [k for b in sheet.section("performance").blocks if isinstance(b, Figures) for k in b.keys]
-    assert perf == ["swr", "smith"]
+    assert perf == ["swr", "smith", "pattern"]
     log = [b for b in sheet.section("log").blocks if isinstance(b, WriteIn)]
     assert log and log[0].min_rows >= 10
     assert [h.lower() for h in log[0].header] == ["#", "frequency", "swr", "r (ω)", "x (ω)",

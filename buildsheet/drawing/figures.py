@@ -22,7 +22,7 @@ import numpy as np
 
 from buildsheet import fonts, units
 from buildsheet.design import Design
-from buildsheet.drawing import plots
+from buildsheet.drawing import plots, polar
 from buildsheet.drawing.shapes import (TEXT_GAP, TEXT_SIZE, THIN, Arc, Box, BreakMark, Circle,
                                        Dimension, Drawing, Hatch, Leader, Line, Polyline, Rect, Text,
                                        clip_segment)
@@ -31,7 +31,7 @@ from buildsheet.solver import RIGID_DIAMETER_M, Solution
 from buildsheet.stock import conductor_size
 
 #: figure keys in the order a builder reads them (also the order of the SVG files)
-FIGURES = ("overview", "radiator", "stub", "short-tap", "choke", "swr", "smith")
+FIGURES = ("overview", "radiator", "stub", "short-tap", "choke", "swr", "smith", "pattern")
 
 WIDTH = 500.0          # figure width, points: fits the text width of letter and A4 pages unscaled
 SMITH_WIDTH = 380.0
@@ -1194,6 +1194,23 @@ def _smith(ctx: _Context) -> Drawing:
     return _with_strip(ctx, plot, "Smith chart of the feed impedance", [])
 
 
+def _pattern(ctx: _Context) -> Drawing:
+    r = ctx.solution.radiation
+    free = r.ground_kind == "free-space"
+    plot = polar.pattern_plot(r.elevation_deg, r.elevation_gain_dbi, r.azimuth_cut_deg,
+                              r.azimuth_gain_dbi, r.max_gain_dbi, r.takeoff_deg, r.azimuth_deg, free,
+                              WIDTH, "Radiation pattern (predicted), gain in dBi")
+    site = ctx.design.site
+    zero = ("the direction the radiator runs from the stub" if site.orientation != "vertical" else
+            "from the stub toward the conductor that carries the radiator")
+    where = "in free space" if free else "over the site's ground (direct and ground-reflected wave)"
+    notes = [f"Gain relative to the power delivered to the tap: the antenna's losses"
+             f"{'' if free else ' and the ground loss'} taken off. Computed {where} from the model's "
+             f"currents on the radiator and the stub at {units.format_frequency(ctx.solution.frequency_hz)}; "
+             f"rings 10 dB apart. Azimuth 0\u00b0: {zero}."]
+    return _with_strip(ctx, plot, "Radiation pattern", notes)
+
+
 # ---------------------------------------------------------------- all figures
 
 def figures(design: Design, solution: Solution, date: str) -> dict[str, Drawing]:
@@ -1201,5 +1218,5 @@ def figures(design: Design, solution: Solution, date: str) -> dict[str, Drawing]
     printed in each title strip (YYYY-MM-DD)."""
     ctx = _Context(design, solution, date)
     builders = {"overview": _overview, "radiator": _radiator, "stub": _stub, "short-tap": _short_tap,
-                "choke": _choke, "swr": _swr, "smith": _smith}
+                "choke": _choke, "swr": _swr, "smith": _smith, "pattern": _pattern}
     return {key: builders[key](ctx) for key in FIGURES}
