@@ -65,6 +65,7 @@ from buildsheet import record, units
 from buildsheet.design import DATE_FORMAT, Calibration, Design, design_from_text, parse_date
 from buildsheet.errors import DesignError, RecordError, SweepError, one_line
 from buildsheet.physics import jpole
+from buildsheet.schema import CALIBRATION_RANGE
 from buildsheet.solver import Dimensions, antenna_model, solve
 from buildsheet.touchstone import Sweep
 
@@ -92,8 +93,6 @@ _STARTS = 2
 CALIBRATION_TOLERANCE_M = 0.5e-3
 #: calibration values are written to this many significant digits
 CALIBRATION_DIGITS = 6
-#: the range design.py accepts for every calibration parameter
-CALIBRATION_RANGE = (0.5, 2.0)
 
 
 @dataclass(frozen=True, eq=False)
@@ -222,7 +221,7 @@ def _model(design: Design, cal: Calibration) -> _Model:
 
 def calibration_bounds(design: Design) -> tuple[tuple[float, float], ...]:
     """(lo, hi) of radiator_scale, end_resistance_scale, stub_velocity_scale that the design
-    validator accepts: CALIBRATION_RANGE for each (design.py)."""
+    validator accepts: CALIBRATION_RANGE for each (schema.py)."""
     return (CALIBRATION_RANGE,) * 3
 
 

@@ -51,14 +51,14 @@ import yaml
 
 from buildsheet import units
 from buildsheet.design import DATE_FORMAT, Design, RecordEntry, design_from_text, parse_date
+from buildsheet.schema import ENTRY_KEYS
+from buildsheet.solver import check_geometry
 from buildsheet.errors import BuildsheetError, DesignError, RecordError, one_line
 from buildsheet.yamlread import MAX_BYTES
 from buildsheet.writers.files import fsync_dir, read_capped
 
 BACKUP_SUFFIX = ".bak"
 
-#: the keys of an entry (DESIGN.md §4), in the order they are written
-ENTRY_KEYS = ("date", "site", "radiator", "stub", "tap", "resonance", "swr", "note")
 #: the command-line option of each key, so that a refusal names what the user typed
 OPTIONS = {**{k: f"--{k}" for k in ENTRY_KEYS}, "stub": "--short"}
 
@@ -103,6 +103,7 @@ def add_entry(path: str | os.PathLike, fields: Mapping[str, str]) -> Added:
         except UnicodeDecodeError as exc:
             raise DesignError(f"is not UTF-8 text (byte {exc.start + len(bom)})", file=path) from None
         old = design_from_text(text, path)
+        check_geometry(old)
         new_text = splice(text, written)
         new = _read_back(new_text, old, expected, path)
         backup = _replace(path, raw, before, bom + new_text.encode("utf-8"))

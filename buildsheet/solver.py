@@ -18,6 +18,7 @@ from buildsheet.physics import exposure as exposure_physics
 from buildsheet.physics import jpole
 from buildsheet.physics.coax import total_loss_db
 from buildsheet.physics.lines import DB_PER_NEPER, Line, input_impedance, reflection, swr
+from buildsheet.schema import RULES, deg, metres
 
 FT = 0.3048
 SWEEP_POINTS = 241
@@ -380,20 +381,7 @@ def _solve(design: Design) -> Solution:
     ant = antenna_model(design)
     f0 = design.frequency_hz
     z_feed = design.feed.impedance_ohm
-    try:
-        # a search that wanders outside the physical region is refused below; its numpy warnings
-        # would only be noise on the user's terminal
-        with np.errstate(all="ignore"):
-            at_f0 = jpole.at_frequency(f0, ant)
-            radiator = jpole.resonant_radiator_length(f0, ant, prepared=at_f0)
-            stub, tap = jpole.solve_match(f0, z_feed, ant, radiator, prepared=at_f0)
-    except ValueError as exc:
-        why = " ".join(str(exc).split())
-        raise DesignError(f"cannot be matched to {z_feed:g} ohm with this line and wire "
-                          f"(a very lossy or unusual line?): {why}",
-                          file=design.path, key="stub.line") from None
-
-    _check_clearance(design, radiator, stub)
+    radiator, stub, tap, at_f0 = _match(design, ant)
 
     low, high = design.band_hz
     f = np.linspace(low * (1 - SWEEP_MARGIN), high * (1 + SWEEP_MARGIN), SWEEP_POINTS)
@@ -481,23 +469,87 @@ def envelope_warnings(design: Design) -> tuple[str, ...]:
     return tuple(out)
 
 
-def _check_clearance(design: Design, radiator: float, stub: float) -> None:
-    """The solved radiator and stub must stay above ground: the model's image theory does not hold for
-    a wire that reaches the ground (a radiator through its own image gives a negative radiation
-    resistance). design.py checks estimates; this checks the lengths actually solved."""
+def check_stub_clearance(design: Design, stub: float) -> None:
+    """The solved stub's short must clear the ground by schema.RULES' clearance (the README's
+    Limits): the length is the solved one, calibration included, and the model's image theory does
+    not hold for a wire that reaches the ground. stub: m."""
     site = design.site
-    if site.orientation == "vertical":
+    clearance = RULES["stub_clears_ground"].value
+    bottom = site.height_m - stub
+    if site.orientation != "vertical" and bottom < clearance:
+        raise design.fail("site.height", f"{metres(site.height_m)} leaves the stub's short {metres(bottom)} "
+                          f"above ground (the solved stub is {metres(stub)} long); raise the open top to "
+                          f"at least {metres(stub + clearance)} or hang the antenna as a sloper with a "
+                          "higher top")
+
+
+def check_far_end_clearance(design: Design, radiator: float, solved: bool = True) -> None:
+    """As check_stub_clearance, for the far end of a sloper's solved radiator (a radiator through its
+    own image gives a negative radiation resistance). radiator: m; solved False: the half wave
+    estimated where no radiator could be solved."""
+    site = design.site
+    clearance = RULES["far_end_clears_ground"].value
+    far = site.height_m - radiator * math.sin(site.slope_rad)
+    if site.orientation == "sloper" and far < clearance:
+        raise design.fail("site.slope", f"a {deg(site.slope_rad)} slope from {metres(site.height_m)} puts "
+                          f"the radiator's far end {metres(far)} above ground (the "
+                          f"{'solved radiator is' if solved else 'radiator is about'} {metres(radiator)}); "
+                          "use a smaller slope or a higher top")
+
+
+def check_geometry(design: Design) -> None:
+    """What `check` adds to validation: the ground clearance of the solved geometry (a design the
+    model cannot match is left to `solve`, which says why)."""
+    if design.site.orientation == "vertical":
         return
-    if site.height_m - stub <= 0:
-        raise DesignError(f"the solved stub ({stub:.2f} m) is longer than the open top is high "
-                          f"({site.height_m:.2f} m): the short would be below ground; raise the open top",
-                          file=design.path, key="site.height")
-    if site.orientation == "sloper":
-        far = site.height_m - radiator * math.sin(site.slope_rad)
-        if far <= 0:
-            raise DesignError(f"the solved radiator ({radiator:.2f} m) at this slope reaches "
-                              f"{-far:.2f} m below ground from a {site.height_m:.2f} m top; use a "
-                              "smaller slope or a higher top", file=design.path, key="site.slope")
+    try:
+        solved_lengths(design)
+    except DesignError as exc:
+        if exc.key == "stub.line":
+            return
+        raise
+
+
+def solved_lengths(design: Design, *, clearance: bool = True) -> tuple:
+    """(radiator, stub, tap), m: the radiator resonant at the design frequency and the stub and tap
+    that match it to the feed impedance (jpole.solve_match), each checked for ground clearance
+    unless `clearance` is False (to find where the limit lies)."""
+    return _match(design, antenna_model(design), clearance)[:3]
+
+
+def _match(design: Design, ant, clearance: bool = True) -> tuple:
+    """solved_lengths and the model prepared at the design frequency (for what follows)."""
+    f0, z_feed = design.frequency_hz, design.feed.impedance_ohm
+    # a search that wanders outside the physical region is refused below; its numpy warnings would
+    # only be noise on the user's terminal
+    try:
+        with np.errstate(all="ignore"):
+            at_f0 = jpole.at_frequency(f0, ant)
+            radiator = jpole.resonant_radiator_length(f0, ant, prepared=at_f0)
+    except ValueError as exc:
+        if clearance:
+            # no resonant radiator: on a low sloper, because every length searched runs through the
+            # ground (where image theory fails); the half wave the search centres on says so
+            rad = design.radiator
+            check_far_end_clearance(design, rad.velocity_factor / design.calibration.radiator_scale
+                                    * design.wavelength_m / 2, solved=False)
+        raise _unmatched(design, exc) from None
+    if clearance:
+        check_far_end_clearance(design, radiator)
+    try:
+        with np.errstate(all="ignore"):
+            stub, tap = jpole.solve_match(f0, z_feed, ant, radiator, prepared=at_f0)
+    except ValueError as exc:
+        raise _unmatched(design, exc) from None
+    if clearance:
+        check_stub_clearance(design, stub)
+    return radiator, stub, tap, at_f0
+
+
+def _unmatched(design: Design, exc: ValueError) -> DesignError:
+    why = " ".join(str(exc).split())
+    return DesignError(f"cannot be matched to {design.feed.impedance_ohm:g} ohm with this line and wire "
+                       f"(a very lossy or unusual line?): {why}", file=design.path, key="stub.line")
 
 
 def velocity_factor_text(*values: float) -> str:
