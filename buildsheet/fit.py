@@ -1,7 +1,7 @@
 """Measured sweep -> fitted model -> trim advice and calibration: owns fitting the antenna model to an
 impedance sweep measured at the tap, the advice on the short, the tap and the radiator, and writing the
 fitted calibration into the design file. It must not change the model (physics/), the schema, or any
-file but the design file and its backup (the splice helpers and the atomic replace are record.py's).
+file but the design file and its backup (changed through editing.update_design).
 
 Symbols (SI: Hz, m, ohm):
     f, f0        sweep frequencies and the design frequency
@@ -61,7 +61,8 @@ import numpy as np
 import yaml
 from scipy.optimize import brentq, least_squares, root
 
-from buildsheet import record, units
+from buildsheet import units
+from buildsheet.editing import after_block, find_key, newline, put_block, scalar, top_level, update_design
 from buildsheet.design import DATE_FORMAT, Calibration, Design, design_from_text, parse_date
 from buildsheet.errors import DesignError, RecordError, SweepError, one_line
 from buildsheet.physics import jpole
@@ -519,7 +520,7 @@ def fit_text(fit: Fit, written: dict | None = None) -> str:
 
 
 # ----------------------------------------------------------------------------------------------
-# Writing the calibration into the design file (record.py's splice helpers and atomic replace)
+# Writing the calibration into the design file (editing.py's splice helpers and update)
 
 def sweep_date(path: str) -> str:
     """The sweep file's modification date, YYYY-MM-DD (UTC): when it was measured, as far as a file
@@ -534,42 +535,25 @@ def splice_calibration(text: str, cal: Calibration) -> str:
     """`text` with its `calibration:` value replaced by `cal` (a block mapping); every character
     outside that value is kept. No `calibration:` key: one is added at the end of the top-level
     mapping. Raises RecordError for a document written as one flow mapping."""
-    root = yaml.compose(text, Loader=yaml.SafeLoader)
-    if not isinstance(root, yaml.MappingNode) or root.flow_style:
-        raise RecordError("is written as one flow mapping {...}; write the file as a block mapping "
-                          "(one key per line) to store a calibration")
-    nl = record._newline(text)
-    base = root.start_mark.column
+    root = top_level(text, "store the calibration by hand")
+    nl = newline(text)
     entries = [("radiator_scale", repr(cal.radiator_scale)),
                ("end_resistance_scale", repr(cal.end_resistance_scale)),
                ("stub_velocity_scale", repr(cal.stub_velocity_scale)),
-               ("source", record.scalar(cal.source)), ("date", record.scalar(cal.date))]
+               ("source", scalar(cal.source)), ("date", scalar(cal.date))]
 
     def block(column: int) -> str:
         return "".join(f"{' ' * column}{key}: {value}{nl}" for key, value in entries)
 
-    for key, value in root.value:
-        if key.value == "calibration":
-            break
-    else:
-        end = root.end_mark.index
-        return (text[:end] + record._lead(text, end, nl) + " " * base + "calibration:" + nl
-                + block(base + record._indent(root)) + text[end:])
+    found = find_key(root, "calibration")
+    value = found[1] if found else None
     if isinstance(value, yaml.MappingNode) and value.value:
         if value.flow_style:
             flow = "{" + ", ".join(f"{k}: {v}" for k, v in entries) + "}"
             return text[:value.start_mark.index] + flow + text[value.end_mark.index:]
         column = value.start_mark.column
-        end = record._last_leaf(value).end_mark
-        at = end.index if end.column == 0 else record._line_end(text, end.index)
-        return text[:value.start_mark.index - column] + block(column) + text[at:]
-    # an empty value ({}, ~, null or nothing): drop it, keep a comment after it, put the block below
-    start, end = value.start_mark.index, value.end_mark.index
-    while start > key.end_mark.index and text[start - 1] in " \t":
-        start -= 1
-    at = record._line_end(text, end)
-    return (text[:start] + text[end:at] + record._lead(text, at, nl)
-            + block(base + record._indent(root)) + text[at:])
+        return text[:value.start_mark.index - column] + block(column) + text[after_block(text, value):]
+    return put_block(text, root, "calibration", block)
 
 
 def write_calibration(path: str, fit: Fit, date: str | None = None) -> dict:
@@ -583,37 +567,26 @@ def write_calibration(path: str, fit: Fit, date: str | None = None) -> dict:
     when = parse_date(date) if date is not None else sweep_date(fit.sweep.path)
     if when is None:
         raise RecordError(f"must be {DATE_FORMAT}, got '{one_line(str(date))}'", key="--date")
-    with record.design_lock(path):
-        return _write_calibration(path, fit, when)
-
-
-def _write_calibration(path: str, fit: Fit, when) -> dict:
-    raw, before = record._read(path)
-    bom = record._BOM if raw.startswith(record._BOM) else b""
-    try:
-        text = raw[len(bom):].decode("utf-8")
-    except UnicodeDecodeError as exc:
-        raise DesignError(f"is not UTF-8 text (byte {exc.start + len(bom)})", file=path) from None
-    old = design_from_text(text, path)
-    if old.with_changes(output=fit.design.output) != fit.design:
-        raise RecordError("changed since it was read for the fit; nothing was written: run the command "
-                          "again", file=path)
     cal = dataclasses.replace(fit.calibration, source=os.path.basename(fit.sweep.path), date=when)
-    new_text = splice_calibration(text, cal)
-    try:
-        new = design_from_text(new_text, path)
-    except DesignError as exc:
-        raise RecordError(f"the calibration cannot be stored ({exc.problem}); nothing was written",
-                          file=path, key=exc.key) from None
-    if new != old.with_changes(calibration=cal):
-        raise RecordError("the file with the calibration does not read back as the old design with the "
-                          "new calibration; nothing was written (please report this file)", file=path)
-    got = solve(new).dimensions
-    diff = np.abs(np.array([got.radiator, got.stub, got.tap]) - np.array(fit.advised))
-    if np.max(diff) > CALIBRATION_TOLERANCE_M:
-        raise RecordError("`solve` with this calibration would not give the advised dimensions (off by "
-                          f"{np.max(diff) * 1e3:.1f} mm: this version of the model does not apply every "
-                          "calibration parameter yet); nothing was written: make the moves by hand",
-                          file=path)
-    backup = record._replace(path, raw, before, bom + new_text.encode("utf-8"))
-    return {"design": path, "backup": backup, "design_id": new.document_id}
+
+    def change(text: str, old: Design):
+        if old.with_changes(output=fit.design.output) != fit.design:
+            raise RecordError("changed since it was read for the fit; nothing was written: run the "
+                              "command again", file=path)
+        return splice_calibration(text, cal), old.with_changes(calibration=cal)
+
+    def refused(exc: DesignError, old: Design):
+        return RecordError(f"the calibration cannot be stored ({exc.problem}); nothing was written",
+                           file=path, key=exc.key)
+
+    def verify(old: Design, new: Design) -> None:
+        got = solve(new).dimensions
+        diff = np.abs(np.array([got.radiator, got.stub, got.tap]) - np.array(fit.advised))
+        if np.max(diff) > CALIBRATION_TOLERANCE_M:
+            raise RecordError("`solve` with this calibration would not give the advised dimensions (off "
+                              f"by {np.max(diff) * 1e3:.1f} mm: this version of the model does not apply "
+                              "every calibration parameter yet); nothing was written: make the moves by "
+                              "hand", file=path)
+
+    done = update_design(path, change, refused=refused, verify=verify, what="the calibration")
+    return {"design": path, "backup": done.backup, "design_id": done.new.document_id}

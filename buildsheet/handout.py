@@ -16,17 +16,17 @@ import dataclasses
 import os
 import signal
 import sys
-from collections.abc import Callable, Mapping, Sequence
-from dataclasses import dataclass
+from collections.abc import Callable, Sequence
 
 from markupsafe import escape
 
 from buildsheet import fonts, units
 from buildsheet.design import Design, load_design, revision_date
 from buildsheet.drawing.figures import figures
-from buildsheet.drawing.shapes import Drawing
 from buildsheet.errors import BuildsheetError, one_line
-from buildsheet.sheet import Para, Section, Sheet, Table, build_sheet, render_blocks
+from buildsheet.blocks import Booklet, Contents, ContentsEntry, Cover, PageRef, Part  # noqa: F401
+from buildsheet.blocks import Para, Section, Table
+from buildsheet.sheet import build_sheet, render_blocks
 from buildsheet.solver import Solution, solve
 
 DEFAULT_TITLE = "Antenna build sheets"
@@ -34,69 +34,6 @@ DEFAULT_TITLE = "Antenna build sheets"
 MAX_TEXT_CHARS = 120
 SUMMARY_COLUMNS = ("design", "band", "design frequency", "radiator", "stub", "tap", "stub line",
                    "predicted 2:1 band", "page")
-
-
-# ----------------------------------------------------------------------------------------------
-# Blocks of the booklet's own pages (besides sheet.py's)
-
-@dataclass(frozen=True)
-class PageRef:
-    """The booklet page on which the part named `key` starts (a table cell; the writer fills it in)."""
-    key: str
-
-
-@dataclass(frozen=True)
-class ContentsEntry:
-    title: str
-    detail: str
-    key: str
-
-
-@dataclass(frozen=True)
-class Contents:
-    """The contents: one entry per part, each with the page its part starts on."""
-    entries: tuple
-
-
-@dataclass(frozen=True)
-class Cover:
-    """The cover page: title, event (may be empty), date, label and value rows, a caution."""
-    title: str
-    event: str
-    date: str
-    facts: tuple
-    note: str
-
-
-@dataclass(frozen=True)
-class Part:
-    """One design prepared for the booklet: its sheet and figures, and its row of the summary."""
-    key: str
-    sheet: Sheet
-    drawings: Mapping[str, Drawing]
-    band: str                  # the band's name, or its edges, plain text
-    frequency_hz: float
-    v_peak_v: float            # the highest voltage of the design, at either open end, V peak
-    power_w: float             # the transmitter's PEP those voltages are for, W
-    row: tuple
-
-
-@dataclass(frozen=True)
-class Booklet:
-    """The whole handout: page furniture of its own pages (plain text), the cover, the front
-    sections (safety, contents, summary) and the sheets, in order."""
-    title: str
-    event: str
-    date: str
-    paper: str
-    subtitle: str
-    furniture: tuple
-    page_label: str
-    footer: str
-    subject: str
-    cover: Cover
-    front: tuple
-    sheets: tuple
 
 
 # ----------------------------------------------------------------------------------------------

@@ -23,7 +23,6 @@ from __future__ import annotations
 import importlib.resources
 import math
 import re
-from dataclasses import dataclass
 from pathlib import Path
 
 import jinja2
@@ -31,6 +30,8 @@ import numpy as np
 from markupsafe import escape
 
 from buildsheet import units
+from buildsheet.blocks import (Facts, Figures, Heading, KeyFigure, KeyFigures, Para, Section, Sheet,  # noqa: F401
+                               Steps, Table, WriteIn)
 from buildsheet.design import Design
 from buildsheet.solver import RIGID_DIAMETER_M, Solution, velocity_factor_text
 
@@ -66,102 +67,6 @@ STANDARD_NAMES = {"us-fcc": "47 CFR 1.1310", "icnirp-2020": "ICNIRP 2020"}
 #: the exposure categories in each standard's own words: (controlled, general)
 CATEGORY_NAMES = {"us-fcc": ("occupational/controlled", "general population/uncontrolled"),
                   "icnirp-2020": ("occupational", "general public")}
-
-
-# ----------------------------------------------------------------------------------------------
-# Blocks
-
-@dataclass(frozen=True)
-class Heading:
-    """A subheading inside a section."""
-    text: str
-
-
-@dataclass(frozen=True)
-class Para:
-    """A paragraph; style: body | note | caution."""
-    text: str
-    style: str = "body"
-
-
-@dataclass(frozen=True)
-class Steps:
-    """Numbered steps."""
-    items: tuple
-
-
-@dataclass(frozen=True)
-class KeyFigure:
-    label: str
-    value: str
-    meaning: str
-
-
-@dataclass(frozen=True)
-class KeyFigures:
-    """The key dimensions, printed large."""
-    figures: tuple
-
-
-@dataclass(frozen=True)
-class Facts:
-    """Label and value rows."""
-    rows: tuple
-
-
-@dataclass(frozen=True)
-class Table:
-    """A table: header, rows, relative column widths, alignment per column (left | right).
-    boxes: per row, how many check boxes to draw in an extra first column (None: no such column);
-    blank_rows: ruled empty rows after the rows, tall enough to write in by hand."""
-    header: tuple
-    rows: tuple
-    widths: tuple
-    align: tuple
-    boxes: tuple | None = None
-    blank_rows: int = 0
-
-
-@dataclass(frozen=True)
-class WriteIn:
-    """Blank ruled rows to fill in by hand: at least min_rows, more if the page has room."""
-    header: tuple
-    widths: tuple
-    min_rows: int
-
-
-@dataclass(frozen=True)
-class Figures:
-    """Drawings by their key in figures(); set side by side where they fit."""
-    keys: tuple
-
-
-@dataclass(frozen=True)
-class Section:
-    key: str
-    title: str
-    blocks: tuple
-    new_page: bool = False
-
-
-@dataclass(frozen=True)
-class Sheet:
-    """The whole sheet: page furniture (plain text) and sections in order (markup)."""
-    title: str
-    name: str
-    document_id: str
-    date: str
-    paper: str
-    units: str
-    subtitle: str             # under the title in the title block
-    furniture: tuple          # the title block's right-hand lines: name, document ID (bold), date
-    page_label: str           # with {page} and {pages}
-    footer: str
-    subject: str              # PDF metadata
-    sections: tuple
-
-    def section(self, key: str) -> Section:
-        return next(s for s in self.sections if s.key == key)
 
 
 # ----------------------------------------------------------------------------------------------

@@ -42,7 +42,7 @@ from dataclasses import dataclass
 import numpy as np
 
 from buildsheet.errors import SweepError
-from buildsheet.writers.files import decode_text, read_capped
+from buildsheet.reading import decode_text, read_capped
 
 MAX_BYTES = 8 * 1024 * 1024
 #: most points a sweep may hold: a fit's cost grows with the points, and analysers give at most a
