@@ -66,6 +66,7 @@ from buildsheet.editing import after_block, find_key, newline, put_block, scalar
 from buildsheet.design import DATE_FORMAT, Calibration, Design, design_from_text, parse_date
 from buildsheet.errors import DesignError, RecordError, SweepError, one_line
 from buildsheet.physics import jpole
+from buildsheet.physics.lines import reflection, swr_of
 from buildsheet.schema import CALIBRATION_RANGE
 from buildsheet.solver import Dimensions, antenna_model, solve
 from buildsheet.touchstone import Sweep
@@ -245,7 +246,7 @@ def check_coverage(sweep: Sweep, z_ref: float) -> int:
         raise SweepError(f"reflects all the power at every point (|S11| >= 1 on {z_ref:g} ohm even at "
                          "its best): no antenna is connected there, or the analyzer is not calibrated",
                          file=sweep.path)
-    lowest = f"its lowest SWR ({_swr(mag[i]):.2f}, at {units.format_frequency(f[i])})"
+    lowest = f"its lowest SWR ({swr_of(mag[i]):.2f}, at {units.format_frequency(f[i])})"
     advice = ("sweep a range with the lowest SWR well inside it, a few points beyond it on each side; "
               "the fit does not guess from a sweep that does not show the match")
     if i < EDGE_POINTS or i > n - 1 - EDGE_POINTS:
@@ -260,13 +261,6 @@ def check_coverage(sweep: Sweep, z_ref: float) -> int:
     return i
 
 
-def _swr(mag):
-    """SWR from |rho|; inf from |rho| = 1 up (a sweep of a faulty or badly calibrated analyser)."""
-    mag = np.minimum(np.asarray(mag, dtype=float), 1.0)
-    with np.errstate(divide="ignore"):
-        return (1.0 + mag) / (1.0 - mag)
-
-
 def _fit_electrical(model: _Model, f, rho_meas, w, z_ref, D0: Dimensions, fit_radiator: bool,
                     start=None):
     """Least squares of the weighted reflection residual over the fractions (S/S0, T/T0) and, if
@@ -275,7 +269,7 @@ def _fit_electrical(model: _Model, f, rho_meas, w, z_ref, D0: Dimensions, fit_ra
     def residual(x):
         lf = x[2] if fit_radiator else 1.0
         z = model.z_feed(f, D0.radiator * lf, D0.stub * x[0], D0.tap * x[1])
-        r = ((z - z_ref) / (z + z_ref) - rho_meas) * w
+        r = (reflection(z, z_ref) - rho_meas) * w
         return np.concatenate([r.real, r.imag])
 
     bounds = [ELECTRICAL_BOUNDS[1], ELECTRICAL_BOUNDS[2]] + ([ELECTRICAL_BOUNDS[0]] if fit_radiator else [])
@@ -348,11 +342,11 @@ def fit_sweep(design: Design, sweep: Sweep, built: Dimensions | None = None) -> 
     rounded = {key: units.parse_quantity(units.format_length(m, u), "length") for key, m in moves.items()}
     after = (E[0] + rounded["radiator"], E[1] - rounded["short"],
              E[2] + rounded["tap"] - rounded["short"])
-    swr_after = float(_swr(abs(_rho(model0.z_feed(f0, *after)[0], z_ref))))
+    swr_after = float(swr_of(abs(reflection(model0.z_feed(f0, *after)[0], z_ref))))
     swr_before = None
     if f[0] <= f0 <= f[-1]:
         rho0 = np.interp(f0, f, rho_meas.real) + 1j * np.interp(f0, f, rho_meas.imag)
-        swr_before = float(_swr(abs(rho0)))
+        swr_before = float(swr_of(abs(rho0)))
     i_best = int(np.argmin(np.abs(rho_meas)))
     return Fit(
         design=design, sweep=sweep, units=u, built=D0, electrical=tuple(float(e) for e in E),
@@ -360,8 +354,8 @@ def fit_sweep(design: Design, sweep: Sweep, built: Dimensions | None = None) -> 
         advised=tuple(float(a) for a in advised), moves_m=moves,
         moves_rounded_m=rounded, calibration=calibration, calibration_note=note, z_fit=z_fit,
         fit_rms_ohm=float(np.sqrt(np.mean(np.abs(z_fit - sweep.z_ohm) ** 2))),
-        fit_rms_reflection=float(np.sqrt(np.mean(np.abs(_rho(z_fit, z_ref) - rho_meas) ** 2))),
-        swr_before=swr_before, best_hz=float(f[i_best]), best_swr=float(_swr(abs(rho_meas[i_best]))),
+        fit_rms_reflection=float(np.sqrt(np.mean(np.abs(reflection(z_fit, z_ref) - rho_meas) ** 2))),
+        swr_before=swr_before, best_hz=float(f[i_best]), best_swr=float(swr_of(abs(rho_meas[i_best]))),
         swr_after=swr_after)
 
 
@@ -374,10 +368,6 @@ def _thinned(n: int, must: int) -> np.ndarray:
     if n <= FIT_POINTS:
         return np.arange(n)
     return np.union1d(np.round(np.linspace(0, n - 1, FIT_POINTS)).astype(int), [must])
-
-
-def _rho(z, z_ref):
-    return (z - z_ref) / (z + z_ref)
 
 
 def _calibrate(design: Design, model0: _Model, E, D0: Dimensions, target, retune: bool):

@@ -26,7 +26,7 @@ from buildsheet.drawing.figures import figures
 from buildsheet.errors import BuildsheetError, one_line
 from buildsheet.blocks import Booklet, Contents, ContentsEntry, Cover, PageRef, Part  # noqa: F401
 from buildsheet.blocks import Para, Section, Table
-from buildsheet.sheet import build_sheet, render_blocks
+from buildsheet.sheet import build_sheet, line_text, render_blocks
 from buildsheet.solver import Solution, solve
 
 DEFAULT_TITLE = "Antenna build sheets"
@@ -284,16 +284,6 @@ def _summary(parts: Sequence[Part]) -> tuple:
     )
 
 
-def _line(design: Design, u: str) -> str:
-    """The stub line in a few words: its catalogue name, or what it was given by."""
-    stub = design.stub
-    if stub.name != "custom":
-        return stub.name
-    if stub.kind == "geometry":
-        return f"two-wire, {_nb(units.format_length(stub.spacing_m, u))} spacing, {stub.dielectric}"
-    return f"two-wire, {_nb(units.format_impedance(stub.z0_ohm))} as measured"
-
-
 def _summary_row(key: str, design: Design, s: Solution, band: str) -> tuple:
     u = design.output.units
     dims = s.dimensions
@@ -302,7 +292,7 @@ def _summary_row(key: str, design: Design, s: Solution, band: str) -> tuple:
         f"<b>{_e(design.title)}</b><br/>{_e(design.name)}, {_e(s.design_id)}",
         _e(band), _e(_nb(_mhz(s.frequency_hz))),
         *(_e(_nb(units.format_length(m, u))) for m in (dims.radiator, dims.stub, dims.tap)),
-        _e(_line(design, u)),
+        _e(line_text(design, s)),
         _e(f"{_nb(_mhz(swr2[0]))} to {_nb(_mhz(swr2[1]))}") if swr2 else _e("none"),
         PageRef(key),
     )

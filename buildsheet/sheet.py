@@ -33,7 +33,7 @@ from buildsheet import units
 from buildsheet.blocks import (Facts, Figures, Heading, KeyFigure, KeyFigures, Para, Section, Sheet,  # noqa: F401
                                Steps, Table, WriteIn)
 from buildsheet.design import Design
-from buildsheet.solver import RIGID_DIAMETER_M, Solution, velocity_factor_text
+from buildsheet.solver import Solution, velocity_factor_text
 
 #: the measurement log's columns: what the builder writes by hand
 LOG_COLUMNS = ("#", "frequency", "SWR", "R (Ω)", "X (Ω)", "what was changed")
@@ -250,6 +250,16 @@ def build_sheet(design: Design, solution: Solution, date: str) -> Sheet:
     )
 
 
+def line_text(design: Design, solution: Solution) -> str:
+    """The stub line as the sheet and the booklet name it: the cut list's name, with the spacing,
+    conductors and dielectric of a line given by geometry (in the design's units)."""
+    st, u = design.stub, design.output.units
+    if st.name == "custom" and st.kind == "geometry":
+        return (f"two-wire line, {_nb(units.format_length(st.spacing_m, u))} spacing, "
+                f"{_nb(units.format_length(st.conductor_diameter_m, u))} conductors in {st.dielectric}")
+    return solution.parts.line_name
+
+
 class _Context:
     """The design, its solution and the shorthands every section uses."""
 
@@ -327,13 +337,7 @@ class _Context:
         return "far end insulator's attachment point"
 
     def line_name(self) -> str:
-        st = self.d.stub
-        if st.name != "custom":
-            return st.name
-        if st.kind == "geometry":
-            return (f"two-wire line, {self.length(st.spacing_m)} spacing, "
-                    f"{self.length(st.conductor_diameter_m)} conductors in {st.dielectric}")
-        return "two-wire line as measured"
+        return line_text(self.d, self.s)
 
     def radiator_text(self) -> str:
         r = self.d.radiator
@@ -518,7 +522,7 @@ class _Context:
         best = int(np.argmin(sw.swr))
         swr2 = s.band_swr2_hz
         tolerance = _nice(0.1 * (swr2[1] - swr2[0])) if swr2 else _nice(0.002 * f0)
-        rigid = d.radiator.diameter_m >= RIGID_DIAMETER_M
+        rigid = s.parts.rigid_radiator
         fc = s.first_cut
         return dict(
             stub_margin=self.length(fc.stub_margin_m), has_stub_margin=self.shown(fc.stub_margin_m),
@@ -629,7 +633,7 @@ class _Context:
         if r.insulation == "custom":
             return (f"The jacket's velocity factor {r.velocity_factor:g} is your own figure from the design "
                     "file; the radiator is cut to it with no tuning margin.")
-        what = "pipe or rod" if r.diameter_m >= RIGID_DIAMETER_M else "wire"
+        what = "pipe or rod" if self.s.parts.rigid_radiator else "wire"
         return f"The radiator is bare {what}: no jacket, so no velocity-factor spread and no tuning margin."
 
     def log(self) -> tuple:
@@ -645,7 +649,7 @@ class _Context:
         d, s = self.d, self.s
         e = s.exposure
         controlled, general = CATEGORY_NAMES[e.standard]
-        low_point, low_what = self.lowest_live_point()
+        low_point, low_what = s.parts.lowest_point_m, s.parts.lowest_point
         return render_blocks(
             "cautions.j2", top_height=self.length(self.top_height()), power=self.pep,
             v_open_rms=_volts(s.voltage_open_end_v_rms),
@@ -658,19 +662,6 @@ class _Context:
             d_controlled=self.distance(e.distance_controlled_m),
             general_name=general, controlled_name=controlled, standard=STANDARD_NAMES[e.standard],
             vertical=d.site.orientation == "vertical")
-
-    def lowest_live_point(self) -> tuple[float | None, str]:
-        """Height of the lowest conductor end above ground, m, and what it is (horizontal: the short;
-        sloper: the short or the radiator's far end; vertical: None, the short is on the mast)."""
-        site, dims = self.d.site, self.s.dimensions
-        if site.orientation == "vertical":
-            return None, ""
-        short = site.height_m - dims.stub
-        if site.orientation == "sloper":
-            far = site.height_m - dims.radiator * math.sin(site.slope_rad)
-            if far < short:
-                return far, "the radiator's far end"
-        return short, "the bottom of the stub"
 
     # -- 9. as-built record ------------------------------------------------------------------
     def as_built(self) -> tuple:

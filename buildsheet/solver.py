@@ -131,6 +131,21 @@ class StubLineData:
 
 
 @dataclass(frozen=True)
+class Parts:
+    """What the parts are, worked out once for the sheet, the figures and the booklet: rigid (pipe or
+    rod, RIGID_DIAMETER_M and up) or wire; the stub line's and the radiator's names as the cut list
+    gives them; the choke form's length, m; the lowest live conductor end above ground, m (None for
+    a vertical: its short is on the mast), and what it is."""
+    rigid_radiator: bool
+    rigid_stub: bool
+    line_name: str
+    radiator_name: str
+    choke_form_m: float
+    lowest_point_m: float | None
+    lowest_point: str
+
+
+@dataclass(frozen=True)
 class Solution:
     name: str
     design_id: str
@@ -160,6 +175,7 @@ class Solution:
     choke: choke_physics.ChokeDesign
     exposure: Exposure
     first_cut: FirstCut
+    parts: Parts
     warnings: tuple = ()
 
     @property
@@ -418,7 +434,8 @@ def _solve(design: Design) -> Solution:
                              loss_db_per_100ft=float(gamma_line.real * DB_PER_NEPER * 100 * FT))
     dims = Dimensions(radiator=radiator, stub=stub, tap=tap, spacing=design.stub.spacing_m)
     first = first_cut(design, dims, stub_data.velocity_factor)
-    cut, hardware = _cut_list(design, dims, wrap, ch, first)
+    parts = _parts(design, dims, ch)
+    cut, hardware = _cut_list(design, dims, wrap, ch, first, parts)
     return Solution(
         name=design.name, design_id=design.document_id, frequency_hz=f0, band_hz=tuple(design.band_hz),
         dimensions=dims, radiator_cut_m=radiator + first.radiator_margin_m + 2 * wrap,
@@ -435,8 +452,29 @@ def _solve(design: Design) -> Solution:
                       "radiator_wire": state.p_wire, "ground": state.p_ground,
                       "coax": design.power.transmitter_w - p_tap},
         sensitivity=sens._asdict(),
-        choke=ch, exposure=exposure, first_cut=first, warnings=envelope_warnings(design),
+        choke=ch, exposure=exposure, first_cut=first, parts=parts, warnings=envelope_warnings(design),
     )
+
+
+#: the choke form is cut this much longer than the coil, m (common practice: room for the ties)
+CHOKE_FORM_EXTRA_M = 0.05
+
+
+def _parts(design: Design, dims: Dimensions, ch) -> Parts:
+    st, r, site = design.stub, design.radiator, design.site
+    line_name = st.name if st.name != "custom" else (
+        "two-wire line by geometry" if st.kind == "geometry" else "two-wire line as measured")
+    radiator_name = f"{r.label} {r.material}" + ("" if r.insulation == "bare" else f", {r.insulation} insulated")
+    low, what = None, ""
+    if site.orientation != "vertical":
+        low, what = site.height_m - dims.stub, "the bottom of the stub"
+        if site.orientation == "sloper":
+            far = site.height_m - dims.radiator * math.sin(site.slope_rad)
+            if far < low:
+                low, what = far, "the radiator's far end"
+    return Parts(rigid_radiator=is_rigid(r.diameter_m), rigid_stub=is_rigid(st.conductor_diameter_m),
+                 line_name=line_name, radiator_name=radiator_name,
+                 choke_form_m=ch.coil_length_m + CHOKE_FORM_EXTRA_M, lowest_point_m=low, lowest_point=what)
 
 
 def envelope_warnings(design: Design) -> tuple[str, ...]:
@@ -635,40 +673,37 @@ def _exposure(design: Design, efficiency: float, coax_loss_db: float) -> Exposur
     )
 
 
-def _is_rigid(diameter: float) -> bool:
-    return diameter >= RIGID_DIAMETER_M
+def is_rigid(diameter_m: float) -> bool:
+    """Pipe or rod (joined or clamped, not wrapped) rather than wire: RIGID_DIAMETER_M and up."""
+    return diameter_m >= RIGID_DIAMETER_M
 
 
 def _wrap_allowance(design: Design) -> float:
     """Extra wire at each radiator end for the wrap around the insulator or the stub conductor
     (common practice: about 15 cm of wire at HF, less on short VHF wires); none for pipe or rod,
     which is joined or clamped rather than wrapped (a small cutting allowance instead)."""
-    if _is_rigid(design.radiator.diameter_m):
+    if is_rigid(design.radiator.diameter_m):
         return 0.01
     return min(0.15, 0.015 * design.wavelength_m)
 
 
-def _cut_list(design: Design, d: Dimensions, wrap: float, ch, first: FirstCut) -> tuple[tuple, tuple]:
+def _cut_list(design: Design, d: Dimensions, wrap: float, ch, first: FirstCut,
+              parts: Parts) -> tuple[tuple, tuple]:
     """What to cut (with allowances) and what to buy. Allowances are common practice; the radiator
     and the stub line are cut long by the first cut's tuning margins as well (FirstCut)."""
-    rigid_radiator = _is_rigid(design.radiator.diameter_m)
-    rigid_stub = _is_rigid(design.stub.conductor_diameter_m)
+    rigid_radiator, rigid_stub = parts.rigid_radiator, parts.rigid_stub
     lam = design.wavelength_m
     beyond_short = 0.02 if rigid_stub else min(0.10, 0.01 * lam)
     junction = 0.0 if rigid_stub else wrap
-    line_name = design.stub.name if design.stub.name != "custom" else (
-        "two-wire line by geometry" if design.stub.kind == "geometry" else "two-wire line as measured")
     coil_coax = ch.turns * math.pi * ch.mean_diameter_m
     pigtail = 0.30 if lam > 3 else 0.10
     coax_total = design.feed.length_m + coil_coax + pigtail
-    radiator_material = f"{design.radiator.label} {design.radiator.material}" + (
-        "" if design.radiator.insulation == "bare" else f", {design.radiator.insulation} insulated")
     m_rad, m_stub = first.radiator_margin_m, first.stub_margin_m
     items = [
-        CutItem("radiator", radiator_material, d.radiator + m_rad + 2 * wrap, 1, m_rad + 2 * wrap,
+        CutItem("radiator", parts.radiator_name, d.radiator + m_rad + 2 * wrap, 1, m_rad + 2 * wrap,
                 ("wrap allowance at each end included" if not rigid_radiator else
                  "cutting allowance at each end included"), margin_m=m_rad),
-        CutItem("stub line", line_name, d.stub + m_stub + beyond_short + junction, 1,
+        CutItem("stub line", parts.line_name, d.stub + m_stub + beyond_short + junction, 1,
                 m_stub + beyond_short + junction,
                 "includes the length below the short" +
                 (" and the wrap at the open top" if junction else ""), margin_m=m_stub),
@@ -679,7 +714,8 @@ def _cut_list(design: Design, d: Dimensions, wrap: float, ch, first: FirstCut) -
                 0.05 if lam > 3 else 0.02, "coax centre to the radiator-side conductor, braid to the other"),
         CutItem("feed coax", design.feed.coax, coax_total, 1, coil_coax + pigtail,
                 "run to the station, plus the choke turns and a pigtail at the tap"),
-        CutItem("choke form", "pipe of the choke form's outside diameter", ch.coil_length_m + 0.05, 1, 0.05,
+        CutItem("choke form", "pipe of the choke form's outside diameter", parts.choke_form_m, 1,
+                CHOKE_FORM_EXTRA_M,
                 "the feed coax is close-wound on it"),
     ]
     if design.site.orientation != "vertical":

@@ -12,7 +12,6 @@ import pytest
 from buildsheet import schema
 from buildsheet.cli import main
 from buildsheet.design import design_from_text
-from buildsheet.sheet import _Context
 from buildsheet.solver import solve, solved_lengths
 
 ROOT = pathlib.Path(__file__).resolve().parent.parent
@@ -93,7 +92,7 @@ def test_every_accepted_design_keeps_the_clearance_on_its_sheet(scale, tmp_path,
     design = design_from_text(_calibrated(height + 0.002, scale))
     solution = solve(design)
     assert solution.dimensions.stub == pytest.approx(height - clearance, abs=2e-3)
-    low, what = _Context(design, solution).lowest_live_point()
+    low, what = solution.parts.lowest_point_m, solution.parts.lowest_point
     assert what == "the bottom of the stub" and clearance <= low < clearance + 0.01
     status, _ = _check(_calibrated(height - 0.002, scale), tmp_path, capsys)
     assert status == 2

@@ -26,7 +26,7 @@ from buildsheet.drawing import plots
 from buildsheet.drawing.shapes import (TEXT_GAP, TEXT_SIZE, THIN, Arc, Box, BreakMark, Circle,
                                        Dimension, Drawing, Hatch, Leader, Line, Polyline, Rect, Text,
                                        clip_segment)
-from buildsheet.solver import RIGID_DIAMETER_M, Solution
+from buildsheet.solver import Solution
 
 #: figure keys in the order a builder reads them (also the order of the SVG files)
 FIGURES = ("overview", "radiator", "stub", "short-tap", "choke", "swr", "smith")
@@ -361,10 +361,6 @@ def _station(x0: float, y_g: float, w: float = 46.0, h: float = 24.0) -> list:
     return [house, label]
 
 
-def _is_rigid(diameter_m: float) -> bool:
-    return diameter_m >= RIGID_DIAMETER_M
-
-
 # ---------------------------------------------------------------- context and title strip
 
 @dataclass(frozen=True)
@@ -604,7 +600,7 @@ def _overview_vertical(ctx: _Context) -> tuple[_Sheet, float]:
     d, s = ctx.design, ctx.solution
     dims = s.dimensions
     L = ctx.length
-    wire = not _is_rigid(d.radiator.diameter_m)
+    wire = not s.parts.rigid_radiator
     x_j, x_o = 200.0, 212.0
     x_mid = (x_j + x_o) / 2
     y_end_top = 62.0 if wire else 40.0
@@ -680,7 +676,7 @@ def _radiator(ctx: _Context) -> Drawing:
     cutting allowance at each end)."""
     d, s = ctx.design, ctx.solution
     L = ctx.length
-    rigid = _is_rigid(d.radiator.diameter_m)
+    rigid = s.parts.rigid_radiator
     vertical = d.site.orientation == "vertical"
     allowance = "allowance" if rigid else "wrap"
     body_h = 262.0
@@ -716,7 +712,7 @@ def _radiator(ctx: _Context) -> Drawing:
                                        "one conductor only"], angles=(0, 330, 30), radii=(16, 24, 34))
     if rigid:
         join = "pipe joined or clamped to it"
-    elif _is_rigid(d.stub.conductor_diameter_m):
+    elif s.parts.rigid_stub:
         join = "wire clamped to it"
     else:
         join = "wire wrapped round it and soldered"
@@ -772,7 +768,7 @@ def _web(sheet: _Sheet, ctx: _Context, x_j: float, x_o: float, spans, keep_clear
                 while y + 18.0 <= y1 - 4.0:
                     sheet.add(Hatch(x_j + 7.0, y, x_o - x_j - 14.0, 18.0, grey=1.0))
                     y += 28.0
-        elif not _is_rigid(line.conductor_diameter_m):
+        elif not ctx.solution.parts.rigid_stub:
             y = y0 + 16.0
             while y + 4.0 <= y1 - 6.0:
                 if all(abs(y + 2.0 - k) > 12.0 for k in keep_clear):
@@ -822,7 +818,7 @@ def _stub(ctx: _Context) -> Drawing:
 
     # open top: the junction first, so that the callouts placed after it keep clear of it
     sheet.add(Circle(x_j, y_top, 2.4, width=0, fill=0.0))
-    if not _is_rigid(d.radiator.diameter_m):
+    if not s.parts.rigid_radiator:
         sheet.add(Polyline([(x_j + (2.4 if k % 2 else -2.4), y_top + 2.0 + 2.5 * k) for k in range(7)],
                            width=0.6))
     if orientation == "vertical":
@@ -871,8 +867,7 @@ def _stub(ctx: _Context) -> Drawing:
                   angles=(225, 240, 200, 135), radii=(30, 42, 56, 72))
     sheet.place_group([_section(ctx, 104.0, cy) for cy in (y_b + 8.0, y_tap + 10.0, y_b - 40.0,
                                                             y_short + 40.0)], "the stub's section")
-    short_text = ["short: bar or pipe across,", "clamped or soldered"] if _is_rigid(
-        d.stub.conductor_diameter_m) else ["short: wire across both", "conductors, soldered"]
+    short_text = ["short: bar or pipe across,", "clamped or soldered"] if s.parts.rigid_stub else ["short: wire across both", "conductors, soldered"]
     sheet.callout(x_j, y_short, short_text, angles=(200, 225, 180), radii=(30, 42, 56, 72))
     sheet.callout(x_j - 4.0, y_tap, ["tap clamps: they slide", "along the stub to tune"],
                   angles=(160, 180, 135, 200), radii=(30, 42, 56, 72))
@@ -906,7 +901,7 @@ def _short_tap(ctx: _Context) -> Drawing:
     d, s = ctx.design, ctx.solution
     dims = s.dimensions
     L = ctx.length
-    rigid = _is_rigid(d.stub.conductor_diameter_m)
+    rigid = s.parts.rigid_stub
     x_j, x_o = 180.0, 320.0
     x_mid = (x_j + x_o) / 2
     gap = x_o - x_j
@@ -1011,7 +1006,7 @@ def _choke(ctx: _Context) -> Drawing:
     c = s.choke
     L = ctx.length
     od = d.feed.coax_outer_diameter_m
-    form_len = next(i.length_m for i in s.cut_list if i.part == "choke form")
+    form_len = s.parts.choke_form_m
     scale = min(230.0 / form_len, 128.0 / (c.form_diameter_m + 2 * od))
     fd, odp, fl = c.form_diameter_m * scale, od * scale, form_len * scale
     y_ax = 120.0

@@ -21,6 +21,7 @@ from typing import Sequence
 import numpy as np
 
 from buildsheet import fonts
+from buildsheet.physics.lines import reflection
 from buildsheet.drawing.shapes import (Arc, Box, Circle, Drawing, Line, Polyline, Text, clip_polyline,
                                        clip_segment, text_centered_at)
 
@@ -326,7 +327,7 @@ class SmithAxes:
 def gamma_of(z_ohm: complex | np.ndarray, z_ref: float) -> complex | np.ndarray:
     """Reflection coefficient gamma = (z - z_ref) / (z + z_ref) (Pozar, Microwave Engineering, 4th ed.,
     eq. 2.35); z_ohm and z_ref in ohm."""
-    return (z_ohm - z_ref) / (z_ohm + z_ref)
+    return reflection(z_ohm, z_ref)[()]
 
 
 _SMITH_LABEL_W = 22.0   # room outside the unit circle for the reactance labels, points

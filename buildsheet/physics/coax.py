@@ -15,7 +15,7 @@ from __future__ import annotations
 import numpy as np
 
 from buildsheet.errors import DesignError
-from buildsheet.physics.lines import Line, input_impedance
+from buildsheet.physics.lines import Line, input_impedance, swr_of
 
 
 def _check_rho(rho):
@@ -55,8 +55,7 @@ def swr_at_input(gamma_load_mag, matched_db):
     """
     a = 10.0 ** (np.asarray(matched_db, dtype=float) / 10.0)
     rho_in = _check_rho(gamma_load_mag) / a
-    with np.errstate(divide="ignore"):
-        return np.where(rho_in >= 1.0, np.inf, (1.0 + rho_in) / (1.0 - rho_in))
+    return swr_of(rho_in)
 
 
 def through_coax(z_load, line: Line, f, length) -> np.ndarray:

@@ -69,7 +69,7 @@ from scipy.optimize import root
 
 from buildsheet.physics import radiator as rad
 from buildsheet.physics.conductors import wire_internal_impedance
-from buildsheet.physics.lines import Line
+from buildsheet.physics.lines import Line, reflection
 
 ORIENTATIONS = ("horizontal", "sloper", "vertical")
 GROUND_KINDS = ("free-space", "perfect", "real")
@@ -529,7 +529,7 @@ def solve_match(f0: float, z_feed: float, ant: Antenna, radiator_length: float,
     # start from the best point of a coarse (S, T) grid with z_top frozen at s0, vectorised
     s_grid = s0 * np.linspace(0.8, 1.2, 41)[:, None]
     t_grid = t0 * np.geomspace(0.25, 4.0, 25)[None, :]
-    rho = np.abs(_reflection(prep.z_feed(L, s_grid, t_grid, z_top0), z_feed))
+    rho = np.abs(reflection(prep.z_feed(L, s_grid, t_grid, z_top0), z_feed))
     rho = np.where((t_grid < 0.8 * s_grid) & np.isfinite(rho), rho, np.inf)
     i, j = np.unravel_index(int(np.argmin(rho)), rho.shape)
     start = [float(s_grid[i, 0]), float(t_grid[0, j])]
@@ -569,10 +569,6 @@ def solve_match(f0: float, z_feed: float, ant: Antenna, radiator_length: float,
         raise ValueError(f"no stub/tap match for {z_feed} ohm at {f0:.6g} Hz "
                          f"(last try stub {S:.4f} m, tap {T:.4f} m: {sol.message})")
     return S, T
-
-
-def _reflection(z, z_ref):
-    return (z - z_ref) / (z + z_ref)
 
 
 def _jacobian(fun, x, h=1e-7):

@@ -221,7 +221,13 @@ def reflection(z, z_ref=50.0) -> np.ndarray:
 
 def swr(z, z_ref=50.0) -> np.ndarray:
     """Standing-wave ratio (1 + |rho|)/(1 - |rho|) of z on z_ref (ohm); |rho| >= 1 gives inf."""
-    mag = np.abs(reflection(z, z_ref))
+    return swr_of(np.abs(reflection(z, z_ref)))
+
+
+def swr_of(mag) -> np.ndarray:
+    """Standing-wave ratio (1 + |rho|)/(1 - |rho|) from the reflection's magnitude |rho|; inf from
+    |rho| = 1 up (a total reflection, or a sweep of a faulty analyser)."""
+    mag = np.asarray(mag, dtype=float)
     with np.errstate(divide="ignore", invalid="ignore"):
         s = (1.0 + mag) / (1.0 - mag)
     return np.where(mag >= 1.0, np.inf, s)
