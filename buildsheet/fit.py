@@ -448,7 +448,7 @@ def fit_text(fit: Fit, written: dict | None = None) -> str:
     """The terminal report of `buildsheet fit`: the fit, the moves in the design's units, the SWR
     predicted after them, and what --write does or did."""
     u = fit.units
-    L = lambda m: units.format_length(m, u)  # noqa: E731 - a local shorthand
+    fmt = lambda m: units.format_length(m, u)  # noqa: E731 - a local shorthand
     d, s = fit.design, fit.sweep
     D0, E, adv, mv = fit.built, fit.electrical, fit.advised, fit.moves_rounded_m
     f0 = units.format_frequency(d.frequency_hz)
@@ -463,10 +463,10 @@ def fit_text(fit: Fit, written: dict | None = None) -> str:
         f"SWR at {f0}: {before}")
     add(f"fit: rms {units.format_impedance(fit.fit_rms_ohm)} (reflection {fit.fit_rms_reflection:.3f}) "
         "over the sweep, weighted to the match")
-    radiator = f"radiator {L(E[0])}, " if fit.radiator_fitted else ""
-    built = f"{L(D0.radiator)}, " if fit.radiator_fitted else ""
-    add(f"  the antenna behaves as the model with {radiator}stub {L(E[1])} and tap {L(E[2])} "
-        f"(built: {built}{L(D0.stub)} and {L(D0.tap)})")
+    radiator = f"radiator {fmt(E[0])}, " if fit.radiator_fitted else ""
+    built = f"{fmt(D0.radiator)}, " if fit.radiator_fitted else ""
+    add(f"  the antenna behaves as the model with {radiator}stub {fmt(E[1])} and tap {fmt(E[2])} "
+        f"(built: {built}{fmt(D0.stub)} and {fmt(D0.tap)})")
     if not fit.radiator_retuned:
         add("  the radiator is left as it is: the sweep does not tell its length apart from the model's "
             "own error, so the short and the tap do the matching")
@@ -474,25 +474,25 @@ def fit_text(fit: Fit, written: dict | None = None) -> str:
     add(f"To match at {f0} ({units.length_rounding(u)}):")
     r = mv["radiator"]
     if r == 0:
-        add(f"  1. Radiator: no change ({L(D0.radiator)}).")
+        add(f"  1. Radiator: no change ({fmt(D0.radiator)}).")
     else:
         why = "" if fit.radiator_retuned else (" (a small change that follows the stub's correction: "
                                                "the radiator works against the stub's common mode)")
-        add(f"  1. Radiator: {'add' if r > 0 else 'trim'} {L(abs(r))} "
-            f"({L(D0.radiator)} -> {L(adv[0])}){why}.")
+        add(f"  1. Radiator: {'add' if r > 0 else 'trim'} {fmt(abs(r))} "
+            f"({fmt(D0.radiator)} -> {fmt(adv[0])}){why}.")
     sh = mv["short"]
     if sh == 0:
-        add(f"  2. Short: no change (stub {L(D0.stub)}).")
+        add(f"  2. Short: no change (stub {fmt(D0.stub)}).")
     else:
         passes = " Take the tap off first: the short passes its place." if sh >= D0.tap else ""
-        add(f"  2. Short: move it {L(abs(sh))} {'toward' if sh > 0 else 'away from'} the top "
-            f"(stub {L(D0.stub)} -> {L(adv[1])}).{passes}")
+        add(f"  2. Short: move it {fmt(abs(sh))} {'toward' if sh > 0 else 'away from'} the top "
+            f"(stub {fmt(D0.stub)} -> {fmt(adv[1])}).{passes}")
     tp = mv["tap"]
-    where = f"it then sits {L(adv[2])} above the short (it was {L(D0.tap)})"
+    where = f"it then sits {fmt(adv[2])} above the short (it was {fmt(D0.tap)})"
     if tp == 0:
         add(f"  3. Tap: leave the clamp where it is; {where}.")
     else:
-        add(f"  3. Tap: move it {L(abs(tp))} {'up, toward' if tp > 0 else 'down, away from'} the top; "
+        add(f"  3. Tap: move it {fmt(abs(tp))} {'up, toward' if tp > 0 else 'down, away from'} the top; "
             f"{where}.")
     add(f"Predicted SWR at {f0} after these moves: {fit.swr_after:.2f}. Sweep again to check.")
     add("")

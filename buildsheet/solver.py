@@ -5,6 +5,7 @@ no rounding, no units other than SI, no text beyond the cut-list and hardware no
 
 from __future__ import annotations
 
+import contextlib
 import dataclasses
 import math
 from dataclasses import dataclass
@@ -13,11 +14,12 @@ import numpy as np
 
 from buildsheet.design import Design
 from buildsheet.errors import BuildsheetError, DesignError
+from buildsheet.physics import ModelError
 from buildsheet.physics import choke as choke_physics
 from buildsheet.physics import exposure as exposure_physics
 from buildsheet.physics import jpole
-from buildsheet.physics.coax import total_loss_db
-from buildsheet.physics.lines import DB_PER_NEPER, Line, input_impedance, reflection, swr
+from buildsheet.physics.coax import matched_loss_db, through_coax, total_loss_db
+from buildsheet.physics.lines import DB_PER_NEPER, Line, reflection, swr
 from buildsheet.schema import RULES, deg, metres
 
 FT = 0.3048
@@ -309,16 +311,26 @@ def band_edges(f: np.ndarray, swr_values: np.ndarray, f0: float, limit: float) -
 
 def solve(design: Design) -> Solution:
     """Solve a design: dimensions, sweep, voltages, efficiency, sensitivities, choke, exposure."""
-    try:
+    with _refusals(design):
         solution = _solve(design)
-    except BuildsheetError as exc:  # physics refusals carry no file: name the design's
+    check_solution(solution, design)
+    return solution
+
+
+@contextlib.contextmanager
+def _refusals(design: Design):
+    """The physics' refusals (ModelError: a plain message, no file) and the solver's own, as
+    DesignErrors naming the design's file."""
+    try:
+        yield
+    except BuildsheetError as exc:
         raise exc.located(file=design.path)
+    except ModelError as exc:
+        raise DesignError(" ".join(str(exc).split()), file=design.path) from None
     except (ZeroDivisionError, OverflowError, FloatingPointError) as exc:
         # a degenerate geometry that reached a division by zero or an overflow inside the model
         raise DesignError(f"the model cannot solve this design ({type(exc).__name__}: {exc}); it lies "
                           "outside what the transmission-line model covers", file=design.path) from None
-    check_solution(solution, design)
-    return solution
 
 
 #: efficiency and SWR are compared with this much rounding slack (they are computed, not measured)
@@ -405,13 +417,13 @@ def _solve(design: Design) -> Solution:
     z = jpole.feed_impedance(f, ant, radiator, stub, tap)
     swr_feed = swr(z, z_feed)
     coax = coax_line_model(design)
-    z_tx = input_impedance(coax, f, design.feed.length_m, z)
+    z_tx = through_coax(z, coax, f, design.feed.length_m)
     swr_tx = swr(z_tx, design.feed.coax_z0_ohm)
     i0 = int(np.argmin(np.abs(f - f0)))
 
     # power reaching the tap: the transmitter's PEP less the coax loss at the design frequency
     # (matched loss plus the extra loss from the mismatch on the coax, exact for real Z0)
-    matched_db = float(coax.gamma(f0).real * DB_PER_NEPER * design.feed.length_m)
+    matched_db = float(matched_loss_db(coax.gamma(f0).real * DB_PER_NEPER, design.feed.length_m))
     rho = float(abs(reflection(z[i0], design.feed.coax_z0_ohm)))
     loss_db = float(total_loss_db(matched_db, min(rho, 0.999999)))
     p_tap = design.power.transmitter_w * 10 ** (-loss_db / 10)
@@ -552,7 +564,8 @@ def solved_lengths(design: Design, *, clearance: bool = True) -> tuple:
     """(radiator, stub, tap), m: the radiator resonant at the design frequency and the stub and tap
     that match it to the feed impedance (jpole.solve_match), each checked for ground clearance
     unless `clearance` is False (to find where the limit lies)."""
-    return _match(design, antenna_model(design), clearance)[:3]
+    with _refusals(design):
+        return _match(design, antenna_model(design), clearance)[:3]
 
 
 def _match(design: Design, ant, clearance: bool = True) -> tuple:
@@ -564,7 +577,7 @@ def _match(design: Design, ant, clearance: bool = True) -> tuple:
         with np.errstate(all="ignore"):
             at_f0 = jpole.at_frequency(f0, ant)
             radiator = jpole.resonant_radiator_length(f0, ant, prepared=at_f0)
-    except ValueError as exc:
+    except ValueError as exc:       # ModelError, or a singular step of the numeric search
         if clearance:
             # no resonant radiator: on a low sloper, because every length searched runs through the
             # ground (where image theory fails); the half wave the search centres on says so
@@ -577,7 +590,7 @@ def _match(design: Design, ant, clearance: bool = True) -> tuple:
     try:
         with np.errstate(all="ignore"):
             stub, tap = jpole.solve_match(f0, z_feed, ant, radiator, prepared=at_f0)
-    except ValueError as exc:
+    except ValueError as exc:       # ModelError, or a singular step of the numeric search
         raise _unmatched(design, exc) from None
     if clearance:
         check_stub_clearance(design, stub)

@@ -269,9 +269,9 @@ def _overview_hanging(ctx: _Context) -> tuple[Layout, float]:
     the open top, coax down from the tap through the choke to the ground and the station."""
     d, s = ctx.design, ctx.solution
     dims = s.dimensions
-    L = ctx.length
+    fmt = ctx.length
     sloper = d.site.orientation == "sloper"
-    tap_text = f"tap {L(dims.tap)}"
+    tap_text = f"tap {fmt(dims.tap)}"
     a = StubAnchors.hanging(318.0, 330.0, top=78.0, stub_span=176.0, tap_span=_tap_span(tap_text), tail=7.0)
     x_j, x_o, y_top, y_tap, y_short, y_end = a.x_j, a.x_o, a.top, a.tap, a.short, a.end
     y_g = y_end + 8.0 + 62.0
@@ -303,7 +303,7 @@ def _overview_hanging(ctx: _Context) -> tuple[Layout, float]:
         support_name = "support"
     sheet.add(_insulator(far, u))
     sheet.add(BreakMark(far[0], far[1], x_j, y_top, at=0.5, width=CONDUCTOR))
-    sheet.add(Dimension(far[0], far[1], x_j, y_top, f"radiator {L(dims.radiator)}", 22.0))
+    sheet.add(Dimension(far[0], far[1], x_j, y_top, f"radiator {fmt(dims.radiator)}", 22.0))
 
     # near support: rope from the other conductor's open top, up to the right-hand pole
     pole_r = WIDTH - 22.0
@@ -325,9 +325,9 @@ def _overview_hanging(ctx: _Context) -> tuple[Layout, float]:
 
     # dimensions right of the stub, the height at the far right
     sheet.add(_vdim(x_o, y_short, y_tap, tap_text, 16.0))
-    sheet.add(_vdim(x_o, y_short, y_top, f"stub {L(dims.stub)}", 38.0))
+    sheet.add(_vdim(x_o, y_short, y_top, f"stub {fmt(dims.stub)}", 38.0))
     sheet.add(Line(x_o + 1.5, y_top, x_h + 2.0, y_top, width=THIN))
-    sheet.add(Dimension(x_h, y_g, x_h, y_top, f"height {L(d.site.height_m)}", 0.0))
+    sheet.add(Dimension(x_h, y_g, x_h, y_top, f"height {fmt(d.site.height_m)}", 0.0))
 
     # callouts
     sheet.add(Text(pole_r, pole_top - 4.0, "support", LABEL, "end"))
@@ -362,10 +362,10 @@ def _overview_vertical(ctx: _Context) -> tuple[Layout, float]:
     from one conductor, the coax down from the tap through the choke and along the mast."""
     d, s = ctx.design, ctx.solution
     dims = s.dimensions
-    L = ctx.length
+    fmt = ctx.length
     wire = not s.parts.rigid_radiator
     y_end_top = 62.0 if wire else 40.0
-    tap_text = f"tap {L(dims.tap)}"
+    tap_text = f"tap {fmt(dims.tap)}"
     a = StubAnchors.hanging(200.0, 212.0, top=y_end_top + 116.0, stub_span=150.0,
                             tap_span=_tap_span(tap_text), tail=22.0)
     x_j, x_o, x_mid, y_top, y_tap, y_short, y_end = a.x_j, a.x_o, a.mid, a.top, a.tap, a.short, a.end
@@ -396,9 +396,9 @@ def _overview_vertical(ctx: _Context) -> tuple[Layout, float]:
     x_c = x_o + 160.0
     for y, x_from in ((y_end_top, x_j), (y_top, x_o), (y_short, x_o)):
         sheet.add(Line(x_from + 1.5, y, x_c + 2.0, y, width=THIN))
-    sheet.add(Dimension(x_c, y_top, x_c, y_end_top, f"radiator {L(dims.radiator)}", 0.0))
-    sheet.add(Dimension(x_c, y_short, x_c, y_top, f"stub {L(dims.stub)}", 0.0))
-    sheet.add(Dimension(x_c, y_g, x_c, y_short, f"height {L(d.site.height_m)}", 0.0))
+    sheet.add(Dimension(x_c, y_top, x_c, y_end_top, f"radiator {fmt(dims.radiator)}", 0.0))
+    sheet.add(Dimension(x_c, y_short, x_c, y_top, f"stub {fmt(dims.stub)}", 0.0))
+    sheet.add(Dimension(x_c, y_g, x_c, y_short, f"height {fmt(d.site.height_m)}", 0.0))
 
     if wire:
         sheet.callout(x_j, y_end_top - 8.0, ["top insulator"], angles=(180, 160, 200))
@@ -442,7 +442,7 @@ def _radiator(ctx: _Context) -> Drawing:
     """Radiator as installed (attachment point to attachment point) and as cut (with the wrap or
     cutting allowance at each end)."""
     d, s = ctx.design, ctx.solution
-    L = ctx.length
+    fmt = ctx.length
     rigid = s.parts.rigid_radiator
     vertical = d.site.orientation == "vertical"
     allowance = "allowance" if rigid else "wrap"
@@ -473,7 +473,7 @@ def _radiator(ctx: _Context) -> Drawing:
     sheet.add(Circle(x_b, y1, 2.0, width=0, fill=0.0))
     if not rigid:
         sheet.add(_wrap_mark(x_b, y1 + 2.0, 10, "y"))
-    sheet.add(Dimension(x_a, y1, x_b, y1, f"radiator {L(s.dimensions.radiator)}", 22.0))
+    sheet.add(Dimension(x_a, y1, x_b, y1, f"radiator {fmt(s.dimensions.radiator)}", 22.0))
     sheet.callout(x_other, y1 + 22.0, ["the stub's open top:", "the radiator joins",
                                        "one conductor only"], angles=(0, 330, 30), radii=(16, 24, 34))
     if rigid:
@@ -487,11 +487,11 @@ def _radiator(ctx: _Context) -> Drawing:
     # as cut
     y2 = 184.0
     sheet.add(Text(PAD + 2.0, 140.0, "As cut", 9.0, bold=True))
-    wrap_text = f"{allowance} {L(s.wrap_allowance_m)}"
+    wrap_text = f"{allowance} {fmt(s.wrap_allowance_m)}"
     w_d = max(60.0, text_width(wrap_text) + 14.0)
     x_c0, x_c1 = 60.0, 440.0
     margin = s.first_cut.radiator_margin_m
-    margin_text = f"tuning margin {L(margin)}"
+    margin_text = f"tuning margin {fmt(margin)}"
     w_t = max(60.0, text_width(margin_text) + 14.0) if margin > 0 else 0.0
     # the far end (the wire's left end) gets the tuning margin: the radiator is first hung long
     x_m0, x_m1 = x_c0 + w_d + w_t, x_c1 - w_d
@@ -502,9 +502,9 @@ def _radiator(ctx: _Context) -> Drawing:
     sheet.add(Dimension(x_c0, y2, x_t, y2, wrap_text, 14.0))
     if margin > 0:
         sheet.add(Dimension(x_t, y2, x_m0, y2, margin_text, 14.0))
-    sheet.add(Dimension(x_m0, y2, x_m1, y2, f"radiator {L(s.dimensions.radiator)}", 14.0))
+    sheet.add(Dimension(x_m0, y2, x_m1, y2, f"radiator {fmt(s.dimensions.radiator)}", 14.0))
     sheet.add(Dimension(x_m1, y2, x_c1, y2, wrap_text, 14.0))
-    sheet.add(Dimension(x_c0, y2, x_c1, y2, f"cut length {L(s.radiator_cut_m)}", -16.0))
+    sheet.add(Dimension(x_c0, y2, x_c1, y2, f"cut length {fmt(s.radiator_cut_m)}", -16.0))
     sheet.callout(x_m1, y2 + 5.0, ["mark the attachment points"], angles=(315, 290, 340),
                   radii=(30, 42, 56))
     sheet.place_text([(x_c0, y2 + 40.0), (PAD + 2.0, y2 + 40.0)],
@@ -564,7 +564,7 @@ def _stub(ctx: _Context) -> Drawing:
     and the choke at the tap."""
     d, s = ctx.design, ctx.solution
     dims = s.dimensions
-    L = ctx.length
+    fmt = ctx.length
     orientation = d.site.orientation
     a = StubAnchors.hanging(236.0, 296.0, top=92.0, stub_span=238.0, tap_span=88.0, tail=16.0)
     x_j, x_o, x_mid, y_top, y_tap, y_short, y_end = a.x_j, a.x_o, a.mid, a.top, a.tap, a.short, a.end
@@ -619,8 +619,8 @@ def _stub(ctx: _Context) -> Drawing:
                        width=COAX))
 
     # dimensions right of the stub
-    sheet.add(_vdim(x_o, y_short, y_tap, f"tap {L(dims.tap)}", 20.0))
-    sheet.add(_vdim(x_o, y_short, y_top, f"stub {L(dims.stub)}", 46.0))
+    sheet.add(_vdim(x_o, y_short, y_tap, f"tap {fmt(dims.tap)}", 20.0))
+    sheet.add(_vdim(x_o, y_short, y_top, f"stub {fmt(dims.stub)}", 46.0))
 
     sheet.callout(x_o, y_top, ["open end: this conductor", "ends here (high RF voltage)"],
                   angles=(45, 30, 60), radii=(56, 72, 90, 110))
@@ -661,7 +661,7 @@ def _short_tap(ctx: _Context) -> Drawing:
     """Close view of the short and the tap: how the short is made and how the coax connects."""
     d, s = ctx.design, ctx.solution
     dims = s.dimensions
-    L = ctx.length
+    fmt = ctx.length
     rigid = s.parts.rigid_stub
     x_j, x_o = 180.0, 320.0
     x_mid = (x_j + x_o) / 2
@@ -701,7 +701,7 @@ def _short_tap(ctx: _Context) -> Drawing:
         run(x_mid, y_a, y_end, lambda y0, y1: Hatch(x_j, y0, gap, y1 - y0, grey=0.94))
     for x in (x_j, x_o):
         run(x, y_a, y_end, lambda y0, y1, x=x: Line(x, y0, x, y1, width=cw, stroke=conductor_grey))
-    sheet.add(Dimension(x_j, y_a, x_o, y_a, f"spacing {L(dims.spacing)}", 14.0))
+    sheet.add(Dimension(x_j, y_a, x_o, y_a, f"spacing {fmt(dims.spacing)}", 14.0))
 
     # short: bar across, joints at both conductors; its centre line
     sheet.add(Rect(x_j - cw / 2 - 4.0, y_short - 3.5, gap + cw + 8.0, 7.0, width=0.75, fill=0.55))
@@ -726,7 +726,7 @@ def _short_tap(ctx: _Context) -> Drawing:
     sheet.add(Polyline((tip, (x_mid, tip[1] - 4.0), (x_j + cw / 2 + 3.0, y_tap - 2.0)), width=1.1))
     sheet.add(Line(x_mid + 6.0, jacket_top - 4.0, x_o - cw / 2 - 3.0, y_tap + 2.0, width=1.1))
 
-    sheet.add(_vdim(x_o, y_short, y_tap, f"tap {L(dims.tap)}", 44.0))
+    sheet.add(_vdim(x_o, y_short, y_tap, f"tap {fmt(dims.tap)}", 44.0))
 
     sheet.callout(x_j, y_a + 4.0, ["radiator-side conductor:", "the radiator joins it at the top"],
                   angles=(180, 160, 200), radii=(20, 30, 42))
@@ -765,7 +765,7 @@ def _choke(ctx: _Context) -> Drawing:
     form diameter, coil length, which end goes to the tap."""
     d, s = ctx.design, ctx.solution
     c = s.choke
-    L = ctx.length
+    fmt = ctx.length
     od = d.feed.coax_outer_diameter_m
     form_len = s.parts.choke_form_m
     scale = min(230.0 / form_len, 128.0 / (c.form_diameter_m + 2 * od))
@@ -791,7 +791,7 @@ def _choke(ctx: _Context) -> Drawing:
                             (xa + 0.5 * pitch, top)), closed=True, fill=COAX_GREY, width=0.6))
     x_last = xs + c.turns * pitch + pitch / 2
     sheet.add(Rect(x_last, top, x0 + fl + 70.0 - x_last, band, width=0.6, fill=COAX_GREY))
-    sheet.add(Dimension(xs, top, xs + c.coil_length_m * scale, top, f"coil {L(c.coil_length_m)}",
+    sheet.add(Dimension(xs, top, xs + c.coil_length_m * scale, top, f"coil {fmt(c.coil_length_m)}",
                         18.0, beside="start"))
 
     # end view
@@ -799,7 +799,7 @@ def _choke(ctx: _Context) -> Drawing:
     r_out = (c.form_diameter_m / 2 + od) * scale
     sheet.add(Circle(xe, y_ax, r_out, width=0.75, fill=COAX_GREY))
     sheet.add(Circle(xe, y_ax, fd / 2, width=0.75, fill=SUPPORT_GREY))
-    sheet.add(_vdim(xe, y_ax + fd / 2, y_ax - fd / 2, f"form {L(c.form_diameter_m)}", r_out + 16.0))
+    sheet.add(_vdim(xe, y_ax + fd / 2, y_ax - fd / 2, f"form {fmt(c.form_diameter_m)}", r_out + 16.0))
     sheet.add(Text(xe, y_ax + r_out + 14.0, "end view", LABEL, "middle"))
 
     coax_in_coil = c.turns * math.pi * c.mean_diameter_m
@@ -808,7 +808,7 @@ def _choke(ctx: _Context) -> Drawing:
     sheet.callout(x0 + fl + 66.0, top, ["to the station"], angles=(90, 70, 110),
                   radii=(14, 22, 30))
     sheet.callout(xs + pitch, bottom, [f"{_turns(c.turns)} of {d.feed.coax}, close-wound",
-                                       f"about {L(coax_in_coil)} of the coax",
+                                       f"about {fmt(coax_in_coil)} of the coax",
                                        "cable ties hold the turns"],
                   angles=(290, 270, 315, 250), radii=(30, 42, 56))
     if warning_lines:

@@ -28,7 +28,7 @@ from scipy.constants import c as C0
 from scipy.constants import epsilon_0, inch, mu_0
 from scipy.special import ellipe, ellipk
 
-from buildsheet.errors import DesignError
+from buildsheet.physics import ModelError
 from buildsheet.physics.conductors import surface_resistance
 
 # Copper: the shield's outer surface taken as a smooth copper tube. Real braid loses more, so the
@@ -279,13 +279,13 @@ def design_coax_choke(f_design, f_band_high, form_od, cable_od, z_target=1000.0,
     """
     f_low = f_design if f_band_low is None else f_band_low
     if not 0 < f_low <= f_design <= f_band_high:
-        raise DesignError(f"choke band must satisfy 0 < low edge <= design frequency <= high edge, "
+        raise ModelError(f"choke band must satisfy 0 < low edge <= design frequency <= high edge, "
                           f"got {f_low} Hz, {f_design} Hz, {f_band_high} Hz")
     if not (form_od > 0 and cable_od > 0):
-        raise DesignError(f"choke form and cable diameters must be positive, got form {form_od} m, "
+        raise ModelError(f"choke form and cable diameters must be positive, got form {form_od} m, "
                           f"cable {cable_od} m")
     if not (z_target > 0 and srf_margin >= 1 and max_turns >= 1):
-        raise DesignError(f"choke target must be positive with a margin >= 1 and at least one turn, "
+        raise ModelError(f"choke target must be positive with a margin >= 1 and at least one turn, "
                           f"got {z_target} ohm, margin {srf_margin}, {max_turns} turns")
 
     band = np.union1d(np.linspace(f_low, f_band_high, _BAND_POINTS), [f_design])

@@ -61,11 +61,6 @@ def _sici_pair(x):
     return (*sici(x), *sici(2 * x))
 
 
-def _cin(x):
-    """Cin(x) = gamma_E + ln x - Ci(x) (Balanis, Antenna Theory, 4th ed., App. III)."""
-    return np.euler_gamma + np.log(x) - _ci(x)
-
-
 def loop_radiation_resistance(kl):
     """Radiation resistance of a thin centre-fed dipole of electrical length kl, referred to the
     current maximum, ohm (induced EMF, Carter 1932; Balanis eq. 4-70):
