@@ -24,12 +24,11 @@ from __future__ import annotations
 from dataclasses import dataclass
 
 import numpy as np
-from scipy.constants import c as C0
-from scipy.constants import epsilon_0, inch, mu_0
 from scipy.special import ellipe, ellipk
 
 from buildsheet.physics import ModelError
 from buildsheet.physics.conductors import surface_resistance
+from buildsheet.physics.constants import C0, epsilon_0, inch, mu_0
 
 # Copper: the shield's outer surface taken as a smooth copper tube. Real braid loses more, so the
 # resulting |Z| near self-resonance is an upper bound; sizing keeps the band well below resonance.

@@ -18,10 +18,10 @@ Symbols (SI throughout):
 from __future__ import annotations
 
 import numpy as np
-from scipy.constants import mu_0
 from scipy.special import jve
 
 from buildsheet.physics import ModelError
+from buildsheet.physics.constants import mu_0
 
 # From this |ka| = sqrt(2) a/delta up, J0(ka)/J1(ka) is computed from Hankel's asymptotic expansion
 # (Abramowitz & Stegun 9.2.7-9.2.10; from memory, checked against scipy's jve in the tests): with

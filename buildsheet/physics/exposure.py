@@ -19,10 +19,9 @@ Symbols (SI throughout; conversions only where a limit table is defined in other
 from __future__ import annotations
 
 import numpy as np
-from scipy.constants import c as C0
-from scipy.constants import epsilon_0, mu_0
 
 from buildsheet.physics import ModelError
+from buildsheet.physics.constants import C0, epsilon_0, mu_0
 
 ETA0 = float(np.sqrt(mu_0 / epsilon_0))
 

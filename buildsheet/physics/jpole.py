@@ -64,11 +64,10 @@ from dataclasses import dataclass
 from typing import NamedTuple
 
 import numpy as np
-from scipy.constants import c as C0
-from scipy.optimize import root
 
 from buildsheet.physics import ModelError
 from buildsheet.physics import radiator as rad
+from buildsheet.physics.constants import C0
 from buildsheet.physics.conductors import wire_internal_impedance
 from buildsheet.physics.lines import Line, reflection
 
@@ -531,6 +530,8 @@ def solve_match(f0: float, z_feed: float, ant: Antenna, radiator_length: float,
                 tops[S] = prep.z_top(L, S, geometry=(L, s_geo))
             z = prep.z_feed(L, S, T, tops[S])
         return np.array([z.real / z_feed - 1.0, z.imag / z_feed])
+
+    from scipy.optimize import root     # here: importing scipy.optimize costs a start-up a lot
 
     sol = root(resid, start, method="hybr", options={"maxfev": max_iter, "xtol": 1e-12})
     x = np.asarray(sol.x, dtype=float)

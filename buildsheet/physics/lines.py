@@ -30,12 +30,10 @@ from dataclasses import dataclass
 from typing import Callable
 
 import numpy as np
-from scipy.constants import c as C0
-from scipy.constants import epsilon_0, mu_0
-from scipy.optimize import nnls
 
 from buildsheet.physics import ModelError
 from buildsheet.physics.conductors import proximity_factor, wire_internal_impedance
+from buildsheet.physics.constants import C0, epsilon_0, mu_0
 
 #: decibels per neper, 20/ln(10)
 DB_PER_NEPER = 20.0 / np.log(10.0)
@@ -197,6 +195,8 @@ class Line:
                 # scale the columns so nnls sees a well-conditioned matrix (sqrt(f) ~ 1e4, f ~ 1e8)
                 f_ref = float(np.max(f_pts))
                 basis = np.column_stack([np.sqrt(f_pts / f_ref), f_pts / f_ref])
+                from scipy.optimize import nnls     # here: costly to import, rarely needed
+
                 (c1, c2), _ = nnls(basis, alpha_pts)
                 k1, k2 = float(c1 / np.sqrt(f_ref)), float(c2 / f_ref)
         L = z0 / (vf * C0)

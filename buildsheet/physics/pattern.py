@@ -105,10 +105,9 @@ from __future__ import annotations
 from dataclasses import dataclass
 
 import numpy as np
-from scipy.constants import epsilon_0
-from scipy.optimize import minimize
 
 from buildsheet.physics import ModelError
+from buildsheet.physics.constants import epsilon_0
 from buildsheet.physics.radiator import ETA0, wavenumber
 
 GROUND_KINDS = ("free-space", "perfect", "real")
@@ -504,6 +503,8 @@ def pattern(wires, f: float, ground_kind: str = "free-space", eps_r: float = 13.
                                ground_kind, eps_r, sigma))
 
     start = np.degrees([el[i], az[j]])
+    from scipy.optimize import minimize     # here: costly to import
+
     res = minimize(neg_gain, start, method="Nelder-Mead",
                    options={"xatol": 0.01, "fatol": 1e-6, "initial_simplex":
                             [start, start + [step_deg / 2, 0], start + [0, step_deg]]})

@@ -24,9 +24,9 @@ from __future__ import annotations
 import math
 
 import numpy as np
-from scipy.constants import c as C0
-from scipy.constants import epsilon_0, mu_0
 from scipy.special import sici
+
+from buildsheet.physics.constants import C0, epsilon_0, mu_0
 
 ETA0 = float(np.sqrt(mu_0 / epsilon_0))
 _ETA_4PI = ETA0 / (4.0 * np.pi)
