@@ -340,13 +340,12 @@ class _Context:
         return line_text(self.d, self.s)
 
     def radiator_text(self) -> str:
-        r = self.d.radiator
+        r, name = self.d.radiator, self.s.parts.radiator_name
         if r.insulation == "bare":
-            return f"{r.label} {r.material}, bare"
+            return f"{name}, bare"
         spread = (f"; sources {velocity_factor_text(*r.velocity_factor_spread)}"
                   if r.velocity_factor_spread is not None else "")
-        return (f"{r.label} {r.material}, {r.insulation} insulated (velocity factor "
-                f"{r.velocity_factor:.2f}{spread})")
+        return f"{name} (velocity factor {r.velocity_factor:.2f}{spread})"
 
     def ground(self) -> str:
         site = self.d.site

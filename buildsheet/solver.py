@@ -476,7 +476,6 @@ def _parts(design: Design, dims: Dimensions, ch) -> Parts:
     st, r, site = design.stub, design.radiator, design.site
     line_name = st.name if st.name != "custom" else (
         "two-wire line by geometry" if st.kind == "geometry" else "two-wire line as measured")
-    radiator_name = f"{r.label} {r.material}" + ("" if r.insulation == "bare" else f", {r.insulation} insulated")
     low, what = None, ""
     if site.orientation != "vertical":
         low, what = site.height_m - dims.stub, "the bottom of the stub"
@@ -485,7 +484,7 @@ def _parts(design: Design, dims: Dimensions, ch) -> Parts:
             if far < low:
                 low, what = far, "the radiator's far end"
     return Parts(rigid_radiator=is_rigid(r.diameter_m), rigid_stub=is_rigid(st.conductor_diameter_m),
-                 line_name=line_name, radiator_name=radiator_name,
+                 line_name=line_name, radiator_name=radiator_name(r),
                  choke_form_m=ch.coil_length_m + CHOKE_FORM_EXTRA_M, lowest_point_m=low, lowest_point=what)
 
 
@@ -684,6 +683,13 @@ def _exposure(design: Design, efficiency: float, coax_loss_db: float) -> Exposur
         limit_controlled_w_m2=controlled, limit_general_w_m2=general,
         near_field_m=float(exposure_physics.reactive_near_field_limit(design.frequency_hz)),
     )
+
+
+def radiator_name(radiator, size: str | None = None) -> str:
+    """The radiator conductor as the cut list names it: its size (the gauge or diameter as written in
+    the design, or `size`), its material and its jacket."""
+    jacket = "" if radiator.insulation == "bare" else f", {radiator.insulation} insulated"
+    return f"{size or radiator.label} {radiator.material}{jacket}"
 
 
 def is_rigid(diameter_m: float) -> bool:

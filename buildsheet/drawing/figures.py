@@ -25,7 +25,7 @@ from buildsheet.drawing import plots
 from buildsheet.drawing.placement import LABEL, PAD, Layout, fitted_size, line_height, text_width, wrap_text
 from buildsheet.drawing.shapes import (THIN, Arc, BreakMark, Circle, Dimension, Drawing, Hatch, Line,
                                        Polyline, Rect, Text)
-from buildsheet.solver import Solution
+from buildsheet.solver import Solution, radiator_name
 
 #: figure keys in the order a builder reads them (also the order of the SVG files)
 FIGURES = ("overview", "radiator", "stub", "short-tap", "choke", "swr", "smith")
@@ -119,11 +119,8 @@ class _Context:
     def wire_text(self) -> str:
         """The radiator wire as a builder buys it: the gauge as written, else its diameter."""
         r = self.design.radiator
-        label = r.label.strip()
-        size = label if ("awg" in label.lower() or label.startswith("#")) else \
-            f"{self.length(r.diameter_m)} dia."
-        insulation = "" if r.insulation == "bare" else f", {r.insulation} insulated"
-        return f"{size} {r.material}{insulation}"
+        gauge = "awg" in r.label.lower() or r.label.startswith("#")
+        return radiator_name(r, None if gauge else f"{self.length(r.diameter_m)} dia.")
 
 
 def _strip(ctx: _Context, caption: str, notes: list[str], width: float, top: float) -> tuple[list, float]:

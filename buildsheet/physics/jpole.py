@@ -531,7 +531,7 @@ def solve_match(f0: float, z_feed: float, ant: Antenna, radiator_length: float,
             z = prep.z_feed(L, S, T, tops[S])
         return np.array([z.real / z_feed - 1.0, z.imag / z_feed])
 
-    from scipy.optimize import root     # here: importing scipy.optimize costs a start-up a lot
+    from scipy.optimize import root     # imported where used: scipy.optimize is slow to import
 
     sol = root(resid, start, method="hybr", options={"maxfev": max_iter, "xtol": 1e-12})
     x = np.asarray(sol.x, dtype=float)

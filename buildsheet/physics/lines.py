@@ -195,7 +195,7 @@ class Line:
                 # scale the columns so nnls sees a well-conditioned matrix (sqrt(f) ~ 1e4, f ~ 1e8)
                 f_ref = float(np.max(f_pts))
                 basis = np.column_stack([np.sqrt(f_pts / f_ref), f_pts / f_ref])
-                from scipy.optimize import nnls     # here: costly to import, rarely needed
+                from scipy.optimize import nnls     # imported where used: slow to import
 
                 (c1, c2), _ = nnls(basis, alpha_pts)
                 k1, k2 = float(c1 / np.sqrt(f_ref)), float(c2 / f_ref)

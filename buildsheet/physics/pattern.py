@@ -503,7 +503,7 @@ def pattern(wires, f: float, ground_kind: str = "free-space", eps_r: float = 13.
                                ground_kind, eps_r, sigma))
 
     start = np.degrees([el[i], az[j]])
-    from scipy.optimize import minimize     # here: costly to import
+    from scipy.optimize import minimize     # imported where used: slow to import
 
     res = minimize(neg_gain, start, method="Nelder-Mead",
                    options={"xatol": 0.01, "fatol": 1e-6, "initial_simplex":
