@@ -292,7 +292,7 @@ def _summary_row(key: str, design: Design, s: Solution, band: str) -> tuple:
         f"<b>{_e(design.title)}</b><br/>{_e(design.name)}, {_e(s.design_id)}",
         _e(band), _e(_nb(_mhz(s.frequency_hz))),
         *(_e(_nb(units.format_length(m, u))) for m in (dims.radiator, dims.stub, dims.tap)),
-        _e(line_text(design, s)),
+        _e(line_text(design, s, brief=True)),
         _e(f"{_nb(_mhz(swr2[0]))} to {_nb(_mhz(swr2[1]))}") if swr2 else _e("none"),
         PageRef(key),
     )

@@ -250,14 +250,21 @@ def build_sheet(design: Design, solution: Solution, date: str) -> Sheet:
     )
 
 
-def line_text(design: Design, solution: Solution) -> str:
-    """The stub line as the sheet and the booklet name it: the cut list's name, with the spacing,
-    conductors and dielectric of a line given by geometry (in the design's units)."""
+def line_text(design: Design, solution: Solution, brief: bool = False) -> str:
+    """The stub line as the sheet and the booklet name it: the cut list's name (solver.Parts), with
+    what a line from the design file was given by (in the design's units); `brief`: as short as the
+    booklet's summary column needs."""
     st, u = design.stub, design.output.units
-    if st.name == "custom" and st.kind == "geometry":
-        return (f"two-wire line, {_nb(units.format_length(st.spacing_m, u))} spacing, "
+    if st.name != "custom":
+        return solution.parts.line_name
+    if st.kind == "geometry":
+        spacing = _nb(units.format_length(st.spacing_m, u))
+        if brief:
+            return f"two-wire, {spacing} spacing, {st.dielectric}"
+        return (f"two-wire line, {spacing} spacing, "
                 f"{_nb(units.format_length(st.conductor_diameter_m, u))} conductors in {st.dielectric}")
-    return solution.parts.line_name
+    return f"two-wire, {_nb(units.format_impedance(st.z0_ohm))} as measured" if brief else \
+        solution.parts.line_name
 
 
 class _Context:
