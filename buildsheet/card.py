@@ -63,7 +63,7 @@ def _cut_list(ctx: _Context) -> tuple:
 
 def _cautions(ctx: _Context, where: str) -> tuple:
     s = ctx.s
-    low_point, low_what = ctx.lowest_live_point()
+    low_point, low_what = s.parts.lowest_point_m, s.parts.lowest_point
     return render_blocks(
         "card-cautions.j2", top_height=ctx.length(ctx.top_height()), power=ctx.pep,
         v_open_pk=_volts(s.voltage_open_end_v_peak), v_far_pk=_volts(s.voltage_far_end_v_peak),

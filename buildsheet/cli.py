@@ -348,11 +348,13 @@ def _solve(args) -> int:
 
 def _check(args) -> int:
     from buildsheet.design import load_design
+    from buildsheet.solver import check_geometry
 
     status = 0
     for path in args.designs:
         try:
             design = load_design(path)
+            check_geometry(design)
         except BuildsheetError as exc:
             print(f"error: {exc}" if exc.file else f"error: {path}: {exc}", file=sys.stderr)
             status = 2

@@ -1,8 +1,12 @@
-"""The design file: owns its schema (schema 1), validation, defaults, the frozen Design in SI units,
-the canonical form and the document ID. It does no physics and no output.
+"""The design file: validation against the schema (buildsheet/schema.py), defaults, the frozen Design
+in SI units, the canonical form and the document ID. It does no physics and no output.
 
 Data flow: text --yamlread.parse--> Document (values + line numbers) --validate--> Design.
-Every problem is a DesignError naming the file, the key, its line and what is wrong.
+Every problem is a DesignError naming the file, the key, its line and what is wrong. The validator
+walks schema.TABLE: unknown and missing keys, each key's kind, default and range; what stays code here
+is only what the table cannot say (the forms of `stub.line`, `site.ground` and `radiator.insulation`,
+the as-built entries, and the cross-checks between keys). Checks that need the solved geometry (the
+ground clearance of the stub and of the radiator's far end) are in solver.py.
 """
 
 from __future__ import annotations
@@ -12,7 +16,6 @@ import difflib
 import functools
 import hashlib
 import json
-import math
 import os
 import re
 import subprocess
@@ -20,78 +23,27 @@ import unicodedata
 from dataclasses import dataclass, field
 from datetime import date, datetime, timezone
 
-from buildsheet import units
+from buildsheet import schema, units
 from buildsheet.catalog import catalog, countries, national_bands
 from buildsheet.errors import BuildsheetError, DesignError, one_line
+from buildsheet.schema import CALIBRATION_PARAMETERS, DEFAULTS, MAX_QUANTITY_CHARS, RULES, SCHEMA, mm
 from buildsheet.yamlread import Document, parse, read_text
 
-SCHEMA = 1
+__all__ = ["DEFAULTS", "CALIBRATION_PARAMETERS", "Design", "design_from_text", "load_design"]
+
+#: the speed of light in vacuum, m/s (exact: SI definition of the metre, 1983)
 C0 = 299_792_458.0
 
-F_MIN_HZ = 1.8e6
-F_MAX_HZ = 450e6
-#: frequencies a measured or datasheet loss point may be given at
-LOSS_F_MIN_HZ = 1e6
-LOSS_F_MAX_HZ = 3e9
-
-# Defaults, written as a user would write them, applied in one place (_with_defaults) and listed in the
-# README (a test checks the README table against this mapping).  Region-dependent defaults are
-# functions of the region.
-DEFAULTS: dict[str, object] = {
-    "title": "(the name)",
-    "band": "(the amateur band containing `frequency` in `region`)",
-    "region": 2,
-    "country": "(none: the ITU table of `region`)",
-    "radiator.material": "copper",
-    "radiator.insulation": "bare",
-    "stub.conductor_material": "copper",
-    "feed.coax": "RG-8X",
-    "feed.impedance": "(the coax's impedance)",
-    "feed.length": "15 m",
-    "feed.choke_form": "110 mm",
-    "site.slope": "30 deg (sloper only)",
-    "site.ground": "average",
-    "power.transmitter": "100 W",
-    "power.mode": "ssb",
-    "power.on_air": "100 %",
-    "power.exposure_standard": "us-fcc in region 2, icnirp-2020 elsewhere",
-    "output.units": "imperial in region 2, metric elsewhere",
-    "output.paper": "letter in region 2, a4 elsewhere",
-    "calibration": "{} (none)",
-    "record": "[] (none)",
-}
-
-ORIENTATIONS = ("horizontal", "sloper", "vertical")
-EXPOSURE_STANDARDS = ("us-fcc", "icnirp-2020")
-UNIT_SYSTEMS = ("imperial", "metric")
-PAPERS = ("letter", "a4")
-CALIBRATION_PARAMETERS = ("radiator_scale", "end_resistance_scale", "stub_velocity_scale")
-
-# The schema: for each mapping, its keys.  Nested mappings are dicts; leaves are None.
-_SCHEMA: dict = {
-    "buildsheet": None, "name": None, "title": None, "frequency": None, "band": None, "region": None,
-    "country": None,
-    "radiator": {"wire": None, "material": None, "insulation": None},
-    "stub": {"line": None, "conductor_material": None},
-    "feed": {"coax": None, "impedance": None, "length": None, "choke_form": None},
-    "site": {"orientation": None, "height": None, "slope": None, "ground": None},
-    "power": {"transmitter": None, "mode": None, "on_air": None, "exposure_standard": None},
-    "output": {"units": None, "paper": None},
-    "calibration": None,
-    "record": None,
-}
-_REQUIRED = ("buildsheet", "name", "frequency", "radiator.wire", "stub.line", "site.orientation",
-             "site.height")
-_LINE_GEOMETRY_KEYS = ("spacing", "conductor", "dielectric", "material")
-_LINE_NOMINAL_KEYS = ("impedance", "velocity_factor", "loss", "spacing", "conductor")
-_RECORD_KEYS = ("date", "site", "radiator", "stub", "tap", "resonance", "swr", "note")
 _NAME_RE = re.compile(r"[a-z0-9](?:[a-z0-9-]{0,62}[a-z0-9])?\Z")
-#: longest text read as a quantity; "16' 4-3/8\"" or "1.6277 mm" are far shorter, and the number
-#: parsers are not handed thousands of digits
-MAX_QUANTITY_CHARS = 64
 #: Unicode categories refused in text printed on the sheet: control characters (tab excepted),
 #: lone surrogates (not encodable), line and paragraph separators
 _BAD_TEXT_CATEGORIES = ("Cc", "Cs", "Zl", "Zp")
+#: what a form's missing key needs, by (form, variant)
+_MISSING_WHY = {
+    ("stub.line", "nominal"): " (a line given by its impedance needs both impedance and velocity_factor)",
+    ("stub.line", "geometry"): " (a line given by geometry needs spacing and conductor)",
+}
+_FROM_TABLE = object()
 
 
 # ----------------------------------------------------------------------------------------------
@@ -221,6 +173,8 @@ class Design:
     calibration: Calibration = field(default_factory=Calibration)
     record: tuple = ()
     path: str | None = field(default=None, compare=False)
+    #: the line of each key in the file, {dotted key: line}, for messages about the solved design
+    lines: dict = field(default_factory=dict, compare=False, repr=False)
     #: the `country` whose national band edges were asked for (None: the ITU table of the region);
     #: not part of the canonical form: the band edges it chose are
     country: str | None = None
@@ -234,7 +188,7 @@ class Design:
         the antenna (title, output, record, the file path).  Floats are written to 9 significant
         digits, so '14175 kHz' and '14.175 MHz' give the same form."""
         data = dataclasses.asdict(self)
-        for key in ("title", "output", "record", "path", "country"):
+        for key in ("title", "output", "record", "path", "lines", "country"):
             data.pop(key)
         data["stub"].pop("source")  # where the catalogue's numbers come from is not the antenna
         for part in ("stub", "radiator"):  # nor the range the sources give for a velocity factor
@@ -254,6 +208,10 @@ class Design:
         text = json.dumps(self.canonical(), sort_keys=True, separators=(",", ":"), ensure_ascii=True)
         digest = hashlib.sha256(text.encode("ascii")).hexdigest()[:8].upper()
         return f"{digest[:4]}-{digest[4:]}"
+
+    def fail(self, key: str, problem: str) -> DesignError:
+        """A DesignError about `key` of this design's file (for checks on the solved design)."""
+        return DesignError(problem, file=self.path, key=key, line=self.lines.get(key))
 
     def with_changes(self, **changes) -> "Design":
         return dataclasses.replace(self, **changes)
@@ -297,6 +255,7 @@ class _Validator:
         self.doc = doc
         self.path = path
         self.data = doc.data
+        self.region = 2
 
     # -- error helpers -----------------------------------------------------------------------
     def fail(self, key: str, problem: str) -> DesignError:
@@ -399,66 +358,100 @@ class _Validator:
         except BuildsheetError as exc:
             raise self.fail(key, exc.problem) from None
 
+    def value(self, key: str, default=_FROM_TABLE):
+        """The value of `key` read as its schema row says (kind, default, range)."""
+        row = schema.row(key)
+        if default is _FROM_TABLE:
+            default = row.default_for(self.region)
+        kind = row.kind
+        if kind == "number":
+            return self.number(key, default, lo=row.lo, hi=row.hi)
+        if kind == "text":
+            return self.text(key, default, max_len=row.hi)
+        if kind == "choice":
+            choices = catalog().names(row.choices) if isinstance(row.choices, str) else row.choices
+            return self.choice(key, choices, default)
+        if kind in ("catalogue", "form"):
+            return self.catalogue(key, row.choices, default)
+        value = self.wire(key, default) if kind == "wire" else self.quantity(key, kind, default)
+        if row.hi is not None:
+            self.in_range(key, value, row.lo, row.hi, row.show)
+        return value
+
     # -- structure ---------------------------------------------------------------------------
+    def refuse_unknown(self, mapping: dict, prefix: str, allowed, problem: str) -> None:
+        """The one "unknown key / did you mean" check: `prefix` is the concrete dotted path with a
+        trailing dot ('' at the top)."""
+        for key in mapping:
+            if key not in allowed:
+                hint = closest(key, allowed)
+                hint = f"; did you mean `{prefix}{hint}`?" if hint else ""
+                raise self.fail(f"{prefix}{key}", f"{problem}{hint}")
+
     def check_structure(self) -> None:
         if not isinstance(self.data, dict):
             raise DesignError(f"must be a YAML mapping of keys (`buildsheet: 1`, `name:` ...), "
                               f"got {_describe(self.data)}", file=self.path, line=1)
-        self._check_keys(self.data, _SCHEMA, "")
-        for key in _REQUIRED:
-            if not self.has(key):
-                parent = key.rpartition(".")[0]
-                raise self.fail(parent, f"is missing the required key `{key}`") if parent else \
-                    DesignError(f"is missing the required key `{key}`", file=self.path, key=key, line=1)
+        self._walk(self.data, "")
+        for row in schema.KEYS.values():
+            parent = schema.KEYS.get(row.parent)
+            top = not row.parent
+            if row.required and (top or parent and parent.kind == "mapping") and not self.has(row.path):
+                if row.parent:
+                    raise self.fail(row.parent, f"is missing the required key `{row.path}`")
+                raise DesignError(f"is missing the required key `{row.path}`", file=self.path,
+                                  key=row.path, line=1)
 
-    def _check_keys(self, mapping: dict, schema: dict, prefix: str) -> None:
+    def _walk(self, mapping: dict, prefix: str) -> None:
+        """Unknown keys and mappings that are not mappings, down through the plain mappings (forms and
+        lists are checked where they are read)."""
+        rows = {r.name: r for r in (schema.children(prefix[:-1]) if prefix else schema.top_level())}
+        problem = schema.KEYS[prefix[:-1]].unknown if prefix else "is not a key of a design file"
+        self.refuse_unknown(mapping, prefix, rows, problem)
         for key, value in mapping.items():
-            dotted = f"{prefix}{key}"
-            if key not in schema:
-                hint = closest(key, schema)
-                hint = f"; did you mean `{prefix}{hint}`?" if hint else ""
-                raise self.fail(dotted, f"is not a key of a design file{hint}")
-            sub = schema[key]
-            if isinstance(sub, dict):
-                if not isinstance(value, dict):
-                    raise self.fail(dotted, f"must be a mapping of keys ({', '.join(sub)}), "
-                                    f"got {_describe(value)}")
-                self._check_keys(value, sub, dotted + ".")
+            row = rows[key]
+            if row.kind != "mapping" or (value is None and row.default is not None):
+                continue
+            if not isinstance(value, dict):
+                keys = ", ".join(r.name for r in schema.children(row.path))
+                raise self.fail(row.path, f"must be a mapping of keys ({keys}), got {_describe(value)}")
+            self._walk(value, row.path + ".")
+
+    def form(self, key: str, raw: dict, variant: str) -> None:
+        """The keys of a form given as a mapping (variant: which of its mappings)."""
+        rows = schema.children(key, variant)
+        self.refuse_unknown(raw, key + ".", [r.name for r in rows], schema.KEYS[key].unknown)
+        for row in rows:
+            if variant in row.required_in and row.name not in raw:
+                raise self.fail(key, f"is missing `{row.path}`{_MISSING_WHY.get((key, variant), '')}")
 
     # -- the design --------------------------------------------------------------------------
     def design(self) -> Design:
         self.check_structure()
-        schema = self.get("buildsheet")
-        if schema != SCHEMA or isinstance(schema, bool):
+        version = self.get("buildsheet")
+        if version != SCHEMA or isinstance(version, bool):
             raise self.fail("buildsheet", f"must be {SCHEMA} (the schema version this buildsheet reads), "
-                            f"got {schema!r}")
+                            f"got {version!r}")
         name = self.get("name")
         if not isinstance(name, str) or not _NAME_RE.match(name):
             raise self.fail("name", "must be a slug of 1-64 lower-case letters, digits and '-' "
                             f"(used in file names), got {_describe(name)}")
-        title = self.text("title", name, max_len=120)
-        region = int(self.number("region", DEFAULTS["region"], lo=1, hi=3))
+        title = self.value("title", name)
+        region = int(self.value("region"))
         if self.get("region") not in (None, 1, 2, 3):
             raise self.fail("region", f"must be the ITU region 1, 2 or 3, got {self.get('region')!r}")
-        frequency = self.quantity("frequency", "frequency")
-        self.in_range("frequency", frequency, F_MIN_HZ, F_MAX_HZ, units.format_frequency)
+        self.region = region
+        frequency = self.value("frequency")
         country = self.country(region)
         band, band_name = self.band(frequency, region, country)
-        radiator = self.radiator(frequency)
-        stub = self.stub_line(frequency)
-        feed = self.feed()
-        site = self.site()
-        power = self.power(region)
-        output = Output(
-            units=self.choice("output.units", UNIT_SYSTEMS, "imperial" if region == 2 else "metric"),
-            paper=self.choice("output.paper", PAPERS, "letter" if region == 2 else "a4"),
-        )
-        calibration = self.calibration()
-        record = self.record()
         design = Design(schema=SCHEMA, name=name, title=title, frequency_hz=frequency, band_hz=band,
-                        band_name=band_name, region=region, radiator=radiator, stub=stub, feed=feed,
-                        site=site, power=power, output=output, calibration=calibration, record=record,
-                        path=self.path, country=country)
+                        band_name=band_name, region=region, radiator=self.radiator(),
+                        stub=self.stub_line(), feed=self.feed(), site=self.site(), power=self.power(),
+                        output=Output(units=self.value("output.units"), paper=self.value("output.paper")),
+                        calibration=self.calibration(), record=self.record(), path=self.path,
+                        country=country,
+                        lines={key: self.doc.line_of(self._path(key)) for key in schema.KEYS
+                               if ".N." not in key and self.has(key)})
         self.cross_checks(design)
         return design
 
@@ -493,18 +486,18 @@ class _Validator:
             raw = self.get("band")
             if not isinstance(raw, list) or len(raw) != 2:
                 raise self.fail("band", f"must be a list of two frequencies [low, high], got {_describe(raw)}")
-            low = self.quantity("band.0", "frequency")
-            high = self.quantity("band.1", "frequency")
+            low, high = self.quantity("band.0", "frequency"), self.quantity("band.1", "frequency")
             if not low < high:
                 raise self.fail("band", f"must be [low, high] with low below high, got "
                                 f"{units.format_frequency(low)} and {units.format_frequency(high)}")
-            if high / low > 1.5:
-                raise self.fail("band", "is wider than 1.5:1; a single-band antenna covers one band")
+            if high / low > RULES["band_ratio"].value:
+                raise self.fail("band", f"is wider than {RULES['band_ratio'].value:g}:1; a single-band "
+                                "antenna covers one band")
             if not low <= frequency <= high:
                 raise self.fail("frequency", f"{units.format_frequency(frequency)} is outside `band` "
                                 f"{units.format_frequency(low)} to {units.format_frequency(high)}")
-            for edge, key in ((low, "band.0"), (high, "band.1")):
-                self.in_range(key, edge, F_MIN_HZ * 0.9, F_MAX_HZ * 1.1, units.format_frequency)
+            self.value("band.0")
+            self.value("band.1")
             found = self._found_band(frequency, region, country)
             name = found.name if found and found.low_hz <= low and high <= found.high_hz else None
             return (low, high), name
@@ -528,104 +521,68 @@ class _Validator:
             text += f"add `country: {admits[0]}` if you operate under that national table, or "
         return text + "give `band: [low, high]` with the edges your licence allows"
 
-    def radiator(self, frequency: float) -> Radiator:
-        raw = self.get("radiator.wire")
-        diameter = self.wire("radiator.wire")
-        material = self.catalogue("radiator.material", "material", DEFAULTS["radiator.material"])
-        insulation_raw = self.get("radiator.insulation", DEFAULTS["radiator.insulation"])
-        if isinstance(insulation_raw, dict):
-            unknown = set(insulation_raw) - {"velocity_factor"}
-            if unknown:
-                key = sorted(unknown)[0]
-                raise self.fail(f"radiator.insulation.{key}", "is not a key of `radiator.insulation`; "
-                                "write `{velocity_factor: 0.95}` or a name (bare, pvc, polyethylene)")
-            vf = self.number("radiator.insulation.velocity_factor", None, lo=0.80, hi=1.0)
-            insulation = "custom"
-        else:
-            entry = self.catalogue("radiator.insulation", "insulation", DEFAULTS["radiator.insulation"])
-            return Radiator(diameter_m=diameter, label=str(raw).strip(), material=material.name,
-                            conductivity_s_m=material.conductivity_s_m, insulation=entry.name,
-                            velocity_factor=entry.velocity_factor,
-                            velocity_factor_spread=entry.velocity_factor_spread,
-                            spread_source=entry.spread_source)
-        return Radiator(diameter_m=diameter, label=str(raw).strip(), material=material.name,
-                        conductivity_s_m=material.conductivity_s_m, insulation=insulation,
-                        velocity_factor=vf)
+    def radiator(self) -> Radiator:
+        label = str(self.get("radiator.wire")).strip()
+        diameter = self.value("radiator.wire")
+        material = self.value("radiator.material")
+        common = dict(diameter_m=diameter, label=label, material=material.name,
+                      conductivity_s_m=material.conductivity_s_m)
+        raw = self.get("radiator.insulation")
+        if isinstance(raw, dict):
+            self.form("radiator.insulation", raw, "custom")
+            return Radiator(**common, insulation="custom",
+                            velocity_factor=self.value("radiator.insulation.velocity_factor"))
+        entry = self.value("radiator.insulation")
+        return Radiator(**common, insulation=entry.name, velocity_factor=entry.velocity_factor,
+                        velocity_factor_spread=entry.velocity_factor_spread,
+                        spread_source=entry.spread_source)
 
-    def stub_line(self, frequency: float) -> StubLine:
+    def stub_line(self) -> StubLine:
         raw = self.get("stub.line")
-        conductor_material = self.catalogue("stub.conductor_material", "material",
-                                            DEFAULTS["stub.conductor_material"])
+        material = self.value("stub.conductor_material")
         if isinstance(raw, str):
-            entry = self.catalogue("stub.line", "stub_line")
-            material = catalog().lookup("material", entry.conductor_material or "copper")
-            if self.has("stub.conductor_material"):
-                material = conductor_material
+            entry = self.value("stub.line")
+            if not self.has("stub.conductor_material"):
+                material = catalog().lookup("material", entry.conductor_material or "copper")
             dielectric = catalog().lookup("dielectric", entry.dielectric or "air")
-            return StubLine(kind=entry.kind, name=entry.name, spacing_m=entry.spacing_m,
-                            conductor_diameter_m=entry.conductor_diameter_m,
-                            conductor_material=material.name, conductivity_s_m=material.conductivity_s_m,
-                            z0_ohm=entry.z0_ohm, velocity_factor=entry.velocity_factor,
-                            loss_db_per_100ft=tuple(entry.loss_db_per_100ft), dielectric=dielectric.name,
-                            eps_r=dielectric.eps_r, tan_delta=dielectric.tan_delta, source=entry.source,
-                            velocity_factor_spread=entry.velocity_factor_spread,
-                            spread_source=entry.spread_source)
+            return _line(entry.kind, entry.name, entry.spacing_m, entry.conductor_diameter_m, material,
+                         dielectric.name, dielectric.eps_r, dielectric.tan_delta, entry.source,
+                         z0_ohm=entry.z0_ohm, velocity_factor=entry.velocity_factor,
+                         loss_db_per_100ft=tuple(entry.loss_db_per_100ft),
+                         velocity_factor_spread=entry.velocity_factor_spread,
+                         spread_source=entry.spread_source)
         if not isinstance(raw, dict):
             raise self.fail("stub.line", "must be a catalogue line name (e.g. window-450) or a mapping "
                             "{spacing, conductor, dielectric} or {impedance, velocity_factor}, got "
                             f"{_describe(raw)}")
-        if "impedance" in raw or "velocity_factor" in raw:
-            allowed = _LINE_NOMINAL_KEYS
-        else:
-            allowed = _LINE_GEOMETRY_KEYS
-        for key in raw:
-            if key not in allowed:
-                hint = closest(key, allowed)
-                hint = f"; did you mean `stub.line.{hint}`?" if hint else ""
-                raise self.fail(f"stub.line.{key}", f"is not a key of this kind of line{hint}")
-        if allowed is _LINE_NOMINAL_KEYS:
-            for key in ("impedance", "velocity_factor"):
-                if key not in raw:
-                    raise self.fail("stub.line", f"is missing `stub.line.{key}` (a line given by its "
-                                    "impedance needs both impedance and velocity_factor)")
-            z0 = self.quantity("stub.line.impedance", "impedance")
-            self.in_range("stub.line.impedance", z0, 50.0, 1000.0, _ohm)
-            vf = self.number("stub.line.velocity_factor", lo=0.5, hi=1.0)
-            loss = ()
-            if "loss" in raw:
-                loss = self.loss_points("stub.line.loss")
-            spacing = self.quantity("stub.line.spacing", "length", "25 mm")
-            conductor = self.wire("stub.line.conductor", "16 AWG")
-            return StubLine(kind="nominal", name="custom", spacing_m=spacing,
-                            conductor_diameter_m=conductor, conductor_material=conductor_material.name,
-                            conductivity_s_m=conductor_material.conductivity_s_m, z0_ohm=z0,
-                            velocity_factor=vf, loss_db_per_100ft=loss, dielectric="polyethylene",
-                            eps_r=1.0 / vf ** 2, tan_delta=0.0, source="given in the design file")
-        for key in ("spacing", "conductor"):
-            if key not in raw:
-                raise self.fail("stub.line", f"is missing `stub.line.{key}` (a line given by geometry "
-                                "needs spacing and conductor)")
+        nominal = "impedance" in raw or "velocity_factor" in raw
+        self.form("stub.line", raw, "nominal" if nominal else "geometry")
+        if nominal:
+            z0 = self.value("stub.line.impedance")
+            vf = self.value("stub.line.velocity_factor")
+            loss = self.loss_points("stub.line.loss") if "loss" in raw else ()
+            spacing = self.value("stub.line.spacing")
+            conductor = self.value("stub.line.conductor")
+            return _line("nominal", "custom", spacing, conductor, material, "polyethylene",
+                         1.0 / vf ** 2, 0.0, "given in the design file", z0_ohm=z0, velocity_factor=vf,
+                         loss_db_per_100ft=loss)
         spacing = self.quantity("stub.line.spacing", "length")
-        conductor = self.wire("stub.line.conductor")
-        self.in_range("stub.line.spacing", spacing, 1e-3, 1.0, _mm)
+        conductor = self.value("stub.line.conductor")
+        self.value("stub.line.spacing")
         if "material" in raw:
-            conductor_material = self.catalogue("stub.line.material", "material")
-        dielectric = self.catalogue("stub.line.dielectric", "dielectric", "air")
-        return StubLine(kind="geometry", name="custom", spacing_m=spacing, conductor_diameter_m=conductor,
-                        conductor_material=conductor_material.name,
-                        conductivity_s_m=conductor_material.conductivity_s_m, z0_ohm=None,
-                        velocity_factor=None, loss_db_per_100ft=(), dielectric=dielectric.name,
-                        eps_r=dielectric.eps_r, tan_delta=dielectric.tan_delta,
-                        source="computed from the geometry given in the design file")
+            material = self.value("stub.line.material")
+        dielectric = self.value("stub.line.dielectric")
+        return _line("geometry", "custom", spacing, conductor, material, dielectric.name,
+                     dielectric.eps_r, dielectric.tan_delta,
+                     "computed from the geometry given in the design file")
 
     def wire(self, key: str, default: str | None = None) -> float:
         raw = self.get(key, default)
         self._short_enough(key, raw)
         try:
-            d = units.parse_wire(raw)
+            return units.parse_wire(raw)
         except BuildsheetError as exc:
             raise self.fail(key, exc.problem) from None
-        return self.in_range(key, d, 0.2e-3, 60e-3, _mm)
 
     def loss_points(self, key: str) -> tuple:
         raw = self.get(key)
@@ -635,92 +592,46 @@ class _Validator:
         for i, pair in enumerate(raw):
             if not isinstance(pair, list) or len(pair) != 2:
                 raise self.fail(f"{key}.{i}", "must be a pair [frequency, dB per 100 ft]")
-            f = self.quantity(f"{key}.{i}.0", "frequency")
-            # the skin-effect and dielectric loss law is fitted over the range cable data cover
-            self.in_range(f"{key}.{i}.0", f, LOSS_F_MIN_HZ, LOSS_F_MAX_HZ,
-                          lambda hz: units.format_frequency(hz) if hz >= 1e3 else f"{hz:g} Hz")
-            db = self.number(f"{key}.{i}.1", lo=0.0, hi=100.0)
-            points.append((f, db))
+            points.append((self.value(f"{key}.{i}.0"), self.value(f"{key}.{i}.1")))
         return tuple(points)
 
     def feed(self) -> Feed:
-        coax = self.catalogue("feed.coax", "coax", DEFAULTS["feed.coax"])
-        impedance = self.quantity("feed.impedance", "impedance", f"{coax.z0_ohm:g} ohm")
-        self.in_range("feed.impedance", impedance, 10.0, 600.0, _ohm)
-        length = self.quantity("feed.length", "length", DEFAULTS["feed.length"])
-        self.in_range("feed.length", length, 0.0, 500.0, _metres)
-        form = self.quantity("feed.choke_form", "length", DEFAULTS["feed.choke_form"])
-        self.in_range("feed.choke_form", form, 10e-3, 0.6, _mm)
+        coax = self.value("feed.coax")
         return Feed(coax=coax.name, coax_z0_ohm=coax.z0_ohm, coax_velocity_factor=coax.velocity_factor,
                     coax_outer_diameter_m=coax.outer_diameter_m,
-                    coax_loss_db_per_100ft=tuple(coax.loss_db_per_100ft), impedance_ohm=impedance,
-                    length_m=length, choke_form_m=form)
+                    coax_loss_db_per_100ft=tuple(coax.loss_db_per_100ft),
+                    impedance_ohm=self.value("feed.impedance", f"{coax.z0_ohm:g} ohm"),
+                    length_m=self.value("feed.length"), choke_form_m=self.value("feed.choke_form"))
 
     def site(self) -> Site:
-        orientation = self.choice("site.orientation", ORIENTATIONS)
-        height = self.quantity("site.height", "length")
-        self.in_range("site.height", height, 0.0, 300.0, _metres)
+        orientation = self.value("site.orientation")
+        height = self.value("site.height")
         if orientation != "vertical" and height <= 0.0:
             raise self.fail("site.height", "must be above ground (the stub's open top hangs from it)")
         if self.has("site.slope") and orientation != "sloper":
             raise self.fail("site.slope", f"applies only to a sloper; this design is {orientation}")
-        slope = 0.0
-        if orientation == "sloper":
-            slope = self.quantity("site.slope", "angle", "30 deg")
-            self.in_range("site.slope", slope, math.radians(5), math.radians(80), _deg)
-        raw = self.get("site.ground", DEFAULTS["site.ground"])
+        slope = self.value("site.slope") if orientation == "sloper" else 0.0
+        common = dict(orientation=orientation, height_m=height, slope_rad=slope)
+        raw = self.get("site.ground")
         if isinstance(raw, dict):
-            for key in raw:
-                if key not in ("permittivity", "conductivity"):
-                    hint = closest(key, ("permittivity", "conductivity"))
-                    hint = f"; did you mean `site.ground.{hint}`?" if hint else ""
-                    raise self.fail(f"site.ground.{key}", f"is not a key of a ground{hint}")
-            for key in ("permittivity", "conductivity"):
-                if key not in raw:
-                    raise self.fail("site.ground", f"is missing `site.ground.{key}`")
-            eps = self.number("site.ground.permittivity", lo=1.0, hi=100.0)
-            sigma = self.quantity("site.ground.conductivity", "conductivity")
-            self.in_range("site.ground.conductivity", sigma, 1e-5, 10.0, lambda v: f"{v:g} S/m")
-            return Site(orientation=orientation, height_m=height, slope_rad=slope, ground="custom",
-                        ground_kind="real", permittivity=eps, conductivity_s_m=sigma)
-        ground = self.catalogue("site.ground", "ground", DEFAULTS["site.ground"])
-        return Site(orientation=orientation, height_m=height, slope_rad=slope, ground=ground.name,
-                    ground_kind=ground.kind, permittivity=ground.permittivity,
+            self.form("site.ground", raw, "custom")
+            return Site(**common, ground="custom", ground_kind="real",
+                        permittivity=self.value("site.ground.permittivity"),
+                        conductivity_s_m=self.value("site.ground.conductivity"))
+        ground = self.value("site.ground")
+        return Site(**common, ground=ground.name, ground_kind=ground.kind, permittivity=ground.permittivity,
                     conductivity_s_m=ground.conductivity_s_m)
 
-    def power(self, region: int) -> Power:
-        transmitter = self.quantity("power.transmitter", "power", DEFAULTS["power.transmitter"])
-        self.in_range("power.transmitter", transmitter, 0.1, 10_000.0, lambda w: f"{w:g} W")
-        mode_names = catalog().names("mode")
-        mode = self.choice("power.mode", mode_names, DEFAULTS["power.mode"])
-        on_air = self.quantity("power.on_air", "fraction", DEFAULTS["power.on_air"])
-        self.in_range("power.on_air", on_air, 0.01, 1.0, lambda v: f"{100 * v:g} %")
-        standard = self.choice("power.exposure_standard", EXPOSURE_STANDARDS,
-                               "us-fcc" if region == 2 else "icnirp-2020")
+    def power(self) -> Power:
+        transmitter = self.value("power.transmitter")
+        mode = self.value("power.mode")
         return Power(transmitter_w=transmitter, mode=mode, duty_factor=catalog().duty_factor(mode),
-                     on_air=on_air, exposure_standard=standard)
+                     on_air=self.value("power.on_air"),
+                     exposure_standard=self.value("power.exposure_standard"))
 
     def calibration(self) -> Calibration:
-        raw = self.get("calibration", {})
-        if raw is None:
-            raw = {}
-        if not isinstance(raw, dict):
-            raise self.fail("calibration", f"must be a mapping (written by `buildsheet fit --write`), "
-                            f"got {_describe(raw)}")
-        allowed = CALIBRATION_PARAMETERS + ("source", "date")
-        values = {}
-        for key in raw:
-            if key not in allowed:
-                hint = closest(key, allowed)
-                hint = f"; did you mean `calibration.{hint}`?" if hint else ""
-                raise self.fail(f"calibration.{key}", f"is not a calibration parameter{hint}")
-        for key in CALIBRATION_PARAMETERS:
-            if key in raw:
-                values[key] = self.number(f"calibration.{key}", lo=0.5, hi=2.0)
-        for key in ("source", "date"):
-            if key in raw:
-                values[key] = self.text(f"calibration.{key}", max_len=200)
-        return Calibration(**values)
+        raw = self.get("calibration") or {}
+        return Calibration(**{key: self.value(f"calibration.{key}") for key in raw})
 
     def record(self) -> tuple:
         raw = self.get("record", [])
@@ -733,69 +644,52 @@ class _Validator:
     def record_entry(self, key: str, entry) -> RecordEntry:
         if not isinstance(entry, dict):
             raise self.fail(key, f"must be a mapping (date, site, radiator, ...), got {_describe(entry)}")
-        for k in entry:
-            if k not in _RECORD_KEYS:
-                hint = closest(k, _RECORD_KEYS)
-                hint = f"; did you mean `{key}.{hint}`?" if hint else ""
-                raise self.fail(f"{key}.{k}", f"is not a key of an as-built entry{hint}")
+        self.refuse_unknown(entry, f"{key}.", schema.ENTRY_KEYS, schema.KEYS["record"].unknown)
         if "date" not in entry:
             raise self.fail(key, "is missing `date` (every as-built entry is dated)")
         when = parse_date(entry["date"])
         if when is None:
             raise self.fail(f"{key}.date", f"must be {DATE_FORMAT}, got {_describe(entry['date'])}")
         values: dict = {"date": when}
-        for k, kind, out in (("radiator", "length", "radiator_m"), ("stub", "length", "stub_m"),
-                             ("tap", "length", "tap_m"), ("resonance", "frequency", "resonance_hz")):
-            if k in entry:
-                v = self.quantity(f"{key}.{k}", kind)
-                if v <= 0:
+        for k in entry:
+            row = schema.row(f"{key}.{k}")
+            if row.kind in ("length", "frequency"):
+                v = self.quantity(f"{key}.{k}", row.kind)
+                if v <= row.lo:
                     raise self.fail(f"{key}.{k}", "must be greater than zero")
-                values[out] = v
-        if "swr" in entry:
-            values["swr"] = self.number(f"{key}.swr", lo=1.0, hi=100.0)
-        for k in ("site", "note"):
-            if k in entry:
-                values[k] = self.text(f"{key}.{k}", max_len=500)
+                values[f"{k}_{'m' if row.kind == 'length' else 'hz'}"] = v
+            elif k != "date":
+                values[k] = self.value(f"{key}.{k}")
         return RecordEntry(**values)
 
-    # -- cross checks ------------------------------------------------------------------------
+    # -- cross checks (those on the solved geometry are in solver.py: check_*_clearance) --
     def cross_checks(self, d: Design) -> None:
-        stub = d.stub
-        if stub.spacing_m <= stub.conductor_diameter_m * 1.05:
-            raise self.fail("stub.line", f"spacing {_mm(stub.spacing_m)} must be larger than the "
-                            f"conductor diameter {_mm(stub.conductor_diameter_m)} (centre to centre, "
+        stub, lam = d.stub, d.wavelength_m
+        touching = RULES["spacing_vs_conductor"].value
+        if stub.spacing_m <= stub.conductor_diameter_m * touching:
+            raise self.fail("stub.line", f"spacing {mm(stub.spacing_m)} must be larger than the "
+                            f"conductor diameter {mm(stub.conductor_diameter_m)} (centre to centre, "
                             "with a gap between the conductors)")
-        lam = d.wavelength_m
-        if stub.spacing_m > lam / 20:
-            raise self.fail("stub.line", f"spacing {_mm(stub.spacing_m)} is more than 1/20 of a "
-                            f"wavelength ({_mm(lam / 20)}) at {units.format_frequency(d.frequency_hz)}; "
+        fraction = RULES["spacing_vs_wavelength"].value
+        if stub.spacing_m > lam / fraction:
+            raise self.fail("stub.line", f"spacing {mm(stub.spacing_m)} is more than 1/{fraction:g} of a "
+                            f"wavelength ({mm(lam / fraction)}) at {units.format_frequency(d.frequency_hz)}; "
                             "the line would radiate rather than act as a stub")
-        if d.radiator.diameter_m > lam / 100:
-            raise self.fail("radiator.wire", f"diameter {_mm(d.radiator.diameter_m)} is more than 1/100 "
-                            f"of a wavelength at {units.format_frequency(d.frequency_hz)}; a thin-wire "
-                            "model does not apply")
-        vf = stub.velocity_factor or 1.0 / math.sqrt(stub.eps_r)
-        # the calibration scales the lengths the solver cuts (solver.antenna_model divides the wire's
-        # velocity factor by radiator_scale and multiplies the stub's by stub_velocity_scale): a
-        # radiator_scale of 0.5 doubles the radiator, and the estimate must see that
-        cal = d.calibration
-        stub_estimate = vf * cal.stub_velocity_scale * lam / 4
-        radiator_estimate = d.radiator.velocity_factor / cal.radiator_scale * lam / 2
-        if d.site.orientation in ("horizontal", "sloper"):
-            bottom = d.site.height_m - stub_estimate
-            if bottom < 0.3:
-                raise self.fail("site.height", f"{_metres(d.site.height_m)} leaves the stub's short "
-                                f"{_metres(bottom)} above ground (the stub is about "
-                                f"{_metres(stub_estimate)} long); raise the open top to at least "
-                                f"{_metres(stub_estimate + 0.3)} or hang the antenna as a sloper with a "
-                                "higher top")
-            if d.site.orientation == "sloper":
-                far = d.site.height_m - radiator_estimate * math.sin(d.site.slope_rad)
-                if far < 0.3:
-                    raise self.fail("site.slope", f"a {_deg(d.site.slope_rad)} slope from "
-                                    f"{_metres(d.site.height_m)} puts the radiator's far end "
-                                    f"{_metres(far)} above ground (the radiator is about "
-                                    f"{_metres(radiator_estimate)}); use a smaller slope or a higher top")
+        fraction = RULES["wire_vs_wavelength"].value
+        if d.radiator.diameter_m > lam / fraction:
+            raise self.fail("radiator.wire", f"diameter {mm(d.radiator.diameter_m)} is more than "
+                            f"1/{fraction:g} of a wavelength at {units.format_frequency(d.frequency_hz)}; "
+                            "a thin-wire model does not apply")
+
+
+def _line(kind: str, name: str, spacing_m: float, conductor_m: float, material, dielectric: str,
+          eps_r: float, tan_delta: float, source: str, **nominal) -> StubLine:
+    """The StubLine of any form: geometry, conductor material, dielectric, source; `nominal`: the
+    measured z0_ohm, velocity_factor, loss_db_per_100ft and the velocity-factor spread, if any."""
+    nominal = {"z0_ohm": None, "velocity_factor": None, "loss_db_per_100ft": (), **nominal}
+    return StubLine(kind=kind, name=name, spacing_m=spacing_m, conductor_diameter_m=conductor_m,
+                    conductor_material=material.name, conductivity_s_m=material.conductivity_s_m,
+                    dielectric=dielectric, eps_r=eps_r, tan_delta=tan_delta, source=source, **nominal)
 
 
 def _describe(value) -> str:
@@ -814,20 +708,6 @@ def _describe(value) -> str:
     return repr(text if len(text) <= 40 else text[:37] + "...")
 
 
-def _mm(m: float) -> str:
-    return f"{m * 1e3:.3g} mm"
-
-
-def _metres(m: float) -> str:
-    return f"{m:.2f} m"
-
-
-def _ohm(r: float) -> str:
-    return f"{r:g} ohm"
-
-
-def _deg(rad: float) -> str:
-    return f"{math.degrees(rad):.3g} deg"
 
 
 #: dates before this year are refused: no build sheet or measurement is older, and a PDF's dates

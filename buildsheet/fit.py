@@ -1,7 +1,7 @@
 """Measured sweep -> fitted model -> trim advice and calibration: owns fitting the antenna model to an
 impedance sweep measured at the tap, the advice on the short, the tap and the radiator, and writing the
 fitted calibration into the design file. It must not change the model (physics/), the schema, or any
-file but the design file and its backup (the splice helpers and the atomic replace are record.py's).
+file but the design file and its backup (changed through editing.update_design).
 
 Symbols (SI: Hz, m, ohm):
     f, f0        sweep frequencies and the design frequency
@@ -61,10 +61,13 @@ import numpy as np
 import yaml
 from scipy.optimize import brentq, least_squares, root
 
-from buildsheet import record, units
-from buildsheet.design import DATE_FORMAT, Calibration, Design, design_from_text, parse_date
+from buildsheet import units
+from buildsheet.editing import after_block, find_key, newline, put_block, scalar, top_level, update_design
+from buildsheet.design import DATE_FORMAT, Calibration, Design, parse_date
 from buildsheet.errors import DesignError, RecordError, SweepError, one_line
 from buildsheet.physics import jpole
+from buildsheet.physics.lines import reflection, swr_of
+from buildsheet.schema import CALIBRATION_RANGE
 from buildsheet.solver import Dimensions, antenna_model, solve
 from buildsheet.touchstone import Sweep
 
@@ -92,8 +95,6 @@ _STARTS = 2
 CALIBRATION_TOLERANCE_M = 0.5e-3
 #: calibration values are written to this many significant digits
 CALIBRATION_DIGITS = 6
-#: the range design.py accepts for every calibration parameter
-CALIBRATION_RANGE = (0.5, 2.0)
 
 
 @dataclass(frozen=True, eq=False)
@@ -222,7 +223,7 @@ def _model(design: Design, cal: Calibration) -> _Model:
 
 def calibration_bounds(design: Design) -> tuple[tuple[float, float], ...]:
     """(lo, hi) of radiator_scale, end_resistance_scale, stub_velocity_scale that the design
-    validator accepts: CALIBRATION_RANGE for each (design.py)."""
+    validator accepts: CALIBRATION_RANGE for each (schema.py)."""
     return (CALIBRATION_RANGE,) * 3
 
 
@@ -245,7 +246,7 @@ def check_coverage(sweep: Sweep, z_ref: float) -> int:
         raise SweepError(f"reflects all the power at every point (|S11| >= 1 on {z_ref:g} ohm even at "
                          "its best): no antenna is connected there, or the analyzer is not calibrated",
                          file=sweep.path)
-    lowest = f"its lowest SWR ({_swr(mag[i]):.2f}, at {units.format_frequency(f[i])})"
+    lowest = f"its lowest SWR ({swr_of(mag[i]):.2f}, at {units.format_frequency(f[i])})"
     advice = ("sweep a range with the lowest SWR well inside it, a few points beyond it on each side; "
               "the fit does not guess from a sweep that does not show the match")
     if i < EDGE_POINTS or i > n - 1 - EDGE_POINTS:
@@ -260,13 +261,6 @@ def check_coverage(sweep: Sweep, z_ref: float) -> int:
     return i
 
 
-def _swr(mag):
-    """SWR from |rho|; inf from |rho| = 1 up (a sweep of a faulty or badly calibrated analyser)."""
-    mag = np.minimum(np.asarray(mag, dtype=float), 1.0)
-    with np.errstate(divide="ignore"):
-        return (1.0 + mag) / (1.0 - mag)
-
-
 def _fit_electrical(model: _Model, f, rho_meas, w, z_ref, D0: Dimensions, fit_radiator: bool,
                     start=None):
     """Least squares of the weighted reflection residual over the fractions (S/S0, T/T0) and, if
@@ -275,7 +269,7 @@ def _fit_electrical(model: _Model, f, rho_meas, w, z_ref, D0: Dimensions, fit_ra
     def residual(x):
         lf = x[2] if fit_radiator else 1.0
         z = model.z_feed(f, D0.radiator * lf, D0.stub * x[0], D0.tap * x[1])
-        r = ((z - z_ref) / (z + z_ref) - rho_meas) * w
+        r = (reflection(z, z_ref) - rho_meas) * w
         return np.concatenate([r.real, r.imag])
 
     bounds = [ELECTRICAL_BOUNDS[1], ELECTRICAL_BOUNDS[2]] + ([ELECTRICAL_BOUNDS[0]] if fit_radiator else [])
@@ -348,11 +342,11 @@ def fit_sweep(design: Design, sweep: Sweep, built: Dimensions | None = None) -> 
     rounded = {key: units.parse_quantity(units.format_length(m, u), "length") for key, m in moves.items()}
     after = (E[0] + rounded["radiator"], E[1] - rounded["short"],
              E[2] + rounded["tap"] - rounded["short"])
-    swr_after = float(_swr(abs(_rho(model0.z_feed(f0, *after)[0], z_ref))))
+    swr_after = float(swr_of(abs(reflection(model0.z_feed(f0, *after)[0], z_ref))))
     swr_before = None
     if f[0] <= f0 <= f[-1]:
         rho0 = np.interp(f0, f, rho_meas.real) + 1j * np.interp(f0, f, rho_meas.imag)
-        swr_before = float(_swr(abs(rho0)))
+        swr_before = float(swr_of(abs(rho0)))
     i_best = int(np.argmin(np.abs(rho_meas)))
     return Fit(
         design=design, sweep=sweep, units=u, built=D0, electrical=tuple(float(e) for e in E),
@@ -360,8 +354,8 @@ def fit_sweep(design: Design, sweep: Sweep, built: Dimensions | None = None) -> 
         advised=tuple(float(a) for a in advised), moves_m=moves,
         moves_rounded_m=rounded, calibration=calibration, calibration_note=note, z_fit=z_fit,
         fit_rms_ohm=float(np.sqrt(np.mean(np.abs(z_fit - sweep.z_ohm) ** 2))),
-        fit_rms_reflection=float(np.sqrt(np.mean(np.abs(_rho(z_fit, z_ref) - rho_meas) ** 2))),
-        swr_before=swr_before, best_hz=float(f[i_best]), best_swr=float(_swr(abs(rho_meas[i_best]))),
+        fit_rms_reflection=float(np.sqrt(np.mean(np.abs(reflection(z_fit, z_ref) - rho_meas) ** 2))),
+        swr_before=swr_before, best_hz=float(f[i_best]), best_swr=float(swr_of(abs(rho_meas[i_best]))),
         swr_after=swr_after)
 
 
@@ -374,10 +368,6 @@ def _thinned(n: int, must: int) -> np.ndarray:
     if n <= FIT_POINTS:
         return np.arange(n)
     return np.union1d(np.round(np.linspace(0, n - 1, FIT_POINTS)).astype(int), [must])
-
-
-def _rho(z, z_ref):
-    return (z - z_ref) / (z + z_ref)
 
 
 def _calibrate(design: Design, model0: _Model, E, D0: Dimensions, target, retune: bool):
@@ -458,7 +448,7 @@ def fit_text(fit: Fit, written: dict | None = None) -> str:
     """The terminal report of `buildsheet fit`: the fit, the moves in the design's units, the SWR
     predicted after them, and what --write does or did."""
     u = fit.units
-    L = lambda m: units.format_length(m, u)  # noqa: E731 - a local shorthand
+    fmt = lambda m: units.format_length(m, u)  # noqa: E731 - a local shorthand
     d, s = fit.design, fit.sweep
     D0, E, adv, mv = fit.built, fit.electrical, fit.advised, fit.moves_rounded_m
     f0 = units.format_frequency(d.frequency_hz)
@@ -473,10 +463,10 @@ def fit_text(fit: Fit, written: dict | None = None) -> str:
         f"SWR at {f0}: {before}")
     add(f"fit: rms {units.format_impedance(fit.fit_rms_ohm)} (reflection {fit.fit_rms_reflection:.3f}) "
         "over the sweep, weighted to the match")
-    radiator = f"radiator {L(E[0])}, " if fit.radiator_fitted else ""
-    built = f"{L(D0.radiator)}, " if fit.radiator_fitted else ""
-    add(f"  the antenna behaves as the model with {radiator}stub {L(E[1])} and tap {L(E[2])} "
-        f"(built: {built}{L(D0.stub)} and {L(D0.tap)})")
+    radiator = f"radiator {fmt(E[0])}, " if fit.radiator_fitted else ""
+    built = f"{fmt(D0.radiator)}, " if fit.radiator_fitted else ""
+    add(f"  the antenna behaves as the model with {radiator}stub {fmt(E[1])} and tap {fmt(E[2])} "
+        f"(built: {built}{fmt(D0.stub)} and {fmt(D0.tap)})")
     if not fit.radiator_retuned:
         add("  the radiator is left as it is: the sweep does not tell its length apart from the model's "
             "own error, so the short and the tap do the matching")
@@ -484,25 +474,25 @@ def fit_text(fit: Fit, written: dict | None = None) -> str:
     add(f"To match at {f0} ({units.length_rounding(u)}):")
     r = mv["radiator"]
     if r == 0:
-        add(f"  1. Radiator: no change ({L(D0.radiator)}).")
+        add(f"  1. Radiator: no change ({fmt(D0.radiator)}).")
     else:
         why = "" if fit.radiator_retuned else (" (a small change that follows the stub's correction: "
                                                "the radiator works against the stub's common mode)")
-        add(f"  1. Radiator: {'add' if r > 0 else 'trim'} {L(abs(r))} "
-            f"({L(D0.radiator)} -> {L(adv[0])}){why}.")
+        add(f"  1. Radiator: {'add' if r > 0 else 'trim'} {fmt(abs(r))} "
+            f"({fmt(D0.radiator)} -> {fmt(adv[0])}){why}.")
     sh = mv["short"]
     if sh == 0:
-        add(f"  2. Short: no change (stub {L(D0.stub)}).")
+        add(f"  2. Short: no change (stub {fmt(D0.stub)}).")
     else:
         passes = " Take the tap off first: the short passes its place." if sh >= D0.tap else ""
-        add(f"  2. Short: move it {L(abs(sh))} {'toward' if sh > 0 else 'away from'} the top "
-            f"(stub {L(D0.stub)} -> {L(adv[1])}).{passes}")
+        add(f"  2. Short: move it {fmt(abs(sh))} {'toward' if sh > 0 else 'away from'} the top "
+            f"(stub {fmt(D0.stub)} -> {fmt(adv[1])}).{passes}")
     tp = mv["tap"]
-    where = f"it then sits {L(adv[2])} above the short (it was {L(D0.tap)})"
+    where = f"it then sits {fmt(adv[2])} above the short (it was {fmt(D0.tap)})"
     if tp == 0:
         add(f"  3. Tap: leave the clamp where it is; {where}.")
     else:
-        add(f"  3. Tap: move it {L(abs(tp))} {'up, toward' if tp > 0 else 'down, away from'} the top; "
+        add(f"  3. Tap: move it {fmt(abs(tp))} {'up, toward' if tp > 0 else 'down, away from'} the top; "
             f"{where}.")
     add(f"Predicted SWR at {f0} after these moves: {fit.swr_after:.2f}. Sweep again to check.")
     add("")
@@ -520,7 +510,7 @@ def fit_text(fit: Fit, written: dict | None = None) -> str:
 
 
 # ----------------------------------------------------------------------------------------------
-# Writing the calibration into the design file (record.py's splice helpers and atomic replace)
+# Writing the calibration into the design file (editing.py's splice helpers and update)
 
 def sweep_date(path: str) -> str:
     """The sweep file's modification date, YYYY-MM-DD (UTC): when it was measured, as far as a file
@@ -535,42 +525,25 @@ def splice_calibration(text: str, cal: Calibration) -> str:
     """`text` with its `calibration:` value replaced by `cal` (a block mapping); every character
     outside that value is kept. No `calibration:` key: one is added at the end of the top-level
     mapping. Raises RecordError for a document written as one flow mapping."""
-    root = yaml.compose(text, Loader=yaml.SafeLoader)
-    if not isinstance(root, yaml.MappingNode) or root.flow_style:
-        raise RecordError("is written as one flow mapping {...}; write the file as a block mapping "
-                          "(one key per line) to store a calibration")
-    nl = record._newline(text)
-    base = root.start_mark.column
+    root = top_level(text, "store the calibration by hand")
+    nl = newline(text)
     entries = [("radiator_scale", repr(cal.radiator_scale)),
                ("end_resistance_scale", repr(cal.end_resistance_scale)),
                ("stub_velocity_scale", repr(cal.stub_velocity_scale)),
-               ("source", record.scalar(cal.source)), ("date", record.scalar(cal.date))]
+               ("source", scalar(cal.source)), ("date", scalar(cal.date))]
 
     def block(column: int) -> str:
         return "".join(f"{' ' * column}{key}: {value}{nl}" for key, value in entries)
 
-    for key, value in root.value:
-        if key.value == "calibration":
-            break
-    else:
-        end = root.end_mark.index
-        return (text[:end] + record._lead(text, end, nl) + " " * base + "calibration:" + nl
-                + block(base + record._indent(root)) + text[end:])
+    found = find_key(root, "calibration")
+    value = found[1] if found else None
     if isinstance(value, yaml.MappingNode) and value.value:
         if value.flow_style:
             flow = "{" + ", ".join(f"{k}: {v}" for k, v in entries) + "}"
             return text[:value.start_mark.index] + flow + text[value.end_mark.index:]
         column = value.start_mark.column
-        end = record._last_leaf(value).end_mark
-        at = end.index if end.column == 0 else record._line_end(text, end.index)
-        return text[:value.start_mark.index - column] + block(column) + text[at:]
-    # an empty value ({}, ~, null or nothing): drop it, keep a comment after it, put the block below
-    start, end = value.start_mark.index, value.end_mark.index
-    while start > key.end_mark.index and text[start - 1] in " \t":
-        start -= 1
-    at = record._line_end(text, end)
-    return (text[:start] + text[end:at] + record._lead(text, at, nl)
-            + block(base + record._indent(root)) + text[at:])
+        return text[:value.start_mark.index - column] + block(column) + text[after_block(text, value):]
+    return put_block(text, root, "calibration", block)
 
 
 def write_calibration(path: str, fit: Fit, date: str | None = None) -> dict:
@@ -584,37 +557,26 @@ def write_calibration(path: str, fit: Fit, date: str | None = None) -> dict:
     when = parse_date(date) if date is not None else sweep_date(fit.sweep.path)
     if when is None:
         raise RecordError(f"must be {DATE_FORMAT}, got '{one_line(str(date))}'", key="--date")
-    with record.design_lock(path):
-        return _write_calibration(path, fit, when)
-
-
-def _write_calibration(path: str, fit: Fit, when) -> dict:
-    raw, before = record._read(path)
-    bom = record._BOM if raw.startswith(record._BOM) else b""
-    try:
-        text = raw[len(bom):].decode("utf-8")
-    except UnicodeDecodeError as exc:
-        raise DesignError(f"is not UTF-8 text (byte {exc.start + len(bom)})", file=path) from None
-    old = design_from_text(text, path)
-    if old.with_changes(output=fit.design.output) != fit.design:
-        raise RecordError("changed since it was read for the fit; nothing was written: run the command "
-                          "again", file=path)
     cal = dataclasses.replace(fit.calibration, source=os.path.basename(fit.sweep.path), date=when)
-    new_text = splice_calibration(text, cal)
-    try:
-        new = design_from_text(new_text, path)
-    except DesignError as exc:
-        raise RecordError(f"the calibration cannot be stored ({exc.problem}); nothing was written",
-                          file=path, key=exc.key) from None
-    if new != old.with_changes(calibration=cal):
-        raise RecordError("the file with the calibration does not read back as the old design with the "
-                          "new calibration; nothing was written (please report this file)", file=path)
-    got = solve(new).dimensions
-    diff = np.abs(np.array([got.radiator, got.stub, got.tap]) - np.array(fit.advised))
-    if np.max(diff) > CALIBRATION_TOLERANCE_M:
-        raise RecordError("`solve` with this calibration would not give the advised dimensions (off by "
-                          f"{np.max(diff) * 1e3:.1f} mm: this version of the model does not apply every "
-                          "calibration parameter yet); nothing was written: make the moves by hand",
-                          file=path)
-    backup = record._replace(path, raw, before, bom + new_text.encode("utf-8"))
-    return {"design": path, "backup": backup, "design_id": new.document_id}
+
+    def change(text: str, old: Design):
+        if old.with_changes(output=fit.design.output) != fit.design:
+            raise RecordError("changed since it was read for the fit; nothing was written: run the "
+                              "command again", file=path)
+        return splice_calibration(text, cal), old.with_changes(calibration=cal)
+
+    def refused(exc: DesignError, old: Design):
+        return RecordError(f"the calibration cannot be stored ({exc.problem}); nothing was written",
+                           file=path, key=exc.key)
+
+    def verify(old: Design, new: Design) -> None:
+        got = solve(new).dimensions
+        diff = np.abs(np.array([got.radiator, got.stub, got.tap]) - np.array(fit.advised))
+        if np.max(diff) > CALIBRATION_TOLERANCE_M:
+            raise RecordError("`solve` with this calibration would not give the advised dimensions (off "
+                              f"by {np.max(diff) * 1e3:.1f} mm: this version of the model does not apply "
+                              "every calibration parameter yet); nothing was written: make the moves by "
+                              "hand", file=path)
+
+    done = update_design(path, change, refused=refused, verify=verify, what="the calibration")
+    return {"design": path, "backup": done.backup, "design_id": done.new.document_id}

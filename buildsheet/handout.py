@@ -16,17 +16,17 @@ import dataclasses
 import os
 import signal
 import sys
-from collections.abc import Callable, Mapping, Sequence
-from dataclasses import dataclass
+from collections.abc import Callable, Sequence
 
 from markupsafe import escape
 
 from buildsheet import fonts, units
 from buildsheet.design import Design, load_design, revision_date
 from buildsheet.drawing.figures import figures
-from buildsheet.drawing.shapes import Drawing
 from buildsheet.errors import BuildsheetError, one_line
-from buildsheet.sheet import Para, Section, Sheet, Table, build_sheet, render_blocks
+from buildsheet.blocks import Booklet, Contents, ContentsEntry, Cover, PageRef, Part  # noqa: F401
+from buildsheet.blocks import Para, Section, Table
+from buildsheet.sheet import build_sheet, line_text, render_blocks
 from buildsheet.solver import Solution, solve
 
 DEFAULT_TITLE = "Antenna build sheets"
@@ -34,69 +34,6 @@ DEFAULT_TITLE = "Antenna build sheets"
 MAX_TEXT_CHARS = 120
 SUMMARY_COLUMNS = ("design", "band", "design frequency", "radiator", "stub", "tap", "stub line",
                    "predicted 2:1 band", "page")
-
-
-# ----------------------------------------------------------------------------------------------
-# Blocks of the booklet's own pages (besides sheet.py's)
-
-@dataclass(frozen=True)
-class PageRef:
-    """The booklet page on which the part named `key` starts (a table cell; the writer fills it in)."""
-    key: str
-
-
-@dataclass(frozen=True)
-class ContentsEntry:
-    title: str
-    detail: str
-    key: str
-
-
-@dataclass(frozen=True)
-class Contents:
-    """The contents: one entry per part, each with the page its part starts on."""
-    entries: tuple
-
-
-@dataclass(frozen=True)
-class Cover:
-    """The cover page: title, event (may be empty), date, label and value rows, a caution."""
-    title: str
-    event: str
-    date: str
-    facts: tuple
-    note: str
-
-
-@dataclass(frozen=True)
-class Part:
-    """One design prepared for the booklet: its sheet and figures, and its row of the summary."""
-    key: str
-    sheet: Sheet
-    drawings: Mapping[str, Drawing]
-    band: str                  # the band's name, or its edges, plain text
-    frequency_hz: float
-    v_peak_v: float            # the highest voltage of the design, at either open end, V peak
-    power_w: float             # the transmitter's PEP those voltages are for, W
-    row: tuple
-
-
-@dataclass(frozen=True)
-class Booklet:
-    """The whole handout: page furniture of its own pages (plain text), the cover, the front
-    sections (safety, contents, summary) and the sheets, in order."""
-    title: str
-    event: str
-    date: str
-    paper: str
-    subtitle: str
-    furniture: tuple
-    page_label: str
-    footer: str
-    subject: str
-    cover: Cover
-    front: tuple
-    sheets: tuple
 
 
 # ----------------------------------------------------------------------------------------------
@@ -359,16 +296,6 @@ def _summary(parts: Sequence[Part]) -> tuple:
     )
 
 
-def _line(design: Design, u: str) -> str:
-    """The stub line in a few words: its catalogue name, or what it was given by."""
-    stub = design.stub
-    if stub.name != "custom":
-        return stub.name
-    if stub.kind == "geometry":
-        return f"two-wire, {_nb(units.format_length(stub.spacing_m, u, 'size'))} spacing, {stub.dielectric}"
-    return f"two-wire, {_nb(units.format_impedance(stub.z0_ohm))} as measured"
-
-
 def _summary_row(key: str, design: Design, s: Solution, band: str) -> tuple:
     u = design.output.units
     dims = s.dimensions
@@ -377,7 +304,7 @@ def _summary_row(key: str, design: Design, s: Solution, band: str) -> tuple:
         f"<b>{_e(design.title)}</b><br/>{_e(design.name)}, {_e(s.design_id)}",
         _e(band), _e(_nb(_mhz(s.frequency_hz))),
         *(_e(_nb(units.format_length(m, u))) for m in (dims.radiator, dims.stub, dims.tap)),
-        _e(_line(design, u)),
+        _e(line_text(design, s, brief=True)),
         _e(f"{_nb(_mhz(swr2[0]))} to {_nb(_mhz(swr2[1]))}") if swr2 else _e("none"),
         PageRef(key),
     )

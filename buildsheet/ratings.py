@@ -30,7 +30,7 @@ from typing import TYPE_CHECKING
 import numpy as np
 
 from buildsheet import units
-from buildsheet.catalog import catalog, raw_section
+from buildsheet.catalog import raw_section
 from buildsheet.units import parse_quantity, parse_wire
 
 if TYPE_CHECKING:      # only for annotations: the solver imports this module
@@ -433,18 +433,12 @@ def _coax_voltage(design, s) -> list[Finding]:
 
 
 def lowest_live_point(design: "Design", s: "Solution") -> tuple[float, str]:
-    """Height above ground of the antenna's lowest conductor, m, and what it is: the short (bottom
-    of the stub) of a horizontal or sloping antenna, or the sloper's far end if lower; the short of a
-    vertical (its height)."""
-    site, dims = design.site, s.dimensions
-    if site.orientation == "vertical":
-        return site.height_m, "the short at the bottom of the stub"
-    short = site.height_m - dims.stub
-    if site.orientation == "sloper":
-        far = site.height_m - dims.radiator * math.sin(site.slope_rad)
-        if far < short:
-            return far, "the radiator's far end"
-    return short, "the bottom of the stub"
+    """Height above ground of the antenna's lowest conductor, m, and what it is: the solution's
+    lowest live point (solver.Parts: the bottom of the stub, or a sloper's far end if lower); for a
+    vertical, whose short is on the mast, the short's height."""
+    if s.parts.lowest_point_m is None:
+        return design.site.height_m, "the short at the bottom of the stub"
+    return s.parts.lowest_point_m, s.parts.lowest_point
 
 
 def _reach(design, s) -> list[Finding]:

@@ -23,7 +23,6 @@ from __future__ import annotations
 import importlib.resources
 import math
 import re
-from dataclasses import dataclass
 from pathlib import Path
 
 import jinja2
@@ -31,6 +30,8 @@ import numpy as np
 from markupsafe import escape
 
 from buildsheet import units
+from buildsheet.blocks import (Facts, Figures, Heading, KeyFigure, KeyFigures, Para, Section, Sheet,  # noqa: F401
+                               Steps, Table, WriteIn)
 from buildsheet.catalog import national_bands
 from buildsheet.design import Design
 from buildsheet.layout import describe, site_layout
@@ -69,102 +70,6 @@ STANDARD_NAMES = {"us-fcc": "47 CFR 1.1310", "icnirp-2020": "ICNIRP 2020"}
 #: the exposure categories in each standard's own words: (controlled, general)
 CATEGORY_NAMES = {"us-fcc": ("occupational/controlled", "general population/uncontrolled"),
                   "icnirp-2020": ("occupational", "general public")}
-
-
-# ----------------------------------------------------------------------------------------------
-# Blocks
-
-@dataclass(frozen=True)
-class Heading:
-    """A subheading inside a section."""
-    text: str
-
-
-@dataclass(frozen=True)
-class Para:
-    """A paragraph; style: body | note | caution."""
-    text: str
-    style: str = "body"
-
-
-@dataclass(frozen=True)
-class Steps:
-    """Numbered steps."""
-    items: tuple
-
-
-@dataclass(frozen=True)
-class KeyFigure:
-    label: str
-    value: str
-    meaning: str
-
-
-@dataclass(frozen=True)
-class KeyFigures:
-    """The key dimensions, printed large."""
-    figures: tuple
-
-
-@dataclass(frozen=True)
-class Facts:
-    """Label and value rows."""
-    rows: tuple
-
-
-@dataclass(frozen=True)
-class Table:
-    """A table: header, rows, relative column widths, alignment per column (left | right).
-    boxes: per row, how many check boxes to draw in an extra first column (None: no such column);
-    blank_rows: ruled empty rows after the rows, tall enough to write in by hand."""
-    header: tuple
-    rows: tuple
-    widths: tuple
-    align: tuple
-    boxes: tuple | None = None
-    blank_rows: int = 0
-
-
-@dataclass(frozen=True)
-class WriteIn:
-    """Blank ruled rows to fill in by hand: at least min_rows, more if the page has room."""
-    header: tuple
-    widths: tuple
-    min_rows: int
-
-
-@dataclass(frozen=True)
-class Figures:
-    """Drawings by their key in figures(); set side by side where they fit."""
-    keys: tuple
-
-
-@dataclass(frozen=True)
-class Section:
-    key: str
-    title: str
-    blocks: tuple
-    new_page: bool = False
-
-
-@dataclass(frozen=True)
-class Sheet:
-    """The whole sheet: page furniture (plain text) and sections in order (markup)."""
-    title: str
-    name: str
-    document_id: str
-    date: str
-    paper: str
-    units: str
-    subtitle: str             # under the title in the title block
-    furniture: tuple          # the title block's right-hand lines: name, document ID (bold), date
-    page_label: str           # with {page} and {pages}
-    footer: str
-    subject: str              # PDF metadata
-    sections: tuple
-
-    def section(self, key: str) -> Section:
-        return next(s for s in self.sections if s.key == key)
 
 
 # ----------------------------------------------------------------------------------------------
@@ -361,6 +266,23 @@ def build_sheet(design: Design, solution: Solution, date: str) -> Sheet:
     )
 
 
+def line_text(design: Design, solution: Solution, brief: bool = False) -> str:
+    """The stub line as the sheet and the booklet name it: the cut list's name (solver.Parts), with
+    what a line from the design file was given by (in the design's units); `brief`: as short as the
+    booklet's summary column needs."""
+    st, u = design.stub, design.output.units
+    if st.name != "custom":
+        return solution.parts.line_name
+    if st.kind == "geometry":
+        spacing = _nb(units.format_length(st.spacing_m, u, "size"))
+        if brief:
+            return f"two-wire, {spacing} spacing, {st.dielectric}"
+        return (f"two-wire line, {spacing} spacing, "
+                f"{_nb(units.format_length(st.conductor_diameter_m, u, 'size'))} conductors in {st.dielectric}")
+    return f"two-wire, {_nb(units.format_impedance(st.z0_ohm))} as measured" if brief else \
+        solution.parts.line_name
+
+
 class _Context:
     """The design, its solution and the shorthands every section uses."""
 
@@ -457,25 +379,18 @@ class _Context:
         return "far end insulator's attachment point"
 
     def line_name(self) -> str:
-        st = self.d.stub
-        if st.name != "custom":
-            return st.name
-        if st.kind == "geometry":
-            return (f"two-wire line, {self.size(st.spacing_m)} spacing, "
-                    f"{self.size(st.conductor_diameter_m)} conductors in {st.dielectric}")
-        return "two-wire line as measured"
+        return line_text(self.d, self.s)
 
     def radiator_text(self) -> str:
-        r = self.d.radiator
+        r, name = self.d.radiator, self.s.parts.radiator_name
         if r.diameter_m >= RIGID_DIAMETER_M and r.insulation == "bare":
             size = conductor_size(r.diameter_m, self.u, r.material)
             return f"{size}, bare" if r.material in size else f"{size}, {r.material}, bare"
         if r.insulation == "bare":
-            return f"{r.label} {r.material}, bare"
+            return f"{name}, bare"
         spread = (f"; sources {velocity_factor_text(*r.velocity_factor_spread)}"
                   if r.velocity_factor_spread is not None else "")
-        return (f"{r.label} {r.material}, {r.insulation} insulated (velocity factor "
-                f"{r.velocity_factor:.2f}{spread})")
+        return f"{name} (velocity factor {r.velocity_factor:.2f}{spread})"
 
     def ground(self) -> str:
         site = self.d.site
@@ -744,7 +659,7 @@ class _Context:
         best = int(np.argmin(sw.swr))
         swr2 = s.band_swr2_hz
         tolerance = _nice(0.1 * (swr2[1] - swr2[0])) if swr2 else _nice(0.002 * f0)
-        rigid = d.radiator.diameter_m >= RIGID_DIAMETER_M
+        rigid = s.parts.rigid_radiator
         fc = s.first_cut
         return dict(
             stub_margin=self.length(fc.stub_margin_m), has_stub_margin=self.shown(fc.stub_margin_m),
@@ -856,7 +771,7 @@ class _Context:
         if r.insulation == "custom":
             return (f"The jacket's velocity factor {r.velocity_factor:g} is your own figure from the design "
                     "file; the radiator is cut to it with no tuning margin.")
-        what = "pipe or rod" if r.diameter_m >= RIGID_DIAMETER_M else "wire"
+        what = "pipe or rod" if self.s.parts.rigid_radiator else "wire"
         return f"The radiator is bare {what}: no jacket, so no velocity-factor spread and no tuning margin."
 
     def log(self) -> tuple:
@@ -872,7 +787,7 @@ class _Context:
         d, s = self.d, self.s
         e = s.exposure
         controlled, general = CATEGORY_NAMES[e.standard]
-        low_point, low_what = self.lowest_live_point()
+        low_point, low_what = s.parts.lowest_point_m, s.parts.lowest_point
         return render_blocks(
             "cautions.j2", top_height=self.length(self.top_height()), power=self.pep,
             v_open_rms=_volts(s.voltage_open_end_v_rms),
@@ -888,19 +803,6 @@ class _Context:
             in_near_field=e.distance_general_m < e.near_field_m,
             near_field=self.distance(e.near_field_m), f0=self.f0,
             findings=[(_capital(f.part), f.body) for f in s.findings])
-
-    def lowest_live_point(self) -> tuple[float | None, str]:
-        """Height of the lowest conductor end above ground, m, and what it is (horizontal: the short;
-        sloper: the short or the radiator's far end; vertical: None, the short is on the mast)."""
-        site, dims = self.d.site, self.s.dimensions
-        if site.orientation == "vertical":
-            return None, ""
-        short = site.height_m - dims.stub
-        if site.orientation == "sloper":
-            far = site.height_m - dims.radiator * math.sin(site.slope_rad)
-            if far < short:
-                return far, "the radiator's far end"
-        return short, "the bottom of the stub"
 
     # -- 9. as-built record ------------------------------------------------------------------
     def as_built(self) -> tuple:

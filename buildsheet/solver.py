@@ -5,6 +5,7 @@ no rounding, no units other than SI, no text beyond the cut-list and hardware no
 
 from __future__ import annotations
 
+import contextlib
 import dataclasses
 import math
 from dataclasses import dataclass
@@ -14,12 +15,14 @@ import numpy as np
 from buildsheet.design import Design
 from buildsheet.errors import BuildsheetError, DesignError
 from buildsheet.layout import TIE_OFF_M, site_layout
+from buildsheet.physics import ModelError
 from buildsheet.physics import choke as choke_physics
 from buildsheet.physics import exposure as exposure_physics
 from buildsheet.physics import jpole
 from buildsheet.physics import radiation as radiation_physics
-from buildsheet.physics.coax import total_loss_db
-from buildsheet.physics.lines import DB_PER_NEPER, Line, input_impedance, reflection, swr
+from buildsheet.physics.coax import matched_loss_db, through_coax, total_loss_db
+from buildsheet.physics.lines import DB_PER_NEPER, Line, reflection, swr
+from buildsheet.schema import RULES, deg, metres
 
 FT = 0.3048
 SWEEP_POINTS = 241
@@ -137,6 +140,21 @@ class StubLineData:
 
 
 @dataclass(frozen=True)
+class Parts:
+    """What the parts are, worked out once for the sheet, the figures and the booklet: rigid (pipe or
+    rod, RIGID_DIAMETER_M and up) or wire; the stub line's and the radiator's names as the cut list
+    gives them; the choke form's length, m; the lowest live conductor end above ground, m (None for
+    a vertical: its short is on the mast), and what it is."""
+    rigid_radiator: bool
+    rigid_stub: bool
+    line_name: str
+    radiator_name: str
+    choke_form_m: float
+    lowest_point_m: float | None
+    lowest_point: str
+
+
+@dataclass(frozen=True)
 class Solution:
     name: str
     design_id: str
@@ -166,6 +184,7 @@ class Solution:
     choke: choke_physics.ChokeDesign
     exposure: Exposure
     first_cut: FirstCut
+    parts: Parts
     warnings: tuple = ()
     #: ratings.Finding: the design's figures against the parts' ratings, reach and exposure
     findings: tuple = ()
@@ -323,18 +342,28 @@ def band_edges(f: np.ndarray, swr_values: np.ndarray, f0: float, limit: float) -
 
 def solve(design: Design) -> Solution:
     """Solve a design: dimensions, sweep, voltages, efficiency, sensitivities, choke, exposure."""
-    try:
+    with _refusals(design):
         solution = _solve(design)
-    except BuildsheetError as exc:  # physics refusals carry no file: name the design's
-        raise exc.located(file=design.path)
-    except (ZeroDivisionError, OverflowError, FloatingPointError) as exc:
-        # a degenerate geometry that reached a division by zero or an overflow inside the model
-        raise DesignError(f"the model cannot solve this design ({type(exc).__name__}: {exc}); it lies "
-                          "outside what the transmission-line model covers", file=design.path) from None
     check_solution(solution, design)
     from buildsheet import ratings
     return dataclasses.replace(solution, findings=ratings.check(design, solution),
                                assumptions=ratings.assumptions(design, solution))
+
+
+@contextlib.contextmanager
+def _refusals(design: Design):
+    """The physics' refusals (ModelError: a plain message, no file) and the solver's own, as
+    DesignErrors naming the design's file."""
+    try:
+        yield
+    except BuildsheetError as exc:
+        raise exc.located(file=design.path)
+    except ModelError as exc:
+        raise DesignError(" ".join(str(exc).split()), file=design.path) from None
+    except (ZeroDivisionError, OverflowError, FloatingPointError) as exc:
+        # a degenerate geometry that reached a division by zero or an overflow inside the model
+        raise DesignError(f"the model cannot solve this design ({type(exc).__name__}: {exc}); it lies "
+                          "outside what the transmission-line model covers", file=design.path) from None
 
 
 #: efficiency and SWR are compared with this much rounding slack (they are computed, not measured)
@@ -413,20 +442,7 @@ def _solve(design: Design) -> Solution:
     ant = antenna_model(design)
     f0 = design.frequency_hz
     z_feed = design.feed.impedance_ohm
-    try:
-        # a search that wanders outside the physical region is refused below; its numpy warnings
-        # would only be noise on the user's terminal
-        with np.errstate(all="ignore"):
-            at_f0 = jpole.at_frequency(f0, ant)
-            radiator = jpole.resonant_radiator_length(f0, ant, prepared=at_f0)
-            stub, tap = jpole.solve_match(f0, z_feed, ant, radiator, prepared=at_f0)
-    except ValueError as exc:
-        why = " ".join(str(exc).split())
-        raise DesignError(f"cannot be matched to {z_feed:g} ohm with this line and wire "
-                          f"(a very lossy or unusual line?): {why}",
-                          file=design.path, key="stub.line") from None
-
-    _check_clearance(design, radiator, stub)
+    radiator, stub, tap, at_f0 = _match(design, ant)
 
     low, high = design.band_hz
     f = np.linspace(low * (1 - SWEEP_MARGIN), high * (1 + SWEEP_MARGIN), SWEEP_POINTS)
@@ -434,13 +450,13 @@ def _solve(design: Design) -> Solution:
     z = jpole.feed_impedance(f, ant, radiator, stub, tap)
     swr_feed = swr(z, z_feed)
     coax = coax_line_model(design)
-    z_tx = input_impedance(coax, f, design.feed.length_m, z)
+    z_tx = through_coax(z, coax, f, design.feed.length_m)
     swr_tx = swr(z_tx, design.feed.coax_z0_ohm)
     i0 = int(np.argmin(np.abs(f - f0)))
 
     # power reaching the tap: the transmitter's PEP less the coax loss at the design frequency
     # (matched loss plus the extra loss from the mismatch on the coax, exact for real Z0)
-    matched_db = float(coax.gamma(f0).real * DB_PER_NEPER * design.feed.length_m)
+    matched_db = float(matched_loss_db(coax.gamma(f0).real * DB_PER_NEPER, design.feed.length_m))
     rho = float(abs(reflection(z[i0], design.feed.coax_z0_ohm)))
     loss_db = float(total_loss_db(matched_db, min(rho, 0.999999)))
     p_tap = design.power.transmitter_w * 10 ** (-loss_db / 10)
@@ -468,7 +484,8 @@ def _solve(design: Design) -> Solution:
     first = first_cut(design, dims, stub_data.velocity_factor)
     from buildsheet import sleeve as sleeve_module
     sl = sleeve_module.sleeve_for(design, ch)
-    cut, hardware = _cut_list(design, dims, wrap, ch, first, sl)
+    parts = _parts(design, dims, ch)
+    cut, hardware = _cut_list(design, dims, wrap, ch, first, parts, sl)
     return Solution(
         name=design.name, design_id=design.document_id, frequency_hz=f0, band_hz=tuple(design.band_hz),
         dimensions=dims, radiator_cut_m=radiator + first.radiator_margin_m + 2 * wrap,
@@ -485,9 +502,29 @@ def _solve(design: Design) -> Solution:
                       "radiator_wire": state.p_wire, "ground": state.p_ground,
                       "coax": design.power.transmitter_w - p_tap},
         sensitivity=sens._asdict(),
-        choke=ch, exposure=exposure, first_cut=first, warnings=envelope_warnings(design), sleeve=sl,
-        radiation=pattern,
+        choke=ch, exposure=exposure, first_cut=first, parts=parts, warnings=envelope_warnings(design),
+        sleeve=sl, radiation=pattern,
     )
+
+
+#: the choke form is cut this much longer than the coil, m (common practice: room for the ties)
+CHOKE_FORM_EXTRA_M = 0.05
+
+
+def _parts(design: Design, dims: Dimensions, ch) -> Parts:
+    st, r, site = design.stub, design.radiator, design.site
+    line_name = st.name if st.name != "custom" else (
+        "two-wire line by geometry" if st.kind == "geometry" else "two-wire line as measured")
+    low, what = None, ""
+    if site.orientation != "vertical":
+        low, what = site.height_m - dims.stub, "the bottom of the stub"
+        if site.orientation == "sloper":
+            far = site.height_m - dims.radiator * math.sin(site.slope_rad)
+            if far < low:
+                low, what = far, "the radiator's far end"
+    return Parts(rigid_radiator=is_rigid(r.diameter_m), rigid_stub=is_rigid(st.conductor_diameter_m),
+                 line_name=line_name, radiator_name=radiator_name(r),
+                 choke_form_m=ch.coil_length_m + CHOKE_FORM_EXTRA_M, lowest_point_m=low, lowest_point=what)
 
 
 def envelope_warnings(design: Design) -> tuple[str, ...]:
@@ -520,23 +557,88 @@ def envelope_warnings(design: Design) -> tuple[str, ...]:
     return tuple(out)
 
 
-def _check_clearance(design: Design, radiator: float, stub: float) -> None:
-    """The solved radiator and stub must stay above ground: the model's image theory does not hold for
-    a wire that reaches the ground (a radiator through its own image gives a negative radiation
-    resistance). design.py checks estimates; this checks the lengths actually solved."""
+def check_stub_clearance(design: Design, stub: float) -> None:
+    """The solved stub's short must clear the ground by schema.RULES' clearance (the README's
+    Limits): the length is the solved one, calibration included, and the model's image theory does
+    not hold for a wire that reaches the ground. stub: m."""
     site = design.site
-    if site.orientation == "vertical":
+    clearance = RULES["stub_clears_ground"].value
+    bottom = site.height_m - stub
+    if site.orientation != "vertical" and bottom < clearance:
+        raise design.fail("site.height", f"{metres(site.height_m)} leaves the stub's short {metres(bottom)} "
+                          f"above ground (the solved stub is {metres(stub)} long); raise the open top to "
+                          f"at least {metres(stub + clearance)} or hang the antenna as a sloper with a "
+                          "higher top")
+
+
+def check_far_end_clearance(design: Design, radiator: float, solved: bool = True) -> None:
+    """As check_stub_clearance, for the far end of a sloper's solved radiator (a radiator through its
+    own image gives a negative radiation resistance). radiator: m; solved False: the half wave
+    estimated where no radiator could be solved."""
+    site = design.site
+    clearance = RULES["far_end_clears_ground"].value
+    far = site.height_m - radiator * math.sin(site.slope_rad)
+    if site.orientation == "sloper" and far < clearance:
+        raise design.fail("site.slope", f"a {deg(site.slope_rad)} slope from {metres(site.height_m)} puts "
+                          f"the radiator's far end {metres(far)} above ground (the "
+                          f"{'solved radiator is' if solved else 'radiator is about'} {metres(radiator)}); "
+                          "use a smaller slope or a higher top")
+
+
+def check_geometry(design: Design) -> None:
+    """What `check` adds to validation: the ground clearance of the solved geometry (a design the
+    model cannot match is left to `solve`, which says why)."""
+    if design.site.orientation == "vertical":
         return
-    if site.height_m - stub <= 0:
-        raise DesignError(f"the solved stub ({stub:.2f} m) is longer than the open top is high "
-                          f"({site.height_m:.2f} m): the short would be below ground; raise the open top",
-                          file=design.path, key="site.height")
-    if site.orientation == "sloper":
-        far = site.height_m - radiator * math.sin(site.slope_rad)
-        if far <= 0:
-            raise DesignError(f"the solved radiator ({radiator:.2f} m) at this slope reaches "
-                              f"{-far:.2f} m below ground from a {site.height_m:.2f} m top; use a "
-                              "smaller slope or a higher top", file=design.path, key="site.slope")
+    try:
+        solved_lengths(design)
+    except DesignError as exc:
+        if exc.key == "stub.line":
+            return
+        raise
+
+
+def solved_lengths(design: Design, *, clearance: bool = True) -> tuple:
+    """(radiator, stub, tap), m: the radiator resonant at the design frequency and the stub and tap
+    that match it to the feed impedance (jpole.solve_match), each checked for ground clearance
+    unless `clearance` is False (to find where the limit lies)."""
+    with _refusals(design):
+        return _match(design, antenna_model(design), clearance)[:3]
+
+
+def _match(design: Design, ant, clearance: bool = True) -> tuple:
+    """solved_lengths and the model prepared at the design frequency (for what follows)."""
+    f0, z_feed = design.frequency_hz, design.feed.impedance_ohm
+    # a search that wanders outside the physical region is refused below; its numpy warnings would
+    # only be noise on the user's terminal
+    try:
+        with np.errstate(all="ignore"):
+            at_f0 = jpole.at_frequency(f0, ant)
+            radiator = jpole.resonant_radiator_length(f0, ant, prepared=at_f0)
+    except ValueError as exc:       # ModelError, or a singular step of the numeric search
+        if clearance:
+            # no resonant radiator: on a low sloper, because every length searched runs through the
+            # ground (where image theory fails); the half wave the search centres on says so
+            rad = design.radiator
+            check_far_end_clearance(design, rad.velocity_factor / design.calibration.radiator_scale
+                                    * design.wavelength_m / 2, solved=False)
+        raise _unmatched(design, exc) from None
+    if clearance:
+        check_far_end_clearance(design, radiator)
+    try:
+        with np.errstate(all="ignore"):
+            stub, tap = jpole.solve_match(f0, z_feed, ant, radiator, prepared=at_f0)
+    except ValueError as exc:       # ModelError, or a singular step of the numeric search
+        raise _unmatched(design, exc) from None
+    if clearance:
+        check_stub_clearance(design, stub)
+    return radiator, stub, tap, at_f0
+
+
+def _unmatched(design: Design, exc: ValueError) -> DesignError:
+    why = " ".join(str(exc).split())
+    return DesignError(f"cannot be matched to {design.feed.impedance_ohm:g} ohm with this line and wire "
+                       f"(a very lossy or unusual line?): {why}", file=design.path, key="stub.line")
 
 
 def velocity_factor_text(*values: float) -> str:
@@ -641,27 +743,34 @@ def _connector(design: Design) -> str:
     return connector_for(design.frequency_hz).label
 
 
-def _is_rigid(diameter: float) -> bool:
-    return diameter >= RIGID_DIAMETER_M
+def radiator_name(radiator, size: str | None = None) -> str:
+    """The radiator conductor as the cut list names it: its size (the gauge or diameter as written in
+    the design, or `size`), its material and its jacket."""
+    jacket = "" if radiator.insulation == "bare" else f", {radiator.insulation} insulated"
+    return f"{size or radiator.label} {radiator.material}{jacket}"
+
+
+def is_rigid(diameter_m: float) -> bool:
+    """Pipe or rod (joined or clamped, not wrapped) rather than wire: RIGID_DIAMETER_M and up."""
+    return diameter_m >= RIGID_DIAMETER_M
 
 
 def _wrap_allowance(design: Design) -> float:
     """Extra wire at each radiator end for the wrap around the insulator or the stub conductor
     (common practice: about 15 cm of wire at HF, less on short VHF wires); none for pipe or rod,
     which is joined or clamped rather than wrapped (a small cutting allowance instead)."""
-    if _is_rigid(design.radiator.diameter_m):
+    if is_rigid(design.radiator.diameter_m):
         return 0.01
     return min(0.15, 0.015 * design.wavelength_m)
 
 
 def _cut_list(design: Design, d: Dimensions, wrap: float, ch, first: FirstCut,
-              sleeve=None) -> tuple[tuple, tuple]:
+              parts: Parts, sleeve=None) -> tuple[tuple, tuple]:
     """What to cut (with allowances) and what to buy. Allowances are common practice; the radiator
     and the stub line are cut long by the first cut's tuning margins as well (FirstCut). With a
     sleeve choke (physics.choke.SleeveChoke) the coil is not built: no coax in turns, no choke form,
     no cable ties; the sleeve's tube, bond and spacers instead."""
-    rigid_radiator = _is_rigid(design.radiator.diameter_m)
-    rigid_stub = _is_rigid(design.stub.conductor_diameter_m)
+    rigid_radiator, rigid_stub = parts.rigid_radiator, parts.rigid_stub
     lam = design.wavelength_m
     beyond_short = 0.02 if rigid_stub else min(0.10, 0.01 * lam)
     junction = 0.0 if rigid_stub else wrap
@@ -669,19 +778,15 @@ def _cut_list(design: Design, d: Dimensions, wrap: float, ch, first: FirstCut,
     # its allowance follows the conductors' size, not the radiator's wrap
     conductor = design.stub.conductor_diameter_m
     bar_ends = 0.02 if rigid_stub else 2 * (3 * math.pi * 2 * conductor + 0.01)
-    line_name = design.stub.name if design.stub.name != "custom" else (
-        "two-wire line by geometry" if design.stub.kind == "geometry" else "two-wire line as measured")
     coil_coax = 0.0 if sleeve is not None else ch.turns * math.pi * ch.mean_diameter_m
     pigtail = 0.30 if lam > 3 else 0.10
     coax_total = design.feed.length_m + coil_coax + pigtail
-    radiator_material = f"{design.radiator.label} {design.radiator.material}" + (
-        "" if design.radiator.insulation == "bare" else f", {design.radiator.insulation} insulated")
     m_rad, m_stub = first.radiator_margin_m, first.stub_margin_m
     items = [
-        CutItem("radiator", radiator_material, d.radiator + m_rad + 2 * wrap, 1, m_rad + 2 * wrap,
+        CutItem("radiator", parts.radiator_name, d.radiator + m_rad + 2 * wrap, 1, m_rad + 2 * wrap,
                 ("wrap allowance at each end included" if not rigid_radiator else
                  "cutting allowance at each end included"), margin_m=m_rad),
-        CutItem("stub line", line_name, d.stub + m_stub + beyond_short + junction, 1,
+        CutItem("stub line", parts.line_name, d.stub + m_stub + beyond_short + junction, 1,
                 m_stub + beyond_short + junction,
                 "includes the length below the short" +
                 (" and the wrap at the open top" if junction else ""), margin_m=m_stub),
@@ -694,8 +799,8 @@ def _cut_list(design: Design, d: Dimensions, wrap: float, ch, first: FirstCut,
                 else "run to the station, plus a pigtail at the tap", coarse=True),
     ]
     if sleeve is None:
-        items.append(CutItem("choke form", "pipe of the choke form's outside diameter",
-                             ch.coil_length_m + 0.05, 1, 0.05, "the feed coax is close-wound on it"))
+        items.append(CutItem("choke form", "pipe of the choke form's outside diameter", parts.choke_form_m,
+                             1, CHOKE_FORM_EXTRA_M, "the feed coax is close-wound on it"))
     else:
         trim = 0.1 * sleeve.length_m
         items.append(CutItem("choke sleeve", "copper or aluminium tube, inside diameter "

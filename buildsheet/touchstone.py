@@ -42,7 +42,8 @@ from dataclasses import dataclass
 import numpy as np
 
 from buildsheet.errors import SweepError
-from buildsheet.writers.files import decode_text, read_capped
+from buildsheet.physics.lines import reflection
+from buildsheet.reading import decode_text, read_capped
 
 MAX_BYTES = 8 * 1024 * 1024
 #: most points a sweep may hold: a fit's cost grows with the points, and analysers give at most a
@@ -78,7 +79,7 @@ class Sweep:
 
     def reflection(self, z_ref: float) -> np.ndarray:
         """rho = (z - z_ref)/(z + z_ref) on a real reference z_ref (ohm)."""
-        return (self.z_ohm - z_ref) / (self.z_ohm + z_ref)
+        return reflection(self.z_ohm, z_ref)
 
 
 @dataclass(frozen=True)

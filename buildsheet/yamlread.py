@@ -16,7 +16,7 @@ from dataclasses import dataclass
 import yaml
 
 from buildsheet.errors import DesignError, one_line
-from buildsheet.writers.files import decode_text, read_capped
+from buildsheet.reading import decode_text, read_capped
 
 MAX_BYTES = 1024 * 1024
 MAX_NODES = 20_000

@@ -12,7 +12,7 @@ import pytest
 from scipy.constants import inch, mu_0
 from scipy.special import ellipe, ellipk
 
-from buildsheet.errors import DesignError
+from buildsheet.physics import ModelError
 from buildsheet.physics.choke import (FIT_D_OVER_OD, SIGMA_COPPER, ChokeDesign, coil_impedance,
                                       coil_impedance_line, coil_inductance, coil_self_resonance,
                                       current_sheet_inductance, design_coax_choke,
@@ -306,7 +306,7 @@ def test_choke_longer_than_the_checked_coils_gives_no_impedance():
     ((14.2e6, 14.35e6, 0.1, RG58_OD), {"f_band_low": 14.3e6}),
 ])
 def test_choke_rejects_bad_input(args, kwargs):
-    with pytest.raises(DesignError):
+    with pytest.raises(ModelError):
         design_coax_choke(*args, **kwargs)
 
 

@@ -4,7 +4,7 @@ import numpy as np
 import pytest
 from scipy.constants import mu_0
 
-from buildsheet.errors import DesignError
+from buildsheet.physics import ModelError
 from buildsheet.physics.conductors import (dc_resistance, proximity_factor, skin_depth,
                                            surface_resistance, wire_internal_impedance)
 
@@ -136,5 +136,5 @@ def test_proximity_factor(spacing, d, factor):
 
 
 def test_proximity_factor_rejects_touching_wires():
-    with pytest.raises(DesignError, match="spacing must exceed"):
+    with pytest.raises(ModelError, match="spacing must exceed"):
         proximity_factor(2e-3, 2e-3)

@@ -3,7 +3,7 @@
 import numpy as np
 import pytest
 
-from buildsheet.errors import DesignError
+from buildsheet.physics import ModelError
 from buildsheet.physics.exposure import (average_power, compliance_distance, fcc_mpe,
                                          icnirp2020_reference, power_density,
                                          reactive_near_field_limit)
@@ -43,7 +43,7 @@ def test_fcc_mpe_continuous_at_band_edges_and_vectorised():
 
 @pytest.mark.parametrize("f", [0.1e6, 200e9])
 def test_fcc_mpe_out_of_table(f):
-    with pytest.raises(DesignError, match="1.1310"):
+    with pytest.raises(ModelError, match="1.1310"):
         fcc_mpe(f)
 
 
@@ -115,14 +115,14 @@ def test_average_power_handbook_example():
 
 @pytest.mark.parametrize("duty, on_air", [(1.2, 0.5), (0.4, -0.1)])
 def test_average_power_rejects_fractions_outside_0_1(duty, on_air):
-    with pytest.raises(DesignError):
+    with pytest.raises(ModelError):
         average_power(100.0, duty, on_air)
 
 
 def test_bad_distance_and_limit_rejected():
-    with pytest.raises(DesignError):
+    with pytest.raises(ModelError):
         power_density(100.0, 0.0)
-    with pytest.raises(DesignError):
+    with pytest.raises(ModelError):
         compliance_distance(100.0, 0.0)
 
 
@@ -156,7 +156,7 @@ def test_icnirp_stricter_than_fcc_general_at_hf():
 
 
 def test_icnirp_out_of_range():
-    with pytest.raises(DesignError, match="ICNIRP"):
+    with pytest.raises(ModelError, match="ICNIRP"):
         icnirp2020_reference(50e3)
 
 

@@ -85,7 +85,7 @@ def test_open_end_voltage_carries_the_power_into_the_top():
     f0 = 14.175e6
     L, S, T = design(f0, ant)
     st = jpole.state_at(f0, ant, L, S, T, 100.0)
-    z_top = jpole.radiator_end_impedance(np.array([f0]), L, ant, S)[0]
+    z_top = jpole.at_frequency(f0, ant).z_top(L, S)
     p_top = st.v_open_end ** 2 * (1 / z_top).real
     assert p_top == pytest.approx(st.p_radiated + st.p_wire + st.p_common_mode, rel=1e-9)
 
@@ -108,7 +108,7 @@ def test_textbook_tap_leaves_inductive_residue(R, x_450, x_600):
         ant = antenna(stub_line=Line.nominal(z0, 1.0), spacing=1e-7, stub_conductor_d=1e-8)
         quarter = C0 / (4 * f)
         tap = np.arcsin(np.sqrt(50.0 / R)) / (2 * np.pi * f / C0)
-        z = jpole.tap_impedance(np.array([f]), ant, quarter, tap, R)[0]
+        z = jpole.at_frequency(f, ant).z_feed(np.nan, quarter, tap, complex(R))
         assert z.real == pytest.approx(50.0, rel=1e-6)
         assert z.imag == pytest.approx(x, abs=1e-3)
 
@@ -119,7 +119,7 @@ def test_two_d_solve_removes_the_textbook_residue():
     ant = VARIANTS["horizontal-real"]
     f0 = 14.175e6
     L, S, T = design(f0, ant)
-    r_top = jpole.radiator_end_impedance(np.array([f0]), L, ant, S)[0].real
+    r_top = jpole.at_frequency(f0, ant).z_top(L, S).real
     beta = ant.stub_line.gamma(f0).imag
     quarter = np.pi / 2 / beta
     t_book = np.arcsin(np.sqrt(50.0 / r_top)) / beta

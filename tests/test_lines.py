@@ -9,7 +9,7 @@ from scipy.constants import c as C0
 from scipy.constants import epsilon_0, mu_0
 from skrf.media import DefinedGammaZ0
 
-from buildsheet.errors import DesignError
+from buildsheet.physics import ModelError
 from buildsheet.physics.lines import (DB_PER_NEPER, Line, abcd, input_impedance, open_stub,
                                       reflection, shorted_stub, swr, voltage_current_along)
 
@@ -248,7 +248,7 @@ def test_two_wire_dielectric_loss():
     dict(spacing=0.02, diameter=2e-3, sigma=SIGMA_CU, tan_delta=-0.1),
 ])
 def test_two_wire_rejects_impossible_geometry(kwargs):
-    with pytest.raises(DesignError):
+    with pytest.raises(ModelError):
         Line.two_wire(**kwargs)
 
 
@@ -284,7 +284,7 @@ def test_nominal_fit_never_gives_negative_loss():
                                   (50.0, 0.66, ((-1e6, 0.1),)), (50.0, 0.66, ((1e6, -0.1),)),
                                   (50.0, 0.66, ((1e6, 0.1),), "cubic"), (50.0, 0.66, ((1e6, 0.1, 3.0),))])
 def test_nominal_rejects_bad_figures(args):
-    with pytest.raises(DesignError):
+    with pytest.raises(ModelError):
         Line.nominal(*args)
 
 

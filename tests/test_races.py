@@ -2,7 +2,7 @@
 
 Two `record` commands started together on the same file each reported their entry added while the
 file held one of them (the check-then-rename of each was not atomic with respect to the other).
-Writers now take a lock beside the design (record.design_lock): they run one after the other, and
+Writers now take a lock beside the design (editing.design_lock): they run one after the other, and
 one that cannot get the lock in time is refused with one line and writes nothing. The oracle is
 counting: every writer that exited 0 has its entry in the file, exactly once, and the backup holds
 the file as it was before the last writer.
@@ -27,7 +27,7 @@ import time
 import pytest
 import yaml
 
-from buildsheet import record
+from buildsheet import editing
 from buildsheet.cli import main
 
 ROOT = pathlib.Path(__file__).resolve().parent.parent
@@ -85,7 +85,7 @@ def _race_pairs(tmp_path, pairs: int) -> tuple[int, int]:
         if len(ok) == 2:
             # the backup is the file before the second writer: it holds the first entry only
             assert len(_notes(pathlib.Path(str(design) + ".bak"))) == 1
-        assert not os.path.exists(str(design) + record.LOCK_SUFFIX)
+        assert not os.path.exists(str(design) + editing.LOCK_SUFFIX)
         added += len(ok)
         refused += 2 - len(ok)
     return added, refused
@@ -101,12 +101,12 @@ def test_a_held_lock_refuses_with_one_line_and_writes_nothing(tmp_path, monkeypa
     design = tmp_path / "oak.yaml"
     shutil.copyfile(OAK, design)
     before = design.read_bytes()
-    monkeypatch.setattr(record, "LOCK_WAIT_S", 0.1)
+    monkeypatch.setattr(editing, "LOCK_WAIT_S", 0.1)
     ctx = multiprocessing.get_context("fork")
     held, release = ctx.Event(), ctx.Event()
 
     def holder():
-        with record.design_lock(str(design)):
+        with editing.design_lock(str(design)):
             held.set()
             release.wait(30)
 
@@ -136,7 +136,7 @@ def test_a_lock_left_by_a_killed_writer_does_not_block(tmp_path):
     held = ctx.Event()
 
     def holder():
-        with record.design_lock(str(design)):
+        with editing.design_lock(str(design)):
             held.set()
             time.sleep(60)
 

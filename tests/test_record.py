@@ -16,6 +16,7 @@ import yaml
 from hypothesis import given, settings
 from hypothesis import strategies as st
 
+from buildsheet import editing
 from buildsheet import record as record_module
 from buildsheet.cli import main
 from buildsheet.design import RecordEntry, design_from_text, load_design
@@ -346,7 +347,7 @@ def test_file_changed_between_read_and_write_is_refused(tmp_path, monkeypatch, c
     path = _write(tmp_path, COMMENTED)
     other = COMMENTED.replace("height: 10 m ", "height: 12 m ").encode()
     assert len(other) == len(COMMENTED.encode())
-    real = record_module.design_from_text
+    real = editing.design_from_text
     calls = []
 
     def design_from_text(text, file=None):
@@ -357,7 +358,7 @@ def test_file_changed_between_read_and_write_is_refused(tmp_path, monkeypatch, c
             os.utime(path, ns=(stat.st_atime_ns, stat.st_mtime_ns))     # even with the same mtime
         return real(text, file)
 
-    monkeypatch.setattr(record_module, "design_from_text", design_from_text)
+    monkeypatch.setattr(editing, "design_from_text", design_from_text)
     assert _record(path, *ENTRY_ARGS) == 2
     assert "changed on disk" in capsys.readouterr().err
     assert path.read_bytes() == other

@@ -14,7 +14,6 @@ Drawing coordinates are points with y down (shapes.py). Symbols used in the layo
 
 from __future__ import annotations
 
-import functools
 import math
 from dataclasses import dataclass
 
@@ -23,11 +22,11 @@ import numpy as np
 from buildsheet import fonts, units
 from buildsheet.design import Design
 from buildsheet.drawing import plots, polar
-from buildsheet.drawing.shapes import (TEXT_GAP, TEXT_SIZE, THIN, Arc, Box, BreakMark, Circle,
-                                       Dimension, Drawing, Hatch, Leader, Line, Polyline, Rect, Text,
-                                       clip_segment)
+from buildsheet.drawing.placement import LABEL, PAD, Layout, fitted_size, line_height, text_width, wrap_text
+from buildsheet.drawing.shapes import (THIN, Arc, BreakMark, Circle, Dimension, Drawing, Hatch, Line,
+                                       Polyline, Rect, Text)
 from buildsheet.layout import TIE_OFF_M, describe, site_layout
-from buildsheet.solver import RIGID_DIAMETER_M, Solution
+from buildsheet.solver import Solution
 from buildsheet.stock import conductor_size
 
 #: figure keys in the order a builder reads them (also the order of the SVG files)
@@ -36,8 +35,6 @@ FIGURES = ("overview", "radiator", "stub", "short-tap", "choke", "swr", "smith",
 WIDTH = 500.0          # figure width, points: fits the text width of letter and A4 pages unscaled
 SMITH_WIDTH = 380.0
 SWR_HEIGHT = 270.0
-PAD = 6.0              # clearance to the drawing's edge
-LABEL = 7.5            # size of callout texts
 CAPTION = 10.0
 CONDUCTOR = 1.3        # radiator wire and stub conductors
 COAX = 2.6
@@ -50,267 +47,6 @@ SUPPORT_GREY = 0.9
 WEB_GREY = 0.86
 COAX_GREY = 0.8        # the coax jacket where the coax is drawn as a band
 MAX_DRAWN_SLOPE = math.radians(60)   # steeper slopers are drawn at this angle (labelled true)
-
-
-# ---------------------------------------------------------------- text helpers
-
-def _line_height(size: float) -> float:
-    return fonts.ascent(size) + fonts.descent(size) + 1.0
-
-
-@functools.lru_cache(maxsize=4096)
-def _width(text: str, size: float = TEXT_SIZE, bold: bool = False) -> float:
-    return fonts.text_width(text, size, bold)
-
-
-def _wrap(text: str, width: float, size: float, bold: bool = False) -> list[str]:
-    """Words of `text` in lines no wider than `width` points (a single word wider than that stands
-    alone on its line)."""
-    lines: list[str] = []
-    current = ""
-    for word in _words(text):
-        trial = f"{current} {word}" if current else word
-        if current and _width(trial, size, bold) > width:
-            lines.append(current)
-            current = word
-        else:
-            current = trial
-    if current:
-        lines.append(current)
-    return lines
-
-
-_UNITS = {"m", "mm", "cm", "km", "ft", "in", "Hz", "kHz", "MHz", "GHz", "Ω", "ohm", "W", "V", "A", "dB"}
-
-
-def _words(text: str) -> list[str]:
-    """The words of `text`, a quantity kept in one piece: feet with their inches (9' 10-1/8") and a
-    number with its unit (3.000 m), so a line never breaks inside one."""
-    words: list[str] = []
-    for word in text.split():
-        if words and ((words[-1].endswith("'") and word[:1].isdigit())
-                      or (words[-1][-1:].isdigit() and word.rstrip(".,;:)") in _UNITS)):
-            words[-1] = f"{words[-1]} {word}"
-        else:
-            words.append(word)
-    return words
-
-
-def _fitted_size(text: str, width: float, size: float, bold: bool = False) -> float:
-    """`size`, or smaller so that `text` fits `width` points (for words that cannot wrap)."""
-    w = _width(text, size, bold)
-    return size if w <= width else size * width / w * 0.999
-
-
-# ---------------------------------------------------------------- label placement
-
-def _segments_of(p) -> list[tuple]:
-    """Straight pieces of a primitive's outline (circles and arcs as polygons)."""
-    if isinstance(p, Line):
-        return [((p.x1, p.y1), (p.x2, p.y2))]
-    if isinstance(p, Polyline):
-        pts = list(p.points) + ([p.points[0]] if p.closed else [])
-        return list(zip(pts, pts[1:]))
-    if isinstance(p, (Circle, Arc)):
-        start, extent = (0.0, 360.0) if isinstance(p, Circle) else (p.start, p.extent)
-        n = 24
-        pts = [(p.cx + p.r * math.cos(math.radians(start + extent * k / n)),
-                p.cy - p.r * math.sin(math.radians(start + extent * k / n))) for k in range(n + 1)]
-        return list(zip(pts, pts[1:]))
-    return []
-
-
-def _runs_along(p1, p2, q1, q2) -> bool:
-    """True when segment q1-q2 runs within 1.5 points of segment p1-p2 and nearly parallel to it
-    for more than 2 points (a leader drawn along a line would be lost in it)."""
-    dx, dy = p2[0] - p1[0], p2[1] - p1[1]
-    n = math.hypot(dx, dy)
-    ex, ey = q2[0] - q1[0], q2[1] - q1[1]
-    m = math.hypot(ex, ey)
-    if n < 1e-9 or m < 1e-9 or abs(dx * ey - dy * ex) / (n * m) > 0.1:
-        return False
-    ux, uy = dx / n, dy / n
-    if abs((q1[0] - p1[0]) * uy - (q1[1] - p1[1]) * ux) > 1.5:
-        return False
-    t = sorted(((q[0] - p1[0]) * ux + (q[1] - p1[1]) * uy) for q in (q1, q2))
-    return min(t[1], n) - max(t[0], 0.0) > 2.0
-
-
-def _box_array(boxes: list[Box]) -> np.ndarray:
-    return np.array([(b.x0, b.y0, b.x1, b.y1) for b in boxes]).reshape(-1, 4)
-
-
-def _any_overlap(box: Box, a: np.ndarray, tol: float = 0.01) -> bool:
-    """True when `box` overlaps any of the boxes (rows x0, y0, x1, y1 of `a`) by more than `tol`,
-    as Box.overlaps."""
-    return bool(np.any((np.minimum(a[:, 2], box.x1) - np.maximum(a[:, 0], box.x0) > tol)
-                       & (np.minimum(a[:, 3], box.y1) - np.maximum(a[:, 1], box.y0) > tol)))
-
-
-def _cross(p1, p2, q1, q2) -> bool:
-    """True when segments p1-p2 and q1-q2 cross each other (touching does not count)."""
-    def orient(a, b, c):
-        return (b[0] - a[0]) * (c[1] - a[1]) - (b[1] - a[1]) * (c[0] - a[0])
-    d1, d2 = orient(q1, q2, p1), orient(q1, q2, p2)
-    d3, d4 = orient(p1, p2, q1), orient(p1, p2, q2)
-    return d1 * d2 < 0 and d3 * d4 < 0
-
-
-class _Sheet:
-    """The items of one figure body, with what they occupy, so that callouts can be put where they
-    cross nothing already drawn."""
-
-    def __init__(self, width: float, height: float):
-        self.items: list = []
-        self.area = Box(PAD / 2, PAD / 2, width - PAD / 2, height - PAD / 2)
-        self._segments: list = []
-        self._texts: list[Box] = []
-        self._solids: list[Box] = []
-        self._leaders: list = []
-        self._index = None
-        self._arrays = None
-
-    def add(self, *items) -> None:
-        self._arrays = None
-        for item in items:
-            self.items.append(item)
-            for p in item.primitives():
-                if isinstance(p, Text):
-                    self._texts.append(p.bbox())
-                    continue
-                self._segments += _segments_of(p)
-                self._index = None
-                fill = getattr(p, "fill", None)
-                if fill is not None and fill < 0.999:
-                    self._solids.append(p.bbox())
-
-    def _near(self, box: Box) -> list:
-        """The segments whose bounding boxes meet `box` (a quick filter before exact tests)."""
-        if self._index is None:
-            a = np.array([(p[0], p[1], q[0], q[1]) for p, q in self._segments]).reshape(-1, 4)
-            self._index = (np.minimum(a[:, 0], a[:, 2]), np.maximum(a[:, 0], a[:, 2]),
-                           np.minimum(a[:, 1], a[:, 3]), np.maximum(a[:, 1], a[:, 3]))
-        x0, x1, y0, y1 = self._index
-        hits = np.flatnonzero((x0 <= box.x1) & (x1 >= box.x0) & (y0 <= box.y1) & (y1 >= box.y0))
-        return [self._segments[i] for i in hits]
-
-    def _text_array(self) -> np.ndarray:
-        if self._arrays is None:
-            self._arrays = (_box_array(self._texts), _box_array(self._solids))
-        return self._arrays[0]
-
-    def free(self, box: Box, strict: bool = True) -> bool:
-        """True when `box` lies in the body, overlaps no text or filled area, and (strict) no line
-        passes within 1 point of it."""
-        if not box.within(self.area):
-            return False
-        grown = Box(box.x0 - 1, box.y0 - 1, box.x1 + 1, box.y1 + 1)
-        if _any_overlap(grown, self._text_array()) or _any_overlap(box, self._arrays[1]):
-            return False
-        return not strict or all(clip_segment(p, q, grown) is None for p, q in self._near(grown))
-
-    def _leader_ok(self, p, q) -> bool:
-        """A leader p-q crosses no text, runs along no line and crosses no other leader."""
-        reach = Box(min(p[0], q[0]) - 2, min(p[1], q[1]) - 2, max(p[0], q[0]) + 2, max(p[1], q[1]) + 2)
-        texts = self._text_array()
-        near = np.flatnonzero((texts[:, 0] <= reach.x1) & (texts[:, 2] >= reach.x0)
-                              & (texts[:, 1] <= reach.y1) & (texts[:, 3] >= reach.y0))
-        if any(clip_segment(p, q, self._texts[i]) is not None for i in near):
-            return False
-        if any(_runs_along(p, q, a, b) for a, b in self._near(reach)):
-            return False
-        return not any(_cross(p, q, a, b) for a, b in self._leaders)
-
-    def _crossings(self, p, q) -> int:
-        u = (q[0] - p[0], q[1] - p[1])
-        n = math.hypot(*u) or 1.0
-        start = (p[0] + u[0] / n * 2.5, p[1] + u[1] / n * 2.5)    # past the target's own line
-        reach = Box(min(p[0], q[0]), min(p[1], q[1]), max(p[0], q[0]), max(p[1], q[1]))
-        return sum(1 for a, b in self._near(reach) if _cross(start, q, a, b))
-
-    def callout(self, x: float, y: float, lines, angles=(135, 225, 45, 315, 180, 0, 90, 270),
-                radii=(20, 30, 42, 56, 72, 90), size: float = LABEL, end: str = "arrow") -> None:
-        """Add a leader from the point (x, y) to a label of one or more lines, at the first of the
-        candidate positions (radius-major; angles in degrees counter-clockwise from the right) whose
-        text crosses nothing, preferring leaders that cross the fewest lines."""
-        lines = [lines] if isinstance(lines, str) else list(lines)
-        angles = tuple(angles) + tuple(a for a in range(0, 360, 30) if a not in angles)
-        widths = [_width(t, size) for t in lines]
-        for strict in (True, False):
-            best = None
-            for r in radii:
-                for a in angles:
-                    tx = x + r * math.cos(math.radians(a))
-                    ty = y - r * math.sin(math.radians(a))
-                    boxes = _callout_boxes(tx, ty, tx >= x, widths, size)
-                    if not all(self.free(b, strict) for b in boxes):
-                        continue
-                    if not self._leader_ok((x, y), (tx, ty)):
-                        continue
-                    n = self._crossings((x, y), (tx, ty))
-                    if best is None or n < best[0]:
-                        best = (n, (tx, ty))
-                if best is not None and best[0] == 0:
-                    break
-            if best is not None:
-                self.add(*_callout_items(x, y, *best[1], lines, size, end))
-                self._leaders.append(((x, y), best[1]))
-                return
-        raise ValueError(f"no room for the label {lines[0]!r} near ({x:.0f}, {y:.0f})")
-
-    def place_group(self, candidates: list[list], what: str) -> None:
-        """Add the first of the candidate groups of shapes whose box, with 4 points around it,
-        crosses nothing already drawn."""
-        for group in candidates:
-            box = group[0].bbox()
-            for item in group[1:]:
-                box = box.union(item.bbox())
-            if self.free(Box(box.x0 - 4, box.y0 - 4, box.x1 + 4, box.y1 + 4)):
-                self.add(*group)
-                return
-        raise ValueError(f"no room for {what}")
-
-    def place_text(self, candidates, lines, size: float = LABEL, bold: bool = False) -> None:
-        """Add a block of left-aligned lines at the first candidate top-left corner where it
-        crosses nothing."""
-        lines = [lines] if isinstance(lines, str) else list(lines)
-        for strict in (True, False):
-            for x, y in candidates:
-                block = _text_block(x, y, lines, size, bold)
-                if all(self.free(t.bbox(), strict) for t in block):
-                    self.add(*block)
-                    return
-        raise ValueError(f"no room for the text {lines[0]!r}")
-
-
-def _callout_boxes(tx: float, ty: float, rightward: bool, widths, size: float) -> list[Box]:
-    """The text boxes of _callout_items for lines of the given widths (computed without building
-    the shapes, for trying many positions quickly)."""
-    asc, desc = fonts.ascent(size), fonts.descent(size)
-    base = ty + (asc - desc) / 2
-    out = []
-    for k, w in enumerate(widths):
-        x0 = tx + TEXT_GAP if rightward else tx - TEXT_GAP - w
-        yk = base + k * _line_height(size)
-        out.append(Box(x0, yk - asc, x0 + w, yk + desc))
-    return out
-
-
-def _callout_items(x, y, tx, ty, lines, size, end) -> list:
-    items: list = [Leader(x, y, tx, ty, lines[0], size, end)]
-    rightward = tx >= x
-    base = ty + (fonts.ascent(size) - fonts.descent(size)) / 2
-    for k, text in enumerate(lines[1:], 1):
-        yk = base + k * _line_height(size)
-        items.append(Text(tx + TEXT_GAP, yk, text, size) if rightward
-                     else Text(tx - TEXT_GAP, yk, text, size, "end"))
-    return items
-
-
-def _text_block(x: float, y: float, lines, size: float, bold: bool = False) -> list[Text]:
-    """Left-aligned lines of text starting at x, the first line's box top at y."""
-    first = y + fonts.ascent(size, bold)
-    return [Text(x, first + k * _line_height(size), t, size, bold=bold) for k, t in enumerate(lines)]
 
 
 # ---------------------------------------------------------------- parts
@@ -374,10 +110,6 @@ def _station(x0: float, y_g: float, w: float = 46.0, h: float = 24.0) -> list:
     return [house, label]
 
 
-def _is_rigid(diameter_m: float) -> bool:
-    return diameter_m >= RIGID_DIAMETER_M
-
-
 # ---------------------------------------------------------------- context and title strip
 
 @dataclass(frozen=True)
@@ -424,27 +156,27 @@ def _strip(ctx: _Context, caption: str, notes: list[str], width: float, top: flo
     pad = 5.0
     value_size, key_size = 8.0, 6.5
     rows = [("name", ctx.design.name), ("document", ctx.solution.design_id), ("revised", ctx.date)]
-    key_w = max(_width(k, key_size) for k, _ in rows)
-    value_sizes = [_fitted_size(v, inner - 2 * pad - key_w - 4, value_size, True) for _, v in rows]
-    right_w = key_w + 4 + max(_width(v, s, True) for (_, v), s in zip(rows, value_sizes))
+    key_w = max(text_width(k, key_size) for k, _ in rows)
+    value_sizes = [fitted_size(v, inner - 2 * pad - key_w - 4, value_size, True) for _, v in rows]
+    right_w = key_w + 4 + max(text_width(v, s, True) for (_, v), s in zip(rows, value_sizes))
     side_by_side = inner - 2 * pad - right_w - 3 * pad >= 0.5 * inner
     left_w = inner - 2 * pad - (right_w + 3 * pad if side_by_side else 0)
 
     items: list = []
     y = top + pad
-    cap_lines = _wrap(caption, left_w, CAPTION, True)
-    title_lines = _wrap(ctx.design.title, left_w, value_size)
-    note_lines = [line for note in notes for line in _wrap(note, left_w, 7.0)]
+    cap_lines = wrap_text(caption, left_w, CAPTION, True)
+    title_lines = wrap_text(ctx.design.title, left_w, value_size)
+    note_lines = [line for note in notes for line in wrap_text(note, left_w, 7.0)]
     for lines, size, bold in ((cap_lines, CAPTION, True), (title_lines, value_size, False),
                               (note_lines, 7.0, False)):
         for line in lines:
-            s = _fitted_size(line, left_w, size, bold)
+            s = fitted_size(line, left_w, size, bold)
             items.append(Text(x0 + pad, y + fonts.ascent(s, bold), line, s, bold=bold))
-            y += _line_height(size)
+            y += line_height(size)
         y += 1.0
     left_bottom = y
 
-    row_h = _line_height(value_size) + 1.0
+    row_h = line_height(value_size) + 1.0
     if side_by_side:
         xr = x0 + inner - pad - right_w
         ry = top + pad
@@ -490,11 +222,45 @@ def _overview(ctx: _Context) -> Drawing:
     return _finish(ctx, "Overview: the antenna as installed", sheet.items, h, notes)
 
 
-def _stub_and_feed(sheet: _Sheet, ctx: _Context, x_j: float, x_o: float, y_top: float,
-                   y_tap: float, y_short: float, y_end: float, coax_to: tuple) -> float:
+@dataclass(frozen=True)
+class StubAnchors:
+    """Where the stub's parts are drawn: page x of its radiator-side and other conductor, page y of
+    its open top, tap, short and lower end; the overviews draw the stub, the feed and their labels
+    from these."""
+    x_j: float
+    x_o: float
+    top: float
+    tap: float
+    short: float
+    end: float
+
+    @property
+    def mid(self) -> float:
+        return (self.x_j + self.x_o) / 2
+
+    @classmethod
+    def hanging(cls, x_j: float, x_o: float, top: float, stub_span: float, tap_span: float,
+                tail: float) -> "StubAnchors":
+        """A stub drawn `stub_span` points from the open top down to the short, the tap `tap_span`
+        above the short, the conductors `tail` below it."""
+        short = top + stub_span
+        return cls(x_j, x_o, top, short - tap_span, short, short + tail)
+
+
+#: the tap is drawn this far above the short at least, and far enough for its dimension's text
+TAP_SPAN_MIN = 48.0
+TAP_SPAN_TEXT_MARGIN = 18.0
+
+
+def _tap_span(text: str) -> float:
+    return max(TAP_SPAN_MIN, text_width(text) + TAP_SPAN_TEXT_MARGIN)
+
+
+def _stub_and_feed(sheet: Layout, ctx: _Context, a: StubAnchors, coax_to: tuple) -> float:
     """Stub conductors (broken between the open top and the tap), short, tap, and the coax from the
     tap down past the short through the choke, then along `coax_to` (points); returns the page y of
     the choke's top."""
+    x_j, x_o, y_top, y_tap, y_short, y_end = a.x_j, a.x_o, a.top, a.tap, a.short, a.end
     y_break = (y_top + y_tap) / 2
     at = (y_break - y_top) / (y_end - y_top)
     for x in (x_j, x_o):
@@ -513,9 +279,8 @@ def _stub_and_feed(sheet: _Sheet, ctx: _Context, x_j: float, x_o: float, y_top: 
     return y_choke
 
 
-def _feed_callouts(sheet: _Sheet, ctx: _Context, x_j: float, x_o: float, y_tap: float,
-                   y_short: float, y_choke: float, y_coax: float) -> None:
-    x_mid = (x_j + x_o) / 2
+def _feed_callouts(sheet: Layout, ctx: _Context, a: StubAnchors, y_choke: float, y_coax: float) -> None:
+    x_j, x_mid, y_tap, y_short = a.x_j, a.mid, a.tap, a.short
     sheet.callout(x_j, y_short, ["short"], angles=(200, 180, 225, 160))
     sheet.callout(x_j, y_tap, ["tap"], angles=(160, 180, 135, 200))
     sheet.callout(x_mid - 5.5, y_choke + 13.0, ["choke at the tap"], angles=(180, 200, 160, 225))
@@ -525,23 +290,19 @@ def _feed_callouts(sheet: _Sheet, ctx: _Context, x_j: float, x_o: float, y_tap: 
                   angles=(180, 200, 160, 135, 225))
 
 
-def _overview_hanging(ctx: _Context) -> tuple[_Sheet, float]:
+def _overview_hanging(ctx: _Context) -> tuple[Layout, float]:
     """Horizontal or sloper: far support, rope, end insulator, radiator (broken), stub hanging from
     the open top, coax down from the tap through the choke to the ground and the station."""
     d, s = ctx.design, ctx.solution
     dims = s.dimensions
-    L = ctx.length
+    fmt = ctx.length
     sloper = d.site.orientation == "sloper"
-    x_j, x_o = 318.0, 330.0
-    y_top = 78.0
-    tap_text = f"tap {L(dims.tap)}"
-    tap_span = max(48.0, _width(tap_text) + 18.0)
-    y_short = y_top + 176.0
-    y_tap = y_short - tap_span
-    y_end = y_short + 7.0
+    tap_text = f"tap {fmt(dims.tap)}"
+    a = StubAnchors.hanging(318.0, 330.0, top=78.0, stub_span=176.0, tap_span=_tap_span(tap_text), tail=7.0)
+    x_j, x_o, y_top, y_tap, y_short, y_end = a.x_j, a.x_o, a.top, a.tap, a.short, a.end
     y_g = y_end + 8.0 + 62.0
     body_h = y_g + 26.0
-    sheet = _Sheet(WIDTH, body_h)
+    sheet = Layout(WIDTH, body_h)
     sheet.add(*_ground(PAD, WIDTH - PAD, y_g))
 
     # far end: insulator, rope, support
@@ -573,7 +334,7 @@ def _overview_hanging(ctx: _Context) -> tuple[_Sheet, float]:
         support_name = ["support"]
     sheet.add(_insulator(far, u))
     sheet.add(BreakMark(far[0], far[1], x_j, y_top, at=0.5, width=CONDUCTOR))
-    sheet.add(Dimension(far[0], far[1], x_j, y_top, f"radiator {L(dims.radiator)}", 22.0))
+    sheet.add(Dimension(far[0], far[1], x_j, y_top, f"radiator {fmt(dims.radiator)}", 22.0))
 
     # near support: rope from the other conductor's open top, up to the right-hand pole
     pole_r = WIDTH - 22.0
@@ -590,16 +351,14 @@ def _overview_hanging(ctx: _Context) -> tuple[_Sheet, float]:
     x_h = pole_r - 22.0
     station_x = x_h - 74.0
     y_coax = y_g - 4.0
-    x_mid = (x_j + x_o) / 2
-    y_choke = _stub_and_feed(sheet, ctx, x_j, x_o, y_top, y_tap, y_short, y_end,
-                             ((x_mid, y_coax), (station_x, y_coax)))
+    y_choke = _stub_and_feed(sheet, ctx, a, ((a.mid, y_coax), (station_x, y_coax)))
     sheet.add(*_station(station_x, y_g))
 
     # dimensions right of the stub, the height at the far right
     sheet.add(_vdim(x_o, y_short, y_tap, tap_text, 16.0))
-    sheet.add(_vdim(x_o, y_short, y_top, f"stub {L(dims.stub)}", 38.0))
+    sheet.add(_vdim(x_o, y_short, y_top, f"stub {fmt(dims.stub)}", 38.0))
     sheet.add(Line(x_o + 1.5, y_top, x_h + 2.0, y_top, width=THIN))
-    sheet.add(Dimension(x_h, y_g, x_h, y_top, f"height {L(d.site.height_m)}", 0.0))
+    sheet.add(Dimension(x_h, y_g, x_h, y_top, f"height {fmt(d.site.height_m)}", 0.0))
 
     # callouts
     sheet.add(Text(pole_r, pole_top - 4.0, "support", LABEL, "end"))
@@ -613,12 +372,12 @@ def _overview_hanging(ctx: _Context) -> tuple[_Sheet, float]:
     sheet.callout(*_along(far, u, 8.0), ["end insulator"], angles=(250, 270, 225, 290, 135))
     sheet.callout(x_j, y_top, ["open top: radiator on", "one conductor only"],
                   angles=(225, 200, 250, 135, 160))
-    _feed_callouts(sheet, ctx, x_j, x_o, y_tap, y_short, y_choke, y_coax)
+    _feed_callouts(sheet, ctx, a, y_choke, y_coax)
     sheet.add(Text(PAD + 2.0, y_g + 16.0, "ground", LABEL))
     return sheet, body_h
 
 
-def _slope_mark(sheet: _Sheet, ctx: _Context, far, theta: float) -> None:
+def _slope_mark(sheet: Layout, ctx: _Context, far, theta: float) -> None:
     """Horizontal reference, arc and the true slope angle at the far end of a sloper."""
     r = 40.0
     x, y = far
@@ -630,25 +389,21 @@ def _slope_mark(sheet: _Sheet, ctx: _Context, far, theta: float) -> None:
                   angles=(330, 0, 300, 30), radii=(14, 22, 32, 44), end="dot")
 
 
-def _overview_vertical(ctx: _Context) -> tuple[_Sheet, float]:
+def _overview_vertical(ctx: _Context) -> tuple[Layout, float]:
     """Vertical: the stub on a stand-off insulator beside the top of a mast, the radiator straight up
     from one conductor, the coax down from the tap through the choke and along the mast."""
     d, s = ctx.design, ctx.solution
     dims = s.dimensions
-    L = ctx.length
-    wire = not _is_rigid(d.radiator.diameter_m)
-    x_j, x_o = 200.0, 212.0
-    x_mid = (x_j + x_o) / 2
+    fmt = ctx.length
+    wire = not s.parts.rigid_radiator
     y_end_top = 62.0 if wire else 40.0
-    y_top = y_end_top + 116.0
-    tap_text = f"tap {L(dims.tap)}"
-    tap_span = max(48.0, _width(tap_text) + 18.0)
-    y_short = y_top + 150.0
-    y_tap = y_short - tap_span
-    y_end = y_short + 22.0
+    tap_text = f"tap {fmt(dims.tap)}"
+    a = StubAnchors.hanging(200.0, 212.0, top=y_end_top + 116.0, stub_span=150.0,
+                            tap_span=_tap_span(tap_text), tail=22.0)
+    x_j, x_o, x_mid, y_top, y_tap, y_short, y_end = a.x_j, a.x_o, a.mid, a.top, a.tap, a.short, a.end
     y_g = y_end + 8.0 + 84.0
     body_h = y_g + 26.0
-    sheet = _Sheet(WIDTH, body_h)
+    sheet = Layout(WIDTH, body_h)
     sheet.add(*_ground(PAD, WIDTH - PAD, y_g))
 
     # mast beside the stub, stand-off insulator below the short
@@ -664,8 +419,7 @@ def _overview_vertical(ctx: _Context) -> tuple[_Sheet, float]:
         sheet.add(Line(x_j, y_end_top - 16.0, x_j, PAD + 4.0, width=ROPE, dash=ROPE_DASH))
     station_x = 70.0
     y_coax = y_g - 4.0
-    y_choke = _stub_and_feed(sheet, ctx, x_j, x_o, y_top, y_tap, y_short, y_end,
-                             ((x_mid, y_coax), (station_x + 46.0, y_coax)))
+    y_choke = _stub_and_feed(sheet, ctx, a, ((x_mid, y_coax), (station_x + 46.0, y_coax)))
     sheet.add(*_station(station_x, y_g))
 
     # dimensions: the tap beside the stub; radiator, stub and height chained further out, leaving
@@ -674,9 +428,9 @@ def _overview_vertical(ctx: _Context) -> tuple[_Sheet, float]:
     x_c = x_o + 160.0
     for y, x_from in ((y_end_top, x_j), (y_top, x_o), (y_short, x_o)):
         sheet.add(Line(x_from + 1.5, y, x_c + 2.0, y, width=THIN))
-    sheet.add(Dimension(x_c, y_top, x_c, y_end_top, f"radiator {L(dims.radiator)}", 0.0))
-    sheet.add(Dimension(x_c, y_short, x_c, y_top, f"stub {L(dims.stub)}", 0.0))
-    sheet.add(Dimension(x_c, y_g, x_c, y_short, f"height {L(d.site.height_m)}", 0.0))
+    sheet.add(Dimension(x_c, y_top, x_c, y_end_top, f"radiator {fmt(dims.radiator)}", 0.0))
+    sheet.add(Dimension(x_c, y_short, x_c, y_top, f"stub {fmt(dims.stub)}", 0.0))
+    sheet.add(Dimension(x_c, y_g, x_c, y_short, f"height {fmt(d.site.height_m)}", 0.0))
 
     if wire:
         sheet.callout(x_j, y_end_top - 8.0, ["top insulator"], angles=(180, 160, 200))
@@ -691,19 +445,28 @@ def _overview_vertical(ctx: _Context) -> tuple[_Sheet, float]:
     sheet.callout(x_o + 5.0, y_so + 2.5, ["stand-off insulator"], angles=(330, 315, 345, 300),
                   radii=(30, 42, 56, 72))
     sheet.callout(x_m, y_g - 24.0, ["mast"], angles=(20, 0, 40, 340), radii=(20, 30, 42, 56))
-    _feed_callouts(sheet, ctx, x_j, x_o, y_tap, y_short, y_choke, y_coax)
+    _feed_callouts(sheet, ctx, a, y_choke, y_coax)
     sheet.add(Text(PAD + 2.0, y_g + 16.0, "ground", LABEL))
     return sheet, body_h
 
 
 # ---------------------------------------------------------------- radiator
 
-def _wrap_tail(x0: float, y: float, length: float) -> Polyline:
-    """The wire's end twisted back on itself: a tight zig-zag along the wire from x0 to the right
-    for `length` points."""
-    step = 2.5
-    k = int(length / step)
-    pts = [(x0 + i * step, y + (2.2 if i % 2 else -2.2)) for i in range(k)] + [(x0 + length, y)]
+#: pitch of a drawn wire wrap (the zig-zag of a wire wound round a conductor or twisted back), points
+WRAP_PITCH = 2.5
+
+
+def _wrap_mark(x: float, y: float, count: int, along: str, amplitude: float = 2.2,
+               end: float | None = None) -> Polyline:
+    """A wire wrapped round a conductor or twisted back on itself: a tight zig-zag of `count` points
+    from (x, y) along `along` ('x' to the right, 'y' down), `amplitude` to either side of the axis;
+    `end`: a last point on the axis that far along."""
+    pts = []
+    for i in range(count):
+        side = amplitude if i % 2 else -amplitude
+        pts.append((x + i * WRAP_PITCH, y + side) if along == "x" else (x + side, y + i * WRAP_PITCH))
+    if end is not None:
+        pts.append((x + end, y) if along == "x" else (x, y + end))
     return Polyline(pts, width=0.6)
 
 
@@ -711,12 +474,12 @@ def _radiator(ctx: _Context) -> Drawing:
     """Radiator as installed (attachment point to attachment point) and as cut (with the wrap or
     cutting allowance at each end)."""
     d, s = ctx.design, ctx.solution
-    L = ctx.length
-    rigid = _is_rigid(d.radiator.diameter_m)
+    fmt = ctx.length
+    rigid = s.parts.rigid_radiator
     vertical = d.site.orientation == "vertical"
     allowance = "allowance" if rigid else "wrap"
     body_h = 262.0
-    sheet = _Sheet(WIDTH, body_h)
+    sheet = Layout(WIDTH, body_h)
 
     # as installed
     y1 = 70.0
@@ -731,7 +494,7 @@ def _radiator(ctx: _Context) -> Drawing:
         sheet.add(Circle(x_a - 5.0, y1, 2.6, width=0.6, fill=1.0))
         sheet.add(Circle(x_a, y1, 1.8, width=0, fill=0.0))
         if not rigid:
-            sheet.add(_wrap_tail(x_a + 2.0, y1, 30.0))
+            sheet.add(_wrap_mark(x_a + 2.0, y1, int(30.0 / WRAP_PITCH), "x", end=30.0))
         sheet.callout(x_a - 18.0, y1 + 5.0, ["top end insulator" if vertical else "end insulator"],
                       angles=(250, 270, 225, 290))
         sheet.callout(x_a, y1 - 2.0, ["attachment point"], angles=(110, 135, 90), radii=(30, 40, 52))
@@ -741,14 +504,13 @@ def _radiator(ctx: _Context) -> Drawing:
               Line(x_other, y1, x_other, y1 + 44.0, width=CONDUCTOR))
     sheet.add(Circle(x_b, y1, 2.0, width=0, fill=0.0))
     if not rigid:
-        sheet.add(Polyline([(x_b + (2.2 if k % 2 else -2.2), y1 + 2.0 + 2.5 * k) for k in range(10)],
-                           width=0.6))
-    sheet.add(Dimension(x_a, y1, x_b, y1, f"radiator {L(s.dimensions.radiator)}", 22.0))
+        sheet.add(_wrap_mark(x_b, y1 + 2.0, 10, "y"))
+    sheet.add(Dimension(x_a, y1, x_b, y1, f"radiator {fmt(s.dimensions.radiator)}", 22.0))
     sheet.callout(x_other, y1 + 22.0, ["the stub's open top:", "the radiator joins",
                                        "one conductor only"], angles=(0, 330, 30), radii=(16, 24, 34))
     if rigid:
         join = "pipe joined or clamped to it"
-    elif _is_rigid(d.stub.conductor_diameter_m):
+    elif s.parts.rigid_stub:
         join = "wire clamped to it"
     else:
         join = "wire wrapped round it and soldered"
@@ -757,12 +519,12 @@ def _radiator(ctx: _Context) -> Drawing:
     # as cut
     y2 = 184.0
     sheet.add(Text(PAD + 2.0, 140.0, "As cut", 9.0, bold=True))
-    wrap_text = f"{allowance} {L(s.wrap_allowance_m)}"
-    w_d = max(60.0, _width(wrap_text) + 14.0)
+    wrap_text = f"{allowance} {fmt(s.wrap_allowance_m)}"
+    w_d = max(60.0, text_width(wrap_text) + 14.0)
     x_c0, x_c1 = 60.0, 440.0
     margin = s.first_cut.radiator_margin_m
-    margin_text = f"tuning margin {L(margin)}"
-    w_t = max(60.0, _width(margin_text) + 14.0) if margin > 0 else 0.0
+    margin_text = f"tuning margin {fmt(margin)}"
+    w_t = max(60.0, text_width(margin_text) + 14.0) if margin > 0 else 0.0
     # the far end (the wire's left end) gets the tuning margin: the radiator is first hung long
     x_m0, x_m1 = x_c0 + w_d + w_t, x_c1 - w_d
     x_t = x_c0 + w_d
@@ -772,9 +534,9 @@ def _radiator(ctx: _Context) -> Drawing:
     sheet.add(Dimension(x_c0, y2, x_t, y2, wrap_text, 14.0))
     if margin > 0:
         sheet.add(Dimension(x_t, y2, x_m0, y2, margin_text, 14.0))
-    sheet.add(Dimension(x_m0, y2, x_m1, y2, f"radiator {L(s.dimensions.radiator)}", 14.0))
+    sheet.add(Dimension(x_m0, y2, x_m1, y2, f"radiator {fmt(s.dimensions.radiator)}", 14.0))
     sheet.add(Dimension(x_m1, y2, x_c1, y2, wrap_text, 14.0))
-    sheet.add(Dimension(x_c0, y2, x_c1, y2, f"cut length {L(s.radiator_cut_m)}", -16.0))
+    sheet.add(Dimension(x_c0, y2, x_c1, y2, f"cut length {fmt(s.radiator_cut_m)}", -16.0))
     sheet.callout(x_m1, y2 + 5.0, ["mark the attachment points"], angles=(315, 290, 340),
                   radii=(30, 42, 56))
     sheet.place_text([(x_c0, y2 + 40.0), (PAD + 2.0, y2 + 40.0)],
@@ -790,7 +552,7 @@ def _radiator(ctx: _Context) -> Drawing:
 
 # ---------------------------------------------------------------- stub
 
-def _web(sheet: _Sheet, ctx: _Context, x_j: float, x_o: float, spans, keep_clear) -> None:
+def _web(sheet: Layout, ctx: _Context, x_j: float, x_o: float, spans, keep_clear) -> None:
     """What holds the stub's conductors apart, over the drawn spans (y0, y1): the web of a line
     with a solid dielectric (grey, with windows for window line), spreaders for open-wire line
     (none within 12 points of the page y values in `keep_clear`), nothing for self-supporting pipe
@@ -804,7 +566,7 @@ def _web(sheet: _Sheet, ctx: _Context, x_j: float, x_o: float, spans, keep_clear
                 while y + 18.0 <= y1 - 4.0:
                     sheet.add(Hatch(x_j + 7.0, y, x_o - x_j - 14.0, 18.0, grey=1.0))
                     y += 28.0
-        elif not _is_rigid(line.conductor_diameter_m):
+        elif not ctx.solution.parts.rigid_stub:
             y = y0 + 16.0
             while y + 4.0 <= y1 - 6.0:
                 if all(abs(y + 2.0 - k) > 12.0 for k in keep_clear):
@@ -817,7 +579,7 @@ def _section(ctx: _Context, cx: float, cy: float) -> list:
     centre."""
     line = ctx.design.stub
     text = f"spacing {units.format_length(line.spacing_m, ctx.units, 'size')}"
-    gap = max(56.0, _width(text) + 14.0)
+    gap = max(56.0, text_width(text) + 14.0)
     r = 5.0
     x1, x2 = cx - gap / 2, cx + gap / 2
     out: list = []
@@ -834,17 +596,13 @@ def _stub(ctx: _Context) -> Drawing:
     and the choke at the tap."""
     d, s = ctx.design, ctx.solution
     dims = s.dimensions
-    L = ctx.length
+    fmt = ctx.length
     orientation = d.site.orientation
-    x_j, x_o = 236.0, 296.0
-    x_mid = (x_j + x_o) / 2
-    y_top = 92.0
-    y_short = 330.0
-    y_tap = y_short - 88.0
-    y_end = y_short + 16.0
+    a = StubAnchors.hanging(236.0, 296.0, top=92.0, stub_span=238.0, tap_span=88.0, tail=16.0)
+    x_j, x_o, x_mid, y_top, y_tap, y_short, y_end = a.x_j, a.x_o, a.mid, a.top, a.tap, a.short, a.end
     y_choke = y_end + 10.0
     body_h = y_choke + 74.0
-    sheet = _Sheet(WIDTH, body_h)
+    sheet = Layout(WIDTH, body_h)
 
     y_b = (y_top + 40.0 + y_tap - 44.0) / 2
     _web(sheet, ctx, x_j, x_o, ((y_top, y_b - 7.0), (y_b + 7.0, y_end)), (y_tap, y_tap - 9.0, y_short))
@@ -854,9 +612,8 @@ def _stub(ctx: _Context) -> Drawing:
 
     # open top: the junction first, so that the callouts placed after it keep clear of it
     sheet.add(Circle(x_j, y_top, 2.4, width=0, fill=0.0))
-    if not _is_rigid(d.radiator.diameter_m):
-        sheet.add(Polyline([(x_j + (2.4 if k % 2 else -2.4), y_top + 2.0 + 2.5 * k) for k in range(7)],
-                           width=0.6))
+    if not s.parts.rigid_radiator:
+        sheet.add(_wrap_mark(x_j, y_top + 2.0, 7, "y", amplitude=2.4))
     if orientation == "vertical":
         sheet.add(Line(x_j, y_top, x_j, PAD + 8.0, width=CONDUCTOR + 0.3))
         sheet.callout(x_j, (y_top + PAD + 8.0) / 2, ["radiator, straight up"], angles=(180, 200, 160))
@@ -894,8 +651,8 @@ def _stub(ctx: _Context) -> Drawing:
                        width=COAX))
 
     # dimensions right of the stub
-    sheet.add(_vdim(x_o, y_short, y_tap, f"tap {L(dims.tap)}", 20.0))
-    sheet.add(_vdim(x_o, y_short, y_top, f"stub {L(dims.stub)}", 46.0))
+    sheet.add(_vdim(x_o, y_short, y_tap, f"tap {fmt(dims.tap)}", 20.0))
+    sheet.add(_vdim(x_o, y_short, y_top, f"stub {fmt(dims.stub)}", 46.0))
 
     sheet.callout(x_o, y_top, ["open end: this conductor", "ends here (high RF voltage)"],
                   angles=(45, 30, 60), radii=(56, 72, 90, 110))
@@ -903,8 +660,7 @@ def _stub(ctx: _Context) -> Drawing:
                   angles=(225, 240, 200, 135), radii=(30, 42, 56, 72))
     sheet.place_group([_section(ctx, 104.0, cy) for cy in (y_b + 8.0, y_tap + 10.0, y_b - 40.0,
                                                             y_short + 40.0)], "the stub's section")
-    short_text = ["short: bar or pipe across,", "clamped or soldered"] if _is_rigid(
-        d.stub.conductor_diameter_m) else ["short: wire across both", "conductors, soldered"]
+    short_text = ["short: bar or pipe across,", "clamped or soldered"] if s.parts.rigid_stub else ["short: wire across both", "conductors, soldered"]
     sheet.callout(x_j, y_short, short_text, angles=(200, 225, 180), radii=(30, 42, 56, 72))
     sheet.callout(x_j - 4.0, y_tap, ["tap clamps: they slide", "along the stub to tune"],
                   angles=(160, 180, 135, 200), radii=(30, 42, 56, 72))
@@ -938,8 +694,8 @@ def _short_tap(ctx: _Context) -> Drawing:
     """Close view of the short and the tap: how the short is made and how the coax connects."""
     d, s = ctx.design, ctx.solution
     dims = s.dimensions
-    L = ctx.length
-    rigid = _is_rigid(d.stub.conductor_diameter_m)
+    fmt = ctx.length
+    rigid = s.parts.rigid_stub
     x_j, x_o = 180.0, 320.0
     x_mid = (x_j + x_o) / 2
     gap = x_o - x_j
@@ -960,7 +716,7 @@ def _short_tap(ctx: _Context) -> Drawing:
     y_end = y_short + 26.0
     y_bottom = y_end + 30.0
     body_h = y_bottom + 36.0
-    sheet = _Sheet(WIDTH, body_h)
+    sheet = Layout(WIDTH, body_h)
 
     conductor_grey = 0.35
     y_b = (y_tap + y_short) / 2
@@ -1004,7 +760,7 @@ def _short_tap(ctx: _Context) -> Drawing:
     sheet.add(Polyline((tip, (x_mid, tip[1] - 4.0), (x_j + cw / 2 + 3.0, y_tap - 2.0)), width=1.1))
     sheet.add(Line(x_mid + 6.0, jacket_top - 4.0, x_o - cw / 2 - 3.0, y_tap + 2.0, width=1.1))
 
-    sheet.add(_vdim(x_o, y_short, y_tap, f"tap {L(dims.tap)}", 44.0))
+    sheet.add(_vdim(x_o, y_short, y_tap, f"tap {fmt(dims.tap)}", 44.0))
 
     sheet.callout(x_j, y_a + 4.0, ["radiator-side conductor:", "the radiator joins it at the top"],
                   angles=(180, 160, 200), radii=(20, 30, 42))
@@ -1054,7 +810,7 @@ def _sleeve(ctx: _Context) -> Drawing:
     x_open, x_closed = 120.0, 380.0          # open end toward the tap (left), bonded end (right)
     tube_h, coax_h = 30.0, 14.0
     body_h = 205.0
-    sheet = _Sheet(WIDTH, body_h)
+    sheet = Layout(WIDTH, body_h)
     sheet.add(Rect(PAD + 30.0, y_ax - coax_h / 2, WIDTH - 2 * PAD - 120.0, coax_h, width=0.6,
                    fill=COAX_GREY))
     sheet.add(Rect(x_open, y_ax - tube_h / 2, x_closed - x_open, tube_h, width=0.9, fill=SUPPORT_GREY))
@@ -1109,17 +865,17 @@ def _choke(ctx: _Context) -> Drawing:
     if s.sleeve is not None:
         return _sleeve(ctx)
     c = s.choke
-    L = ctx.length
+    fmt = ctx.length
     od = d.feed.coax_outer_diameter_m
-    form_len = next(i.length_m for i in s.cut_list if i.part == "choke form")
+    form_len = s.parts.choke_form_m
     scale = min(230.0 / form_len, 128.0 / (c.form_diameter_m + 2 * od))
     fd, odp, fl = c.form_diameter_m * scale, od * scale, form_len * scale
     y_ax = 120.0
     x0 = 110.0
     body_h = y_ax + (c.form_diameter_m / 2 + od) * scale + 78.0
-    warning_lines = _wrap(f"Warning: {c.warning}", WIDTH - 2 * PAD - 4.0, LABEL) if c.warning else []
-    body_h += len(warning_lines) * _line_height(LABEL)
-    sheet = _Sheet(WIDTH, body_h)
+    warning_lines = wrap_text(f"Warning: {c.warning}", WIDTH - 2 * PAD - 4.0, LABEL) if c.warning else []
+    body_h += len(warning_lines) * line_height(LABEL)
+    sheet = Layout(WIDTH, body_h)
 
     top, bottom = y_ax - fd / 2 - odp, y_ax + fd / 2 + odp
     sheet.add(Rect(x0, y_ax - fd / 2, fl, fd, width=0.75, fill=SUPPORT_GREY))
@@ -1135,7 +891,7 @@ def _choke(ctx: _Context) -> Drawing:
                             (xa + 0.5 * pitch, top)), closed=True, fill=COAX_GREY, width=0.6))
     x_last = xs + c.turns * pitch + pitch / 2
     sheet.add(Rect(x_last, top, x0 + fl + 70.0 - x_last, band, width=0.6, fill=COAX_GREY))
-    sheet.add(Dimension(xs, top, xs + c.coil_length_m * scale, top, f"coil {L(c.coil_length_m)}",
+    sheet.add(Dimension(xs, top, xs + c.coil_length_m * scale, top, f"coil {fmt(c.coil_length_m)}",
                         18.0, beside="start"))
 
     # end view
@@ -1143,7 +899,7 @@ def _choke(ctx: _Context) -> Drawing:
     r_out = (c.form_diameter_m / 2 + od) * scale
     sheet.add(Circle(xe, y_ax, r_out, width=0.75, fill=COAX_GREY))
     sheet.add(Circle(xe, y_ax, fd / 2, width=0.75, fill=SUPPORT_GREY))
-    sheet.add(_vdim(xe, y_ax + fd / 2, y_ax - fd / 2, f"form {L(c.form_diameter_m)}", r_out + 16.0))
+    sheet.add(_vdim(xe, y_ax + fd / 2, y_ax - fd / 2, f"form {fmt(c.form_diameter_m)}", r_out + 16.0))
     sheet.add(Text(xe, y_ax + r_out + 14.0, "end view", LABEL, "middle"))
 
     coax_in_coil = c.turns * math.pi * c.mean_diameter_m
@@ -1152,11 +908,11 @@ def _choke(ctx: _Context) -> Drawing:
     sheet.callout(x0 + fl + 66.0, top, ["to the station"], angles=(90, 70, 110),
                   radii=(14, 22, 30))
     sheet.callout(xs + pitch, bottom, [f"{_turns(c.turns)} of {d.feed.coax}, close-wound",
-                                       f"about {L(coax_in_coil)} of the coax",
+                                       f"about {fmt(coax_in_coil)} of the coax",
                                        "cable ties hold the turns"],
                   angles=(290, 270, 315, 250), radii=(30, 42, 56))
     if warning_lines:
-        sheet.place_text([(PAD + 2.0, body_h - PAD - len(warning_lines) * _line_height(LABEL))],
+        sheet.place_text([(PAD + 2.0, body_h - PAD - len(warning_lines) * line_height(LABEL))],
                          warning_lines, size=LABEL)
     notes = ["Coil and form drawn to scale (side and end views).", ctx.rounding_note()]
     return _finish(ctx, "Choke: the feed coax wound at the tap", sheet.items, body_h, notes)

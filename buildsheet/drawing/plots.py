@@ -5,7 +5,8 @@ Symbols and units:
   f        frequency, Hz (tick labels in MHz, converted only when formatting)
   swr      voltage standing wave ratio, >= 1 (dimensionless)
   z        complex impedance, ohm; z_ref reference impedance of the chart, ohm
-  gamma    reflection coefficient (z - z_ref) / (z + z_ref), |gamma| <= 1 for a passive load
+  rho      reflection coefficient (z - z_ref) / (z + z_ref), |rho| <= 1 for a passive load (Gamma in
+           most texts; rho as in physics/, where gamma is the propagation constant)
   r, x     normalised resistance and reactance, z / z_ref = r + jx
 
 Each plot exposes its axis transform (`swr_axes`, `smith_axes`) so tests and callers can map page
@@ -21,6 +22,7 @@ from typing import Sequence
 import numpy as np
 
 from buildsheet import fonts
+from buildsheet.physics.lines import reflection
 from buildsheet.drawing.shapes import (Arc, Box, Circle, Drawing, Line, Polyline, Text, clip_polyline,
                                        clip_segment, text_centered_at)
 
@@ -310,23 +312,23 @@ def _swr_legend(ax: Axes, height: float, line_h: float) -> list:
 
 @dataclass(frozen=True)
 class SmithAxes:
-    """Map of the reflection-coefficient plane onto the page: gamma = 0 at (cx, cy), |gamma| = 1 on
-    the circle of `radius` points, Im(gamma) up the page."""
+    """Map of the reflection-coefficient plane onto the page: rho = 0 at (cx, cy), |rho| = 1 on
+    the circle of `radius` points, Im(rho) up the page."""
     cx: float
     cy: float
     radius: float
 
-    def to_page(self, gamma: complex) -> tuple[float, float]:
-        return self.cx + self.radius * gamma.real, self.cy - self.radius * gamma.imag
+    def to_page(self, rho: complex) -> tuple[float, float]:
+        return self.cx + self.radius * rho.real, self.cy - self.radius * rho.imag
 
     def from_page(self, px: float, py: float) -> complex:
         return complex((px - self.cx) / self.radius, (self.cy - py) / self.radius)
 
 
-def gamma_of(z_ohm: complex | np.ndarray, z_ref: float) -> complex | np.ndarray:
-    """Reflection coefficient gamma = (z - z_ref) / (z + z_ref) (Pozar, Microwave Engineering, 4th ed.,
+def rho_of(z_ohm: complex | np.ndarray, z_ref: float) -> complex | np.ndarray:
+    """Reflection coefficient rho = (z - z_ref) / (z + z_ref) (Pozar, Microwave Engineering, 4th ed.,
     eq. 2.35); z_ohm and z_ref in ohm."""
-    return (z_ohm - z_ref) / (z_ohm + z_ref)
+    return reflection(z_ohm, z_ref)[()]
 
 
 _SMITH_LABEL_W = 22.0   # room outside the unit circle for the reactance labels, points
@@ -349,7 +351,7 @@ def smith_axes(width: float) -> SmithAxes:
 
 def _x_arc(ax: SmithAxes, x: float) -> Arc:
     """Constant-reactance circle x (normalised) inside the unit circle: centre 1 + j/x, radius 1/|x|,
-    from gamma = 1 to its second crossing of |gamma| = 1 (both circles are orthogonal, so the inside
+    from rho = 1 to its second crossing of |rho| = 1 (both circles are orthogonal, so the inside
     part is the shorter arc)."""
     centre = complex(1.0, 1.0 / x)
     crossing = complex((x * x - 1) / (x * x + 1), 2 * x / (x * x + 1))
@@ -379,10 +381,10 @@ def _smith_grid(ax: SmithAxes) -> list:
     return out
 
 
-def _outside_label(ax: SmithAxes, gamma_on_circle: complex, label: str, size: float) -> Text:
+def _outside_label(ax: SmithAxes, rho_on_circle: complex, label: str, size: float) -> Text:
     """Label centred just outside the unit circle at the given point, along the radius."""
     probe = Text(0.0, 0.0, label, size, "middle").bbox()
-    ux, uy = gamma_on_circle.real, -gamma_on_circle.imag
+    ux, uy = rho_on_circle.real, -rho_on_circle.imag
     reach = ax.radius + PAD + probe.width / 2 * abs(ux) + probe.height / 2 * abs(uy)
     return text_centered_at(ax.cx + ux * reach, ax.cy + uy * reach, label, size)
 
@@ -429,10 +431,10 @@ def smith_chart(freq_hz: Sequence[float], z_ohm: Sequence[complex], z_ref: float
     if np.any(z.real < 0) or z_ref <= 0:
         raise ValueError("a passive load (resistance >= 0) and z_ref > 0 are required")
     ax, legend_top = _smith_layout(width)
-    gamma = gamma_of(z, z_ref)
+    rho = rho_of(z, z_ref)
     items: list = _smith_grid(ax)
 
-    pts = [ax.to_page(g) for g in gamma]
+    pts = [ax.to_page(g) for g in rho]
     in_band = (f >= band_hz[0]) & (f <= band_hz[1])
     # Split the locus where it enters and leaves the band; neighbouring runs share their end point.
     start = 0
@@ -447,7 +449,7 @@ def smith_chart(freq_hz: Sequence[float], z_ohm: Sequence[complex], z_ref: float
     marks = [(b, False) for b in band_hz if f[0] <= b <= f[-1]]
     if f[0] <= design_hz <= f[-1]:
         marks.append((design_hz, True))
-    centres = [ax.to_page(gamma_of(complex(np.interp(fm, f, z.real), np.interp(fm, f, z.imag)),
+    centres = [ax.to_page(rho_of(complex(np.interp(fm, f, z.real), np.interp(fm, f, z.imag)),
                                    z_ref)) for fm, _ in marks]
     marker_boxes = [Box(mx - MARKER_RADIUS, my - MARKER_RADIUS, mx + MARKER_RADIUS,
                         my + MARKER_RADIUS) for mx, my in centres]

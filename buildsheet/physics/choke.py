@@ -24,12 +24,11 @@ from __future__ import annotations
 from dataclasses import dataclass
 
 import numpy as np
-from scipy.constants import c as C0
-from scipy.constants import epsilon_0, inch, mu_0
 from scipy.special import ellipe, ellipk
 
-from buildsheet.errors import DesignError
+from buildsheet.physics import ModelError
 from buildsheet.physics.conductors import surface_resistance
+from buildsheet.physics.constants import C0, epsilon_0, inch, mu_0
 
 # Copper: the shield's outer surface taken as a smooth copper tube. Real braid loses more, so the
 # resulting |Z| near self-resonance is an upper bound; sizing keeps the band well below resonance.
@@ -279,13 +278,13 @@ def design_coax_choke(f_design, f_band_high, form_od, cable_od, z_target=1000.0,
     """
     f_low = f_design if f_band_low is None else f_band_low
     if not 0 < f_low <= f_design <= f_band_high:
-        raise DesignError(f"choke band must satisfy 0 < low edge <= design frequency <= high edge, "
+        raise ModelError(f"choke band must satisfy 0 < low edge <= design frequency <= high edge, "
                           f"got {f_low} Hz, {f_design} Hz, {f_band_high} Hz")
     if not (form_od > 0 and cable_od > 0):
-        raise DesignError(f"choke form and cable diameters must be positive, got form {form_od} m, "
+        raise ModelError(f"choke form and cable diameters must be positive, got form {form_od} m, "
                           f"cable {cable_od} m")
     if not (z_target > 0 and srf_margin >= 1 and max_turns >= 1):
-        raise DesignError(f"choke target must be positive with a margin >= 1 and at least one turn, "
+        raise ModelError(f"choke target must be positive with a margin >= 1 and at least one turn, "
                           f"got {z_target} ohm, margin {srf_margin}, {max_turns} turns")
 
     band = np.union1d(np.linspace(f_low, f_band_high, _BAND_POINTS), [f_design])
@@ -438,11 +437,11 @@ def design_sleeve_choke(f_design, f_band_low, f_band_high, cable_od, shield_d, j
     the jacket's dielectric; z_target: ohm.
     """
     if not 0 < f_band_low <= f_design <= f_band_high:
-        raise DesignError(f"sleeve band must satisfy 0 < low edge <= design frequency <= high edge, "
-                          f"got {f_band_low} Hz, {f_design} Hz, {f_band_high} Hz")
+        raise ModelError(f"sleeve band must satisfy 0 < low edge <= design frequency <= high edge, "
+                         f"got {f_band_low} Hz, {f_design} Hz, {f_band_high} Hz")
     if not 0 < shield_d < cable_od:
-        raise DesignError(f"the braid's diameter {shield_d} m must be positive and under the cable's "
-                          f"outer diameter {cable_od} m")
+        raise ModelError(f"the braid's diameter {shield_d} m must be positive and under the cable's "
+                         f"outer diameter {cable_od} m")
     centre = float(np.sqrt(f_band_low * f_band_high))
     band = np.union1d(np.linspace(f_band_low, f_band_high, _BAND_POINTS), [f_design])
     best = None

@@ -14,14 +14,14 @@ from __future__ import annotations
 
 import numpy as np
 
-from buildsheet.errors import DesignError
+from buildsheet.physics import ModelError
 from buildsheet.physics.lines import Line, input_impedance
 
 
 def _check_rho(rho):
     rho = np.asarray(rho, dtype=float)
     if np.any((rho < 0) | (rho > 1)) or np.any(np.isnan(rho)):
-        raise DesignError(f"a passive load's |reflection coefficient| must be in [0, 1], got {rho}")
+        raise ModelError(f"a passive load's |reflection coefficient| must be in [0, 1], got {rho}")
     return rho
 
 
@@ -43,20 +43,6 @@ def total_loss_db(matched_db, gamma_load_mag):
     rho2 = _check_rho(gamma_load_mag) ** 2
     with np.errstate(divide="ignore"):
         return 10.0 * np.log10((a**2 - rho2) / (a * (1.0 - rho2)))
-
-
-def swr_at_input(gamma_load_mag, matched_db):
-    """SWR at the transmitter end: |rho_in| = |rho_load|/a, SWR = (1 + |rho_in|)/(1 - |rho_in|).
-
-    The reflection decays by e^(-2 alpha l) = 1/a on the way back (CHECK_VALUES §6b); exact for real z0.
-
-    gamma_load_mag: |rho_load| on the line's z0, 0..1; matched_db: A, dB. A total reflection on a
-    lossless line gives inf.
-    """
-    a = 10.0 ** (np.asarray(matched_db, dtype=float) / 10.0)
-    rho_in = _check_rho(gamma_load_mag) / a
-    with np.errstate(divide="ignore"):
-        return np.where(rho_in >= 1.0, np.inf, (1.0 + rho_in) / (1.0 - rho_in))
 
 
 def through_coax(z_load, line: Line, f, length) -> np.ndarray:

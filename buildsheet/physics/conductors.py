@@ -18,10 +18,10 @@ Symbols (SI throughout):
 from __future__ import annotations
 
 import numpy as np
-from scipy.constants import mu_0
 from scipy.special import jve
 
-from buildsheet.errors import DesignError
+from buildsheet.physics import ModelError
+from buildsheet.physics.constants import mu_0
 
 # From this |ka| = sqrt(2) a/delta up, J0(ka)/J1(ka) is computed from Hankel's asymptotic expansion
 # (Abramowitz & Stegun 9.2.7-9.2.10; from memory, checked against scipy's jve in the tests): with
@@ -124,6 +124,6 @@ def proximity_factor(spacing, d):
     """
     ratio = np.asarray(spacing, dtype=float) / np.asarray(d, dtype=float)
     if np.any(ratio <= 1.0):
-        raise DesignError(f"two-wire spacing must exceed the wire diameter, got spacing/diameter "
+        raise ModelError(f"two-wire spacing must exceed the wire diameter, got spacing/diameter "
                           f"{np.min(ratio):.4g}")
     return ratio / np.sqrt(ratio**2 - 1.0)

@@ -19,10 +19,9 @@ Symbols (SI throughout; conversions only where a limit table is defined in other
 from __future__ import annotations
 
 import numpy as np
-from scipy.constants import c as C0
-from scipy.constants import epsilon_0, mu_0
 
-from buildsheet.errors import DesignError
+from buildsheet.physics import ModelError
+from buildsheet.physics.constants import C0, epsilon_0, mu_0
 
 ETA0 = float(np.sqrt(mu_0 / epsilon_0))
 
@@ -35,7 +34,7 @@ _MW_CM2 = 10.0   # W/m^2 per mW/cm^2
 
 def _check_range(f_mhz, low, high, table):
     if np.any(f_mhz < low) or np.any(f_mhz > high) or np.any(np.isnan(f_mhz)):
-        raise DesignError(f"{table} covers {low:g} MHz to {high:g} MHz, got {f_mhz} MHz")
+        raise ModelError(f"{table} covers {low:g} MHz to {high:g} MHz, got {f_mhz} MHz")
 
 
 def _table(f_mhz, upper_edges, values, above):
@@ -96,7 +95,7 @@ def power_density(eirp_w, r_m, ground_reflection=True):
     k = GROUND_REFLECTION_POWER if ground_reflection else 1.0
     r = np.asarray(r_m, dtype=float)
     if np.any(r <= 0):
-        raise DesignError(f"exposure distance must be positive, got {r} m")
+        raise ModelError(f"exposure distance must be positive, got {r} m")
     return k * np.asarray(eirp_w, dtype=float) / (4.0 * np.pi * r**2)
 
 
@@ -108,7 +107,7 @@ def compliance_distance(eirp_w, s_limit_w_m2, ground_reflection=True):
     k = GROUND_REFLECTION_POWER if ground_reflection else 1.0
     s = np.asarray(s_limit_w_m2, dtype=float)
     if np.any(s <= 0):
-        raise DesignError(f"power-density limit must be positive, got {s} W/m^2")
+        raise ModelError(f"power-density limit must be positive, got {s} W/m^2")
     return np.sqrt(k * np.asarray(eirp_w, dtype=float) / (4.0 * np.pi * s))
 
 
@@ -121,7 +120,7 @@ def average_power(pep_w, duty_factor, on_air_fraction):
     duty = np.asarray(duty_factor, dtype=float)
     on_air = np.asarray(on_air_fraction, dtype=float)
     if np.any((duty < 0) | (duty > 1)) or np.any((on_air < 0) | (on_air > 1)):
-        raise DesignError(f"duty factor and on-air fraction must be between 0 and 1, got {duty} and "
+        raise ModelError(f"duty factor and on-air fraction must be between 0 and 1, got {duty} and "
                           f"{on_air}")
     return np.asarray(pep_w, dtype=float) * duty * on_air
 

@@ -64,12 +64,12 @@ from dataclasses import dataclass
 from typing import NamedTuple
 
 import numpy as np
-from scipy.constants import c as C0
-from scipy.optimize import root
 
+from buildsheet.physics import ModelError
 from buildsheet.physics import radiator as rad
+from buildsheet.physics.constants import C0
 from buildsheet.physics.conductors import wire_internal_impedance
-from buildsheet.physics.lines import Line
+from buildsheet.physics.lines import Line, reflection
 
 ORIENTATIONS = ("horizontal", "sloper", "vertical")
 GROUND_KINDS = ("free-space", "perfect", "real")
@@ -149,16 +149,16 @@ class Antenna:
 
     def __post_init__(self):
         if self.orientation not in ORIENTATIONS:
-            raise ValueError(f"orientation {self.orientation!r}: expected one of {ORIENTATIONS}")
+            raise ModelError(f"orientation {self.orientation!r}: expected one of {ORIENTATIONS}")
         if self.ground_kind not in GROUND_KINDS:
-            raise ValueError(f"ground_kind {self.ground_kind!r}: expected one of {GROUND_KINDS}")
+            raise ModelError(f"ground_kind {self.ground_kind!r}: expected one of {GROUND_KINDS}")
         if not (self.spacing > self.stub_conductor_d > 0 and self.wire_d > 0):
-            raise ValueError(f"need spacing > stub conductor diameter > 0 and wire diameter > 0, got "
+            raise ModelError(f"need spacing > stub conductor diameter > 0 and wire diameter > 0, got "
                              f"{self.spacing}, {self.stub_conductor_d}, {self.wire_d} m")
         if not 0 < self.wire_vf <= 2:
-            raise ValueError(f"wire velocity factor must be in (0, 2], got {self.wire_vf}")
+            raise ModelError(f"wire velocity factor must be in (0, 2], got {self.wire_vf}")
         if not 0 < self.end_resistance_scale <= 10:
-            raise ValueError(f"end resistance scale must be in (0, 10], got {self.end_resistance_scale}")
+            raise ModelError(f"end resistance scale must be in (0, 10], got {self.end_resistance_scale}")
 
 
 class _Arm(NamedTuple):
@@ -408,17 +408,6 @@ def _quarter_wave(line: Line, f0: float) -> float:
     return float(C0 * line.velocity_factor(f0) / (4.0 * f0))
 
 
-def radiator_end_impedance(f, length, ant: Antenna, stub_length: float | None = None) -> np.ndarray:
-    """z_top = 4 z_ant: the differential load (V_d/I_d) that the stub's open top sees, ohm.
-
-    f: Hz (array); length: radiator L, m; stub_length: S, m, the common-mode arm (default: a
-    quarter wave of the stub line at the mean of f). See the module docstring for the picture.
-    """
-    prep = _Prepared(ant, np.atleast_1d(f), CAL)
-    S = _quarter_wave(ant.stub_line, float(np.mean(prep.f))) if stub_length is None else stub_length
-    return prep.z_top(length, S)
-
-
 def radiator_own_impedance(f, length, ant: Antenna, stub_length: float | None = None) -> np.ndarray:
     """The radiator's own end impedance, ohm (the arm cut to resonance: its image and its coupling to
     the stub's common mode, without the junction term and the common-mode arm itself; see
@@ -441,7 +430,7 @@ def _at(f0: float, ant: Antenna, prepared: _Prepared | None) -> _Prepared:
     if prepared is None:
         return at_frequency(f0, ant)
     if not (prepared.scalar and prepared.f == f0 and prepared.ant is ant):
-        raise ValueError(f"`prepared` must be at_frequency(f0, ant) of this call (f0 = {f0} Hz), "
+        raise ModelError(f"`prepared` must be at_frequency(f0, ant) of this call (f0 = {f0} Hz), "
                          f"got one at {prepared.f} Hz" + ("" if prepared.ant is ant else
                                                           " for another antenna"))
     return prepared
@@ -479,7 +468,7 @@ def _resonant_length(prep: _Prepared, S: float) -> float:
         a, b, xa = b, b - xb * (b - a) / (xb - xa), xb
         xb = x(b)
     if not (np.isfinite(b) and 0.30 * 2 * np.pi / beta <= b <= 0.60 * 2 * np.pi / beta):
-        raise ValueError(f"no radiator length within 0.30..0.60 electrical wavelengths has a "
+        raise ModelError(f"no radiator length within 0.30..0.60 electrical wavelengths has a "
                          f"purely resistive end impedance at {prep.f:.6g} Hz")
     return float(b)
 
@@ -489,7 +478,7 @@ def resonant_radiator_length(f0: float, ant: Antenna, stub_length: float | None 
     """Radiator length L (m) whose end impedance z_top is purely resistive at f0 (Hz), at the
     high-impedance (anti-)resonance near half an electrical wavelength; the common-mode arm is
     stub_length (default: a quarter wave of the stub line). prepared: at_frequency(f0, ant), to
-    share with the other solves. Raises ValueError if there is none."""
+    share with the other solves. Raises ModelError if there is none."""
     prep = _at(f0, ant, prepared)
     S = _quarter_wave(ant.stub_line, f0) if stub_length is None else float(stub_length)
     return _resonant_length(prep, S)
@@ -502,19 +491,12 @@ def feed_impedance(f, ant: Antenna, radiator_length, stub_length, tap_length) ->
     return _Prepared(ant, np.atleast_1d(f), CAL).z_feed(radiator_length, stub_length, tap_length)
 
 
-def tap_impedance(f, ant: Antenna, stub_length, tap_length, z_top) -> np.ndarray:
-    """The tap network alone: impedance at the feed (ohm) for a given differential load z_top (ohm)
-    at the stub's open top; f in Hz, lengths in m. feed_impedance is this with z_top = 4 z_ant."""
-    return _Prepared(ant, np.atleast_1d(f), CAL).z_feed(np.nan, stub_length, tap_length,
-                                                        np.asarray(z_top, dtype=complex))
-
-
 def solve_match(f0: float, z_feed: float, ant: Antenna, radiator_length: float,
                 max_iter: int = 60, prepared: _Prepared | None = None) -> tuple[float, float]:
     """Stub and tap lengths (S, T) in m so that the feed sees z_feed + j0 ohm at f0 (Hz): a 2-D
     root (scipy.optimize.root, hybrid Powell, at most max_iter evaluations) started from the best
     point of a grid around the quarter wave and the textbook tap sin^2(beta T) = z_feed/R_top.
-    prepared: at_frequency(f0, ant), to share with the other solves. Raises ValueError if no
+    prepared: at_frequency(f0, ant), to share with the other solves. Raises ModelError if no
     solution is found."""
     prep = _at(f0, ant, prepared)
     L = float(radiator_length)
@@ -523,13 +505,13 @@ def solve_match(f0: float, z_feed: float, ant: Antenna, radiator_length: float,
     z_top0 = prep.z_top(L, s0)
     r_top = z_top0.real
     if not r_top > z_feed:
-        raise ValueError(f"end impedance {r_top:.0f} ohm is not above the feed impedance {z_feed} ohm")
+        raise ModelError(f"end impedance {r_top:.0f} ohm is not above the feed impedance {z_feed} ohm")
     t0 = float(np.arcsin(np.sqrt(z_feed / r_top)) / beta)
     # z_top is in general reactive (the radiator is cut to its own resonance, not to the top's):
     # start from the best point of a coarse (S, T) grid with z_top frozen at s0, vectorised
     s_grid = s0 * np.linspace(0.8, 1.2, 41)[:, None]
     t_grid = t0 * np.geomspace(0.25, 4.0, 25)[None, :]
-    rho = np.abs(_reflection(prep.z_feed(L, s_grid, t_grid, z_top0), z_feed))
+    rho = np.abs(reflection(prep.z_feed(L, s_grid, t_grid, z_top0), z_feed))
     rho = np.where((t_grid < 0.8 * s_grid) & np.isfinite(rho), rho, np.inf)
     i, j = np.unravel_index(int(np.argmin(rho)), rho.shape)
     start = [float(s_grid[i, 0]), float(t_grid[0, j])]
@@ -549,6 +531,8 @@ def solve_match(f0: float, z_feed: float, ant: Antenna, radiator_length: float,
             z = prep.z_feed(L, S, T, tops[S])
         return np.array([z.real / z_feed - 1.0, z.imag / z_feed])
 
+    from scipy.optimize import root     # imported where used: scipy.optimize is slow to import
+
     sol = root(resid, start, method="hybr", options={"maxfev": max_iter, "xtol": 1e-12})
     x = np.asarray(sol.x, dtype=float)
     # Broyden's rank-one update adds to the frozen Jacobian what the integrals' change with S does
@@ -566,13 +550,9 @@ def solve_match(f0: float, z_feed: float, ant: Antenna, radiator_length: float,
         r = r_new
     S, T = (float(v) for v in x)
     if np.max(np.abs(resid(x, full=True))) > 1e-6 or not 0 < T < S or not 0.5 * s0 < S < 1.5 * s0:
-        raise ValueError(f"no stub/tap match for {z_feed} ohm at {f0:.6g} Hz "
+        raise ModelError(f"no stub/tap match for {z_feed} ohm at {f0:.6g} Hz "
                          f"(last try stub {S:.4f} m, tap {T:.4f} m: {sol.message})")
     return S, T
-
-
-def _reflection(z, z_ref):
-    return (z - z_ref) / (z + z_ref)
 
 
 def _jacobian(fun, x, h=1e-7):
@@ -735,7 +715,7 @@ def ground_efficiency(prep: _Prepared, L: float, S: float, i_rad: complex = 1.0)
             return eta
         if lowest >= gap:
             break
-    raise ValueError(f"the ground efficiency of this structure could not be computed ({eta!r}): it "
+    raise ModelError(f"the ground efficiency of this structure could not be computed ({eta!r}): it "
                      "rests on or too near a very conductive ground")
 
 

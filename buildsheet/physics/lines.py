@@ -30,12 +30,10 @@ from dataclasses import dataclass
 from typing import Callable
 
 import numpy as np
-from scipy.constants import c as C0
-from scipy.constants import epsilon_0, mu_0
-from scipy.optimize import nnls
 
-from buildsheet.errors import DesignError
+from buildsheet.physics import ModelError
 from buildsheet.physics.conductors import proximity_factor, wire_internal_impedance
+from buildsheet.physics.constants import C0, epsilon_0, mu_0
 
 #: decibels per neper, 20/ln(10)
 DB_PER_NEPER = 20.0 / np.log(10.0)
@@ -144,14 +142,14 @@ class Line:
         eps_eff: effective relative permittivity (>= 1); tan_delta: loss tangent (>= 0).
         """
         if not (diameter > 0 and spacing > 0):
-            raise DesignError(f"two-wire spacing and wire diameter must be positive, got spacing "
+            raise ModelError(f"two-wire spacing and wire diameter must be positive, got spacing "
                               f"{spacing} m, diameter {diameter} m")
         if not sigma > 0:
-            raise DesignError(f"conductor conductivity must be positive, got {sigma} S/m")
+            raise ModelError(f"conductor conductivity must be positive, got {sigma} S/m")
         if not eps_eff >= 1.0:
-            raise DesignError(f"effective permittivity of a line must be at least 1, got {eps_eff}")
+            raise ModelError(f"effective permittivity of a line must be at least 1, got {eps_eff}")
         if not tan_delta >= 0.0:
-            raise DesignError(f"loss tangent must not be negative, got {tan_delta}")
+            raise ModelError(f"loss tangent must not be negative, got {tan_delta}")
         prox = float(proximity_factor(spacing, diameter))
         acosh_ratio = float(np.arccosh(spacing / diameter))
         L = mu_0 / np.pi * acosh_ratio
@@ -175,17 +173,17 @@ class Line:
         terminal behaviour (z0, gamma) is meant; the split of loss between R and G is not physical.
         """
         if not z0 > 0:
-            raise DesignError(f"line impedance must be positive, got {z0} ohm")
+            raise ModelError(f"line impedance must be positive, got {z0} ohm")
         if not 0 < vf <= 1:
-            raise DesignError(f"velocity factor must be in (0, 1], got {vf}")
+            raise ModelError(f"velocity factor must be in (0, 1], got {vf}")
         if law not in ("sqrt+linear", "sqrt"):
-            raise DesignError(f"loss law must be 'sqrt+linear' or 'sqrt', got {law!r}")
+            raise ModelError(f"loss law must be 'sqrt+linear' or 'sqrt', got {law!r}")
         points = np.asarray(loss_points, dtype=float)
         if points.size and (points.ndim != 2 or points.shape[1] != 2):
-            raise DesignError(f"loss points must be (frequency Hz, loss dB/m) pairs, got {loss_points}")
+            raise ModelError(f"loss points must be (frequency Hz, loss dB/m) pairs, got {loss_points}")
         points = points.reshape(-1, 2)
         if np.any(points[:, 0] <= 0) or np.any(points[:, 1] < 0):
-            raise DesignError("loss points must be (frequency > 0 Hz, loss >= 0 dB/m) pairs, got "
+            raise ModelError("loss points must be (frequency > 0 Hz, loss >= 0 dB/m) pairs, got "
                               f"{[tuple(p) for p in points]}")
         k1 = k2 = 0.0
         if len(points):
@@ -197,6 +195,8 @@ class Line:
                 # scale the columns so nnls sees a well-conditioned matrix (sqrt(f) ~ 1e4, f ~ 1e8)
                 f_ref = float(np.max(f_pts))
                 basis = np.column_stack([np.sqrt(f_pts / f_ref), f_pts / f_ref])
+                from scipy.optimize import nnls     # imported where used: slow to import
+
                 (c1, c2), _ = nnls(basis, alpha_pts)
                 k1, k2 = float(c1 / np.sqrt(f_ref)), float(c2 / f_ref)
         L = z0 / (vf * C0)
@@ -221,7 +221,13 @@ def reflection(z, z_ref=50.0) -> np.ndarray:
 
 def swr(z, z_ref=50.0) -> np.ndarray:
     """Standing-wave ratio (1 + |rho|)/(1 - |rho|) of z on z_ref (ohm); |rho| >= 1 gives inf."""
-    mag = np.abs(reflection(z, z_ref))
+    return swr_of(np.abs(reflection(z, z_ref)))
+
+
+def swr_of(mag) -> np.ndarray:
+    """Standing-wave ratio (1 + |rho|)/(1 - |rho|) from the reflection's magnitude |rho|; inf from
+    |rho| = 1 up (a total reflection, or a sweep of a faulty analyser)."""
+    mag = np.asarray(mag, dtype=float)
     with np.errstate(divide="ignore", invalid="ignore"):
         s = (1.0 + mag) / (1.0 - mag)
     return np.where(mag >= 1.0, np.inf, s)

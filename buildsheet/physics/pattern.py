@@ -105,9 +105,9 @@ from __future__ import annotations
 from dataclasses import dataclass
 
 import numpy as np
-from scipy.constants import epsilon_0
-from scipy.optimize import minimize
 
+from buildsheet.physics import ModelError
+from buildsheet.physics.constants import epsilon_0
 from buildsheet.physics.radiator import ETA0, wavenumber
 
 GROUND_KINDS = ("free-space", "perfect", "real")
@@ -180,7 +180,7 @@ class Pattern:
 
 def _check_ground(ground_kind: str):
     if ground_kind not in GROUND_KINDS:
-        raise ValueError(f"ground_kind {ground_kind!r}: expected one of {GROUND_KINDS}")
+        raise ModelError(f"ground_kind {ground_kind!r}: expected one of {GROUND_KINDS}")
 
 
 def _eps_c(f: float, eps_r: float, sigma: float) -> complex:
@@ -376,7 +376,7 @@ def powers(wires, f: float, ground_kind: str = "free-space", eps_r: float = 13.0
     eps_c = _eps_c(f, eps_r, sigma)
     geo, extent, z_min = _geometry(wires)
     if ground_kind != "free-space" and z_min <= 0:
-        raise ValueError(f"a wire reaches z = {z_min:.4g} m: the wires must stay above the ground")
+        raise ModelError(f"a wire reaches z = {z_min:.4g} m: the wires must stay above the ground")
     th, w_th = _theta_nodes()
     n_az = _n_azimuth(k, extent)
     phi = 2 * np.pi * np.arange(n_az) / n_az
@@ -503,6 +503,8 @@ def pattern(wires, f: float, ground_kind: str = "free-space", eps_r: float = 13.
                                ground_kind, eps_r, sigma))
 
     start = np.degrees([el[i], az[j]])
+    from scipy.optimize import minimize     # imported where used: slow to import
+
     res = minimize(neg_gain, start, method="Nelder-Mead",
                    options={"xatol": 0.01, "fatol": 1e-6, "initial_simplex":
                             [start, start + [step_deg / 2, 0], start + [0, step_deg]]})

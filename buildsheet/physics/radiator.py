@@ -24,9 +24,9 @@ from __future__ import annotations
 import math
 
 import numpy as np
-from scipy.constants import c as C0
-from scipy.constants import epsilon_0, mu_0
 from scipy.special import sici
+
+from buildsheet.physics.constants import C0, epsilon_0, mu_0
 
 ETA0 = float(np.sqrt(mu_0 / epsilon_0))
 _ETA_4PI = ETA0 / (4.0 * np.pi)
@@ -59,11 +59,6 @@ def _sici_pair(x):
         return si1, ci1, si2, ci2
     x = np.asarray(x, dtype=float)
     return (*sici(x), *sici(2 * x))
-
-
-def _cin(x):
-    """Cin(x) = gamma_E + ln x - Ci(x) (Balanis, Antenna Theory, 4th ed., App. III)."""
-    return np.euler_gamma + np.log(x) - _ci(x)
 
 
 def loop_radiation_resistance(kl):

@@ -1,5 +1,5 @@
-"""Atomic file replacement for every output and every update of a user's file; it renders nothing and
-decides no file names.
+"""Atomic file replacement for every output and every update of a user's file (replace_with_backup);
+it renders nothing, reads no input and decides no file names.
 
 A file is written to a temporary file in its own directory, flushed and fsynced, then moved over the
 target with os.replace (atomic on POSIX and Windows), and the directory is fsynced so the rename itself
@@ -221,51 +221,49 @@ def write_atomic(path: str | os.PathLike, data: bytes, *, _fail_at: str | None =
     write_many_atomic({path: data}, _fail_at=None if _fail_at is None else (_fail_at, 0))
 
 
-def read_capped(path: str, limit: int, error, what: str) -> tuple[bytes, os.stat_result]:
-    """The bytes of the file at `path` and the stat of the same open file, refusing files larger
-    than `limit` bytes; every failure is `error(problem, file=path)`, with `what` naming the kind of
-    file in the messages ("a design file", "a sweep file")."""
+def replace_with_backup(path: str, raw: bytes, before: os.stat_result, data: bytes, backup: str,
+                        error) -> None:
+    """Replace the user's file `path` (read as `raw`, with stat `before`) by `data`, keeping `raw` at
+    `backup`. Both go to temporary files first (durable); the file must then still be what was read
+    (stat and bytes), else nothing is renamed; the backup is renamed first (a crash between the two
+    renames leaves the old file and its copy), then the new text, then the directory is synced.
+    Every failure is `error(problem, file=path)` and leaves the file as it was."""
+    mode = stat.S_IMODE(before.st_mode)
+    if not mode & (stat.S_IWUSR | stat.S_IWGRP | stat.S_IWOTH):
+        raise error("is read-only (no write permission is set on it); nothing was written: make "
+                    "it writable if it is meant to be changed", file=path)
+    temps: list[str] = []
     try:
-        # O_NONBLOCK: opening a FIFO for reading would otherwise wait for a writer forever; anything
-        # that is not a regular file is refused before a byte is read
-        fd = os.open(path, os.O_RDONLY | getattr(os, "O_NONBLOCK", 0) | getattr(os, "O_BINARY", 0))
-        with os.fdopen(fd, "rb") as fh:
-            info = os.fstat(fh.fileno())
-            if stat.S_ISDIR(info.st_mode):
-                raise IsADirectoryError
-            if not stat.S_ISREG(info.st_mode):
-                raise error(f"is {_special_kind(info.st_mode)}, not {what} (only a regular file is read)",
-                            file=path)
-            raw = fh.read(limit + 1)
-    except FileNotFoundError:
-        raise error("no such file", file=path) from None
-    except IsADirectoryError:
-        raise error(f"is a directory, not {what}", file=path) from None
+        temps.append(_write_temp(path, data, 0, None))
+        temps.append(_write_temp(backup, raw, 1, None))
+        for temp in temps:
+            os.chmod(temp, mode)
+        _check_unchanged(path, raw, before, error)
+        os.replace(temps[1], backup)
+        os.replace(temps[0], path)
     except OSError as exc:
-        raise error(f"cannot be read ({exc.strerror})", file=path) from None
-    if len(raw) > limit:
-        size = f"{limit // (1024 * 1024)} MiB" if limit % (1024 * 1024) == 0 else f"{limit // 1024} KiB"
-        raise error(f"is larger than {size}; {what} is a few hundred lines at most", file=path)
-    return raw, info
-
-
-def _special_kind(mode: int) -> str:
-    if stat.S_ISFIFO(mode):
-        return "a named pipe (FIFO)"
-    if stat.S_ISSOCK(mode):
-        return "a socket"
-    if stat.S_ISCHR(mode) or stat.S_ISBLK(mode):
-        return "a device"
-    return "a special file"
-
-
-def decode_text(raw: bytes, path: str, error, what: str) -> str:
-    """`raw` as UTF-8 text (a byte-order mark allowed); UTF-16, binary or other encodings refused."""
-    if raw[:2] in (b"\xff\xfe", b"\xfe\xff"):
-        raise error("is UTF-16 text; save it as UTF-8", file=path)
-    if b"\x00" in raw:
-        raise error(f"is a binary file, not {what}", file=path)
+        raise error(f"could not be replaced ({exc.strerror or exc}); the file is unchanged",
+                    file=path) from None
+    finally:
+        for temp in temps:
+            if os.path.lexists(temp):
+                os.unlink(temp)
     try:
-        return raw.decode("utf-8-sig")
-    except UnicodeDecodeError as exc:
-        raise error(f"is not UTF-8 text (byte {exc.start})", file=path) from None
+        fsync_dir(os.path.dirname(path))
+    except OSError as exc:
+        raise error(f"was updated, but its directory could not be synced to disk "
+                    f"({exc.strerror or exc}); check the file", file=path) from None
+
+
+def _check_unchanged(path: str, raw: bytes, before: os.stat_result, error) -> None:
+    try:
+        with open(path, "rb") as f:
+            now = os.fstat(f.fileno())
+            current = f.read(len(raw) + 1)
+    except FileNotFoundError:
+        raise error("was removed while it was being updated; nothing was written", file=path) from None
+    same = (before.st_dev, before.st_ino, before.st_size, before.st_mtime_ns) == \
+        (now.st_dev, now.st_ino, now.st_size, now.st_mtime_ns)
+    if not same or current != raw:
+        raise error("changed on disk while it was being updated (saved by an editor?); nothing was "
+                    "written: run the command again", file=path)

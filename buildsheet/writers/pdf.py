@@ -39,8 +39,8 @@ from reportlab.platypus import (BaseDocTemplate, CondPageBreak, Flowable, Frame,
 
 from buildsheet import fonts
 from buildsheet.drawing.shapes import Drawing
-from buildsheet.handout import Booklet, Contents, Cover, PageRef
-from buildsheet.sheet import (Facts, Figures, Heading, KeyFigures, Para, Section, Sheet, Steps,
+from buildsheet.blocks import Booklet, Contents, Cover, PageRef
+from buildsheet.blocks import (Facts, Figures, Heading, KeyFigures, Para, Section, Sheet, Steps,
                               Table as TableBlock, WriteIn)
 from buildsheet.writers.pdf_shapes import DrawingFlowable
 
