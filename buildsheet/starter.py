@@ -155,10 +155,12 @@ def _yaml_text(text: str) -> str:
 
 
 def write_new(path: str, text: str) -> None:
-    """Write `text` to `path`, which must not exist: validated first (design.load_design on a
-    temporary file beside it), then linked into place so that an existing file is never replaced,
-    not even one created meanwhile, and a reader never sees half a file."""
+    """Write `text` to `path`, which must not exist: validated first as `check` validates
+    (design.load_design and the solved geometry's ground clearance, on a temporary file beside
+    it), then linked into place so that an existing file is never replaced, not even one created
+    meanwhile, and a reader never sees half a file."""
     from buildsheet.design import load_design
+    from buildsheet.solver import check_geometry
 
     if os.path.lexists(path):
         raise BuildsheetError("already exists; the quick start never overwrites a file: choose another "
@@ -174,7 +176,7 @@ def write_new(path: str, text: str) -> None:
             out.flush()
             os.fsync(out.fileno())
         try:
-            load_design(tmp)
+            check_geometry(load_design(tmp))    # what `check` accepts, solved clearance included
         except BuildsheetError as exc:
             raise BuildsheetError(f"these answers do not make a valid design: {exc.problem}"
                                   + (f" (key {exc.key})" if exc.key else ""), file=path) from None

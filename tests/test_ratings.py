@@ -282,7 +282,9 @@ def test_reach_threshold(oak):
     for k, warn in ((1 + EPS, False), (1 - EPS, True)):
         height = s.dimensions.stub + ratings.REACH_M * k
         design = dataclasses.replace(d, site=dataclasses.replace(d.site, height_m=height))
-        assert bool(ratings._reach(design, s)) is warn
+        # the solution carries the lowest live point (solver.Parts): the same stub, hung lower
+        moved = dataclasses.replace(s, parts=dataclasses.replace(s.parts, lowest_point_m=ratings.REACH_M * k))
+        assert bool(ratings._reach(design, moved)) is warn
 
 
 def test_exposure_reach_threshold(oak):
