@@ -16,6 +16,10 @@ the model's global constants (buildsheet.physics.jpole.CAL). Prints figures; not
                                                  or brought inside the model's envelope
   python3 bench/nec_study.py report OUT.json     the acceptance figures of a stored run
 
+  collect and accept take `envelope` (designs brought inside the envelope, many at its edges);
+  fit takes `envelope` (train and report on the designs inside it); any command takes
+  `cal=FILE.json` (constants that replace jpole.CAL's for this run, to judge a candidate fit).
+
 Data: for each random design, NEC-2 (tests/necref.py, meshed per DESIGN.md §7) is run at the
 dimensions where NEC itself matches 50 ohm for the model's radiator, and around them (frequency,
 radiator, stub and tap perturbed), every point meshed like the match (necref `like`). The fit adjusts
@@ -173,8 +177,8 @@ def nec_match(case, L, S, T, scan=False):
     return x, z
 
 
-def collect_one(seed: int):
-    case = random_case(seed)
+def collect_one(seed: int, envelope: bool = False):
+    case = envelope_case(seed) if envelope else random_case(seed)
     try:
         ant = case.antenna()
         L = jpole.resonant_radiator_length(case.f0, ant)
@@ -258,9 +262,13 @@ def _pool_map(fn, seeds):
     return rows
 
 
-def collect(out: str, n: int, start: int = 0):
-    rows = _pool_map(collect_one, list(range(start, start + n)))
-    meta = provenance(command=f"collect {out} {n} {start}", seeds=[start, start + n - 1])
+def collect(out: str, n: int, start: int = 0, envelope: bool = False):
+    """NEC-2 data of N random designs from seed START (envelope: brought inside the envelope, as
+    envelope_case does, which puts many at its edges)."""
+    from functools import partial
+    rows = _pool_map(partial(collect_one, envelope=envelope), list(range(start, start + n)))
+    meta = provenance(command=f"collect {out} {n} {start}" + (" envelope" if envelope else ""),
+                      seeds=[start, start + n - 1], envelope=envelope)
     Path(out).write_text(json.dumps(dict(meta=meta, rows=rows)))
     print(f"{sum('points' in r for r in rows)} designs written to {out}")
 
@@ -333,9 +341,20 @@ def load_rows(path: str) -> list:
     return data["rows"] if isinstance(data, dict) else data
 
 
-def fit(paths):
+def inside_envelope(row) -> bool:
+    """A data row inside the envelope the model claims (README, Limits; envelope_case): spacing at
+    most lambda/40, slope at most 55 deg."""
+    c = row["case"]
+    return (c["spacing"] <= ENVELOPE_SPACING_WAVELENGTHS * necref.C0 / c["f0"] * (1 + 1e-9)
+            and np.degrees(c["slope"]) <= ENVELOPE_SLOPE_DEG + 1e-9)
+
+
+def fit(paths, envelope=False):
+    """Fit CAL on the even seeds of the data files, report on the odd ones; envelope: train and
+    report on the designs inside the envelope only (the region the acceptance covers)."""
     from scipy.optimize import least_squares
-    rows = [r for p in paths for r in load_rows(p) if "points" in r and nec_valid(r)]
+    rows = [r for p in paths for r in load_rows(p) if "points" in r and nec_valid(r)
+            and (inside_envelope(r) or not envelope)]
     train = [r for r in rows if r["seed"] % 2 == 0]
     held = [r for r in rows if r["seed"] % 2 == 1]
     free = list(FIT_FIELDS)
@@ -528,13 +547,17 @@ def speed(cases=acc.CASES):
 if __name__ == "__main__":
     import os
     TOP_WEIGHT = float(os.environ.get("TOP_WEIGHT", TOP_WEIGHT))
+    for arg in [a for a in sys.argv if a.startswith("cal=")]:
+        sys.argv.remove(arg)
+        jpole.CAL = jpole.Calibration(**{**asdict(jpole.CAL), **json.loads(Path(arg[4:]).read_text())})
     cmd = sys.argv[1] if len(sys.argv) > 1 else "table"
     if cmd == "table":
         table()
     elif cmd == "collect":
-        collect(sys.argv[2], int(sys.argv[3]), int(sys.argv[4]) if len(sys.argv) > 4 else 0)
+        collect(sys.argv[2], int(sys.argv[3]), int(sys.argv[4]) if len(sys.argv) > 4 else 0,
+                "envelope" in sys.argv[5:])
     elif cmd == "fit":
-        fit(sys.argv[2:])
+        fit([a for a in sys.argv[2:] if a != "envelope"], "envelope" in sys.argv[2:])
     elif cmd == "ablate":
         ablate(sys.argv[2:])
     elif cmd == "speed":
