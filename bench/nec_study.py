@@ -345,8 +345,11 @@ def inside_envelope(row) -> bool:
     """A data row inside the envelope the model claims (README, Limits; envelope_case): spacing at
     most lambda/40, slope at most 55 deg."""
     c = row["case"]
-    return (c["spacing"] <= ENVELOPE_SPACING_WAVELENGTHS * necref.C0 / c["f0"] * (1 + 1e-9)
-            and np.degrees(c["slope"]) <= ENVELOPE_SLOPE_DEG + 1e-9)
+    lam = necref.C0 / c["f0"]
+    steep = (np.degrees(c["slope"]) > ENVELOPE_STEEP_SLOPE_DEG + 1e-9
+             and c["spacing"] > ENVELOPE_STEEP_SPACING_WAVELENGTHS * lam)
+    return (c["spacing"] <= ENVELOPE_SPACING_WAVELENGTHS * lam * (1 + 1e-9)
+            and np.degrees(c["slope"]) <= ENVELOPE_SLOPE_DEG + 1e-9 and not steep)
 
 
 def fit(paths, envelope=False):
@@ -425,17 +428,27 @@ def at_match_error(cal, r):
 # confirmed on seeds 6000 and up, drawn inside it.
 ENVELOPE_SPACING_WAVELENGTHS = 1 / 40
 ENVELOPE_SLOPE_DEG = 55.0
+# and at most 40 deg where the stub is spaced over lambda/250: set from the acceptance runs on seeds
+# 7000-8079 (the seven such slopers of seeds 6000-8079 read NEC-2 SWR 1.22-1.69), to be confirmed
+# on seeds 9000 and up
+ENVELOPE_STEEP_SLOPE_DEG = 40.0
+ENVELOPE_STEEP_SPACING_WAVELENGTHS = 1 / 250
 
 
 def envelope_case(seed: int) -> acc.Case:
     """random_case(seed) brought inside the envelope: spacing clipped to lambda/40 (and the radiator
-    to a third of it), slope to 55 deg (the height raised so the far end still clears the ground)."""
+    to a third of it), slope to 55 deg, and to 40 deg on a stub spaced over lambda/250 (the height
+    raised so the far end still clears the ground). The 40 deg rule came after the runs of seeds
+    6000-8079 and the data of seeds 10000-10119 (nec-c2-envelope.json.gz), whose files keep the
+    designs they were drawn with."""
     from dataclasses import replace
     case = random_case(seed)
     lam = necref.C0 / case.f0
     spacing = min(case.spacing, ENVELOPE_SPACING_WAVELENGTHS * lam)
     spacing = max(spacing, 4.0 * case.stub_d)
     slope = min(case.slope, np.radians(ENVELOPE_SLOPE_DEG))
+    if spacing > ENVELOPE_STEEP_SPACING_WAVELENGTHS * lam:
+        slope = min(slope, np.radians(ENVELOPE_STEEP_SLOPE_DEG))
     height = case.height
     if case.orientation == "sloper":
         height = max(height, 0.5 * lam * np.sin(slope) + 0.05 * lam)
