@@ -1,6 +1,6 @@
 """The model's envelope (solver.envelope_warnings; README, Limits): where the antenna model is not
 proven against NEC-2 (bench/nec_study.py `accept`: stub spacing beyond lambda/40, slopers beyond
-55 deg, pipe/rod proportions NEC-2 cannot mesh), `solve` and the sheet say so with the design's
+55 deg or beyond 40 deg on a stub spaced over lambda/250, pipe/rod proportions NEC-2 cannot mesh), `solve` and the sheet say so with the design's
 numbers; nothing is refused for it, and a design inside the envelope carries no warning."""
 
 from __future__ import annotations
@@ -52,6 +52,20 @@ def test_steep_sloper_is_named():
     s = solve(design(f="28.4 MHz", orientation="sloper", height="8 m", slope="60 deg"))
     assert any("60°" in w and "55°" in w for w in s.warnings)
     assert not solve(design(f="28.4 MHz", orientation="sloper", height="8 m", slope="50 deg")).warnings
+
+
+def test_steep_wide_sloper_is_named():
+    """50.2 MHz, 30 mm spacing (0.0050 wavelength, over 1/250): 45 deg is named with its numbers,
+    40 deg is not (bench/data/accept-c1-{7000,8000}-envelope.json.gz: VHF-low slopers over 40 deg
+    read NEC-2 SWR up to 1.7)."""
+    steep = solve(design(f="50.2 MHz", wire="14 AWG", spacing="30 mm", orientation="sloper",
+                         height="6 m", slope="45 deg"))
+    (w,) = steep.warnings
+    assert "45°" in w and f"{0.030 / (299792458 / 50.2e6):.4f}" in w and "1/250" in w
+    assert not solve(design(f="50.2 MHz", wire="14 AWG", spacing="30 mm", orientation="sloper",
+                            height="6 m", slope="40 deg")).warnings
+    # the same slope on a narrow line (HF) stays inside: 14.175 MHz, 25 mm is 0.0012 wavelength
+    assert not solve(design(orientation="sloper", height="14 m", slope="45 deg")).warnings
 
 
 def test_warnings_reach_json_summary_and_sheet(tmp_path, capsys):
