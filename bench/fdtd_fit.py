@@ -13,16 +13,18 @@ test. Run with the venv's python.
                                                  dimensions (fdtd_ref.py plan + jpole), fitted and
                                                  held-out designs apart
 
-Why the model needs a rigid term (jpole.Calibration, short_bar_d, tap_bar_d, open_top_d): the
-thin-wire model measures the stub's sections between the centre lines of the short bar, the tap bar
-and the open top, and its bar constants were fitted on NEC-2, which puts every wire's current on its
-axis and joins wires at the axes' crossing. A real bar of diameter d closes the line at its face,
-d/2 from that centre line, and a fat bar carries its current in a wide sheet (lower inductance than
-a filament); the open end of a fat pair fringes over a larger area. Each effect is a length in
-proportion to the conductor's diameter d (not to the spacing D): negligible on wire lines (d = 1-2
-mm against D = 25-100 mm) and comparable to the tap distance on a pipe J-pole (d = 16-22 mm against a
-tap of 30-50 mm). NEC-2 cannot show it (DESIGN.md §7: for D/d near 3, NEC-2 on any mesh is too
-optimistic), the FDTD reference does.
+Why the model needs rigid terms (jpole.Calibration short_bar_d, tap_bar_d, c_j_d): the thin-wire
+model measures the stub's sections between the centre lines of the short bar, the tap bar and the
+open top, and its bar and junction constants were fitted on NEC-2, which puts every wire's current
+on its axis and joins wires at the axes' crossing. A real bar of diameter d closes the line at its
+face, d/2 from that centre line, and a fat bar carries its current in a wide sheet (lower
+inductance than a filament); at the open top the field spans the face-to-face gap D - d rather
+than D. Each effect is a length in proportion to the conductor's diameter d (not to the spacing D):
+a millimetre or two on wire lines (d = 1-2 mm against D = 25-100 mm) and comparable to the tap
+distance on a pipe J-pole (d = 16-29 mm against a tap of 20-70 mm). NEC-2 cannot show it
+(DESIGN.md §7: for D/d near 3, NEC-2 on any mesh is too optimistic); the FDTD reference does. A
+term at the open top (in place of the junction's) was tried and fitted to nothing once the
+junction's was there; see jpole.Calibration for what each did.
 
 Data: every FDTD sweep of fdtd-jpoles.json and fdtd-jpoles-c1.json (m = 2 cells across a
 conductor, as the mesh study of fdtd_ref.py chose), each at all its frequencies within 3 % of f0
