@@ -124,6 +124,10 @@ class Calibration:
     0.103), and every spacing term taken on the gap D - d with no fitted diameter term (FDTD
     held-out 0.200, thin 0.048/0.106); without the prior the same three terms gave FDTD held-out
     0.054 and thin 0.040/0.090, but moved the 6 m design's dip-per-short-move rate to -15 %.
+    Each term's worth (bench/fdtd_fit.py ablate, bench/data/fdtd-ablate-c3.txt: that term off,
+    the rest refitted): without short_bar_d FDTD held-out 0.243, without tap_bar_d 0.164, without
+    c_j_d 0.162 (all three: 0.055); the thin-wire held-out median is 0.042-0.045 without any one
+    of them (0.041 with all three).
     arm_dd: power of the stub's spacing-to-diameter ratio, (D/d / 15)^arm_dd, on both R_ant and z0_q,
     so on the whole impedance of the arm (15: a 400-ohm-class wire line, where the factor is 1).
     The Schelkunoff impedances carry D/d only through logarithms; NEC-2 shows a higher arm
