@@ -679,7 +679,7 @@ class _Validator:
         if d.radiator.diameter_m > lam / fraction:
             raise self.fail("radiator.wire", f"diameter {mm(d.radiator.diameter_m)} is more than "
                             f"1/{fraction:g} of a wavelength at {units.format_frequency(d.frequency_hz)}; "
-                            "a thin-wire model does not apply")
+                            "the model is not proven for a thicker conductor (README, Limits)")
 
 
 def _line(kind: str, name: str, spacing_m: float, conductor_m: float, material, dielectric: str,

@@ -59,6 +59,9 @@ NEC_SPACING_RATIO = 4.0
 #: eleven designs and the five held out of the fit
 FDTD_SPACING_RATIO = (2.5, 5.9)
 FDTD_RADIATOR_FRACTION = 0.40
+#: the widest of those stubs in wavelengths (2 m, 1-in pipe at 100 mm): pipe and rod J-poles in the
+#: proportions above are proven to this spacing, beyond NEC-2's lambda/40
+FDTD_SPACING_WAVELENGTHS = 0.049
 FDTD_DESIGNS = (11, 5)
 FDTD_FIRST_CUT_SWR = (1.02, 1.15)
 FDTD_FIRST_CUT_SWR_HELD_OUT = (1.04, 1.15)
@@ -552,15 +555,19 @@ def envelope_warnings(design: Design) -> tuple[str, ...]:
     out = []
     lam = design.wavelength_m
     s = design.stub
-    if s.spacing_m > ENVELOPE_SPACING_WAVELENGTHS * lam:
-        out.append(f"the stub's spacing, {s.spacing_m * 1e3:.0f} mm, is {s.spacing_m / lam:.3f} of a "
-                   f"wavelength, wider than the 1/40 the model is proven to against NEC-2: on such "
-                   "lines the stub can need to be 15-50 % longer than a quarter wave; cut the stub "
-                   "line long and expect more tuning, or use a narrower line")
     ratio = s.spacing_m / s.conductor_diameter_m
     fraction = design.radiator.diameter_m / s.spacing_m
     rigid_line = ratio < NEC_SPACING_RATIO
     rigid_radiator = fraction > 1 / 3
+    fdtd_proven = ((rigid_line or rigid_radiator) and ratio >= FDTD_SPACING_RATIO[0]
+                   and fraction <= FDTD_RADIATOR_FRACTION)
+    if s.spacing_m > (FDTD_SPACING_WAVELENGTHS if fdtd_proven else ENVELOPE_SPACING_WAVELENGTHS) * lam:
+        proven = (f"the {FDTD_SPACING_WAVELENGTHS:.3f} the model is proven to for pipe and rod against "
+                  "the FDTD reference" if fdtd_proven else "the 1/40 the model is proven to against NEC-2")
+        out.append(f"the stub's spacing, {s.spacing_m * 1e3:.0f} mm, is {s.spacing_m / lam:.3f} of a "
+                   f"wavelength, wider than {proven}: on such "
+                   "lines the stub can need to be 15-50 % longer than a quarter wave; cut the stub "
+                   "line long and expect more tuning, or use a narrower line")
     if rigid_line or rigid_radiator:
         what = (f"the stub's spacing is {ratio:.1f} × its conductor's diameter" if rigid_line else
                 f"the radiator is {fraction:.2f} × the stub's spacing thick")
@@ -571,7 +578,7 @@ def envelope_warnings(design: Design) -> tuple[str, ...]:
                      f"{FDTD_SPACING_RATIO[1]:g} diameters, the radiator of the stub's own tube, "
                      f"verticals in free space) reads SWR {lo:.2f}-{hi:.2f} at the design frequency "
                      f"({lo_h:.2f}-{hi_h:.2f} on the {n_held} held out of the model's fit)")
-        if ratio >= FDTD_SPACING_RATIO[0] and fraction <= FDTD_RADIATOR_FRACTION:
+        if fdtd_proven:
             out.append(f"{what}: conductors this fat and close cannot be checked by NEC-2; {reference}; "
                        "keep the cut list's cutting allowance on the pieces until the tuning is done")
         else:

@@ -66,6 +66,23 @@ def test_steep_sloper_is_named():
     assert not solve(design(f="28.4 MHz", orientation="sloper", height="8 m", slope="50 deg")).warnings
 
 
+def test_pipe_stub_proven_by_fdtd_is_not_called_wide():
+    """A 3/4-in pipe (22.2 mm) at 60 mm, 2 m: 0.029 wavelength, beyond NEC-2's lambda/40 but inside
+    the FDTD-proven pipe and rod designs (up to 0.049 wavelength, bench/data/fdtd-jpoles-c3.json):
+    only the pipe/rod note, not the wide-spacing one."""
+    s = solve(design(f="146 MHz", wire="22.2 mm", spacing="60 mm", conductor="22.2 mm",
+                     orientation="vertical", height="3 m"))
+    assert len(s.warnings) == 1 and "FDTD" in s.warnings[0] and "1/40" not in s.warnings[0]
+    wide = solve(design(f="146 MHz", wire="22.2 mm", spacing="80 mm", conductor="22.2 mm",
+                        orientation="vertical", height="3 m"))
+    assert not any("wider than" in w for w in wide.warnings)
+    # the widest FDTD design itself: 1-in pipe (28.6 mm) at 100 mm, 0.049 wavelength (the design
+    # file's own limit is 1/20 of a wavelength, so no pipe stub goes much beyond it)
+    widest = solve(design(f="146 MHz", wire="28.6 mm", spacing="100 mm", conductor="28.6 mm",
+                          orientation="vertical", height="3 m"))
+    assert not any("wider than" in w for w in widest.warnings)
+
+
 def test_steep_wide_sloper_is_named():
     """50.2 MHz, 30 mm spacing (0.0050 wavelength, over 1/250): 45 deg is named with its numbers,
     40 deg is not (bench/data/accept-c1-{7000,8000}-envelope.json.gz: VHF-low slopers over 40 deg

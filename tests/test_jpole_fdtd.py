@@ -114,6 +114,8 @@ def test_the_sheet_quotes_the_stored_fdtd_figures():
     assert solver.FDTD_DESIGNS == (len(VERIFY), len(held))
     assert solver.FDTD_SPACING_RATIO == (round(min(ratios), 1), round(max(ratios), 1))
     assert max(fractions) <= solver.FDTD_RADIATOR_FRACTION < max(fractions) + 0.01
+    widest = max(r["case"]["spacing"] * r["case"]["f0"] / 299_792_458.0 for r in VERIFY)
+    assert solver.FDTD_SPACING_WAVELENGTHS == round(widest, 3)
     for quoted, rows in ((solver.FDTD_FIRST_CUT_SWR, VERIFY), (solver.FDTD_FIRST_CUT_SWR_HELD_OUT, held)):
         swrs = [_swr_f0(r) for r in rows]
         assert quoted == (round(min(swrs), 2), round(max(swrs), 2))

@@ -133,8 +133,8 @@ def _wire_vs_wavelength(accepted):
     fraction = 1 / _number_in(accepted, r"1/(\d+) of a wavelength")
     d = fraction * _wavelength(433.5e6)
     make = lambda d: _design("tower-70cm", {"radiator.wire": f"{d * 1e3:.10g} mm"})  # noqa: E731
-    return [("wire just under 1/100 wavelength", make(d * (1 - 1e-6)), None),
-            ("wire above 1/100 wavelength", make(d * (1 + 1e-3)), "radiator.wire")]
+    return [("wire just under the fraction of a wavelength", make(d * (1 - 1e-6)), None),
+            ("wire above the fraction of a wavelength", make(d * (1 + 1e-3)), "radiator.wire")]
 
 
 def _spacing_vs_conductor(accepted):
@@ -246,7 +246,7 @@ BUILDERS = {
     ("`band`", "high edge"): _band_ratio,
     ("`band.0`, `band.1`", "1.62 MHz"): _band_edges,
     ("`radiator.wire`", "0.2 mm"): _simple("radiator.wire", "oak-yard-20m", lambda v: {"radiator.wire": v}),
-    ("`radiator.wire`", "at most 1/100"): _wire_vs_wavelength,
+    ("`radiator.wire`", "at most 1/60"): _wire_vs_wavelength,
     ("`radiator.insulation.velocity_factor`", "0.8 to 1"): _simple(
         "radiator.insulation.velocity_factor", "oak-yard-20m",
         lambda v: {"radiator.insulation": {"velocity_factor": v}}),
