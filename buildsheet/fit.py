@@ -10,7 +10,9 @@ Symbols (SI: Hz, m, ohm):
     w            weight of a point, (1 - |rho_meas|^2)^WEIGHT_POWER: 1 - |rho|^2 is the share of the
                  power the antenna accepts there
     L, S, T      radiator, stub (open top to the short) and tap (short to the tap), DESIGN.md §5
-    D0           (L0, S0, T0): the antenna the sweep was taken on: solve(design), built to the design
+    D0           (L0, S0, T0): the antenna the sweep was taken on: the latest as-built entry of the
+                 design's `record:` (its radiator/stub/tap; a length it does not give is taken as
+                 designed), or solve(design) when the design has no entry (as_built())
     E            (L_e, S_e, T_e): the antenna's electrical lengths, at which the model reproduces the sweep
     a, k, v      calibration: radiator_scale, end_resistance_scale, stub_velocity_scale
 
@@ -35,6 +37,12 @@ Method.
    exactly) and 1.22-1.29 (radiator 3 %, stub 5 %, tap 40 % long). The moves are target - E, made on
    the antenna as built, so the advised dimensions are D0 + target - E. swr_after is the fitted
    model's SWR at f0 after the moves as printed (rounded for the tape).
+   A design whose calibration names this sweep (calibration.source is the sweep's file name) was
+   already corrected by it: solve() gives the dimensions the earlier fit advised. Fitting the same
+   sweep again with that calibration would fold the correction in twice, so the advice is then the
+   sheet's dimensions themselves, moved to from the antenna as built, and no new calibration is
+   offered (`fit --write` followed by `fit` on the same sweep asks for nothing beyond the first
+   fit's moves; once the moves are recorded with `record`, for nothing at all).
 4. Calibration. (a, k, v) with which solve() gives the advised dimensions: a root (scipy.optimize.root,
    hybrid Powell) of solve()'s dimensions minus the advised ones; None, with the reason, when it lies
    outside what the design validator accepts (calibration_bounds), which is typical of a building
@@ -130,6 +138,10 @@ class Fit:
     best_hz: float
     best_swr: float
     swr_after: float
+    #: where D0 came from, for the text: "as-built entry of YYYY-MM-DD" or "the design's dimensions"
+    built_from: str = "the design's dimensions"
+    #: the design's calibration was fitted to this sweep (module docstring, step 3)
+    already_calibrated: bool = False
 
     def to_dict(self, written: dict | None = None) -> dict:
         """The JSON of `fit --json` (DESIGN.md §6): SI units; `written` describes a --write."""
@@ -152,6 +164,8 @@ class Fit:
             "fit_rms_ohm": self.fit_rms_ohm,
             "fit_rms_reflection": self.fit_rms_reflection,
             "built_m": {"radiator": self.built.radiator, "stub": self.built.stub, "tap": self.built.tap},
+            "built_from": self.built_from,
+            "already_calibrated": self.already_calibrated,
             "dimensions_m": dict(zip(names, self.advised)),
             "moves_m": dict(self.moves_m),
             "swr_before": self.swr_before,
@@ -291,14 +305,47 @@ def _fit_electrical(model: _Model, f, rho_meas, w, z_ref, D0: Dimensions, fit_ra
     return x, rms, [("stub", "tap", "radiator")[j] for j in at_bound]
 
 
+def as_built(design: Design) -> tuple[Dimensions, str]:
+    """(D0, where it came from): the antenna as the latest as-built entry of `record:` gives it (the
+    entry with the latest date, the last of equal dates), a length the entry does not give taken
+    from solve(design); solve(design)'s dimensions when there is no entry with a length."""
+    dims = solve(design).dimensions
+    entries = [e for e in design.record if (e.radiator_m, e.stub_m, e.tap_m) != (None, None, None)]
+    if not entries:
+        return dims, "the design's dimensions"
+    entry = max(enumerate(entries), key=lambda pair: (pair[1].date, pair[0]))[1]
+    given = [n for n, v in (("radiator", entry.radiator_m), ("stub", entry.stub_m), ("tap", entry.tap_m))
+             if v is not None]
+    D0 = dataclasses.replace(dims, **{n: getattr(entry, f"{n}_m") for n in given})
+    rest = [n for n in ("radiator", "stub", "tap") if n not in given]
+    note = f"; {' and '.join(rest)} as designed" if rest else ""
+    return D0, f"as-built entry of {entry.date}{note}"
+
+
+def calibrated_by(design: Design, sweep: Sweep) -> bool:
+    """Whether the design's calibration was fitted to this sweep: its source names the sweep's file."""
+    source = design.calibration.source
+    return bool(source) and source == os.path.basename(sweep.path)
+
+
 def fit_sweep(design: Design, sweep: Sweep, built: Dimensions | None = None) -> Fit:
-    """Fit the model to `sweep`, measured at the tap of the antenna `built` (default: built to the
-    design, solve(design).dimensions), and work out the moves and the calibration (module
-    docstring). SweepError if the sweep cannot be fitted."""
+    """Fit the model to `sweep`, measured at the tap of the antenna `built` (default: as_built(design),
+    the latest as-built entry or the design's dimensions), and work out the moves and the
+    calibration (module docstring). SweepError if the sweep cannot be fitted."""
     f0, z_ref = design.frequency_hz, design.feed.impedance_ohm
     f = sweep.frequency_hz
     check_coverage(sweep, z_ref)
-    D0 = built or solve(design).dimensions
+    already = calibrated_by(design, sweep)
+    if built is None:
+        D0, built_from = as_built(design)
+        if already and not any((e.radiator_m, e.stub_m, e.tap_m) != (None, None, None)
+                               for e in design.record):
+            # no entry: the sweep was taken on the antenna cut to the sheet before this sweep's
+            # calibration was written (a calibration before it is not kept in the file)
+            D0 = solve(design.with_changes(calibration=Calibration())).dimensions
+            built_from = "the design's dimensions before the calibration fitted to this sweep"
+    else:
+        D0, built_from = built, "given"
     model0 = _model(design, design.calibration)
     rho_meas = sweep.reflection(z_ref)
     w = np.clip(1.0 - np.abs(rho_meas) ** 2, 0.0, 1.0) ** WEIGHT_POWER
@@ -327,11 +374,17 @@ def fit_sweep(design: Design, sweep: Sweep, built: Dimensions | None = None) -> 
     except ValueError as exc:
         raise SweepError(f"gives an antenna the model cannot match at "
                          f"{units.format_frequency(f0)} ({exc})", file=sweep.path) from None
-    try:
-        calibration, note, advised = _calibrate(design, model0, E, D0, target, retune)
-    except ValueError as exc:
-        calibration, note = None, f"none found ({exc}); make the moves by hand"
-        advised = tuple(np.array([D0.radiator, D0.stub, D0.tap]) + np.array(target) - np.array(E))
+    if already:
+        sheet = solve(design).dimensions
+        calibration, advised = None, (sheet.radiator, sheet.stub, sheet.tap)
+        note = (f"already stored from this sweep ({design.calibration.date or 'undated'}): the sheet's "
+                "dimensions carry its correction; after the moves, sweep again and fit the new sweep")
+    else:
+        try:
+            calibration, note, advised = _calibrate(design, model0, E, D0, target, retune)
+        except ValueError as exc:
+            calibration, note = None, f"none found ({exc}); make the moves by hand"
+            advised = tuple(np.array([D0.radiator, D0.stub, D0.tap]) + np.array(target) - np.array(E))
     if not 0 < advised[2] < advised[1]:
         raise SweepError("calls for a tap outside the stub; check the sweep and the design",
                          file=sweep.path)
@@ -356,7 +409,7 @@ def fit_sweep(design: Design, sweep: Sweep, built: Dimensions | None = None) -> 
         fit_rms_ohm=float(np.sqrt(np.mean(np.abs(z_fit - sweep.z_ohm) ** 2))),
         fit_rms_reflection=float(np.sqrt(np.mean(np.abs(reflection(z_fit, z_ref) - rho_meas) ** 2))),
         swr_before=swr_before, best_hz=float(f[i_best]), best_swr=float(swr_of(abs(rho_meas[i_best]))),
-        swr_after=swr_after)
+        swr_after=swr_after, built_from=built_from, already_calibrated=already)
 
 
 #: most points the least squares of a fit use
@@ -461,12 +514,16 @@ def fit_text(fit: Fit, written: dict | None = None) -> str:
     before = "outside the sweep" if fit.swr_before is None else f"{fit.swr_before:.2f}"
     add(f"measured: best SWR {fit.best_swr:.2f} at {units.format_frequency(fit.best_hz)}; "
         f"SWR at {f0}: {before}")
+    add(f"the antenna measured: radiator {fmt(D0.radiator)}, stub {fmt(D0.stub)}, tap {fmt(D0.tap)} "
+        f"({fit.built_from}); the moves below are from these")
+    if fit.already_calibrated:
+        add(f"the design's calibration was fitted to this sweep ({d.calibration.date or 'undated'}): the "
+            "sheet's dimensions already carry its correction, so they are the target and nothing is "
+            "added to them")
     add(f"fit: rms {units.format_impedance(fit.fit_rms_ohm)} (reflection {fit.fit_rms_reflection:.3f}) "
         "over the sweep, weighted to the match")
     radiator = f"radiator {fmt(E[0])}, " if fit.radiator_fitted else ""
-    built = f"{fmt(D0.radiator)}, " if fit.radiator_fitted else ""
-    add(f"  the antenna behaves as the model with {radiator}stub {fmt(E[1])} and tap {fmt(E[2])} "
-        f"(built: {built}{fmt(D0.stub)} and {fmt(D0.tap)})")
+    add(f"  the antenna behaves as the model with {radiator}stub {fmt(E[1])} and tap {fmt(E[2])}")
     if not fit.radiator_retuned:
         add("  the radiator is left as it is: the sweep does not tell its length apart from the model's "
             "own error, so the short and the tap do the matching")
