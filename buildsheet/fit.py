@@ -71,7 +71,7 @@ from scipy.optimize import brentq, least_squares, root
 
 from buildsheet import units
 from buildsheet.editing import after_block, find_key, newline, put_block, scalar, top_level, update_design
-from buildsheet.design import DATE_FORMAT, Calibration, Design, parse_date
+from buildsheet.design import DATE_FORMAT, Calibration, Design, latest_as_built, parse_date
 from buildsheet.errors import DesignError, RecordError, SweepError, one_line
 from buildsheet.physics import jpole
 from buildsheet.physics.lines import reflection, swr_of
@@ -306,14 +306,13 @@ def _fit_electrical(model: _Model, f, rho_meas, w, z_ref, D0: Dimensions, fit_ra
 
 
 def as_built(design: Design) -> tuple[Dimensions, str]:
-    """(D0, where it came from): the antenna as the latest as-built entry of `record:` gives it (the
-    entry with the latest date, the last of equal dates), a length the entry does not give taken
-    from solve(design); solve(design)'s dimensions when there is no entry with a length."""
+    """(D0, where it came from): the antenna as the latest as-built entry of `record:` gives it
+    (design.latest_as_built), a length the entry does not give taken from solve(design);
+    solve(design)'s dimensions when there is no entry with a length."""
     dims = solve(design).dimensions
-    entries = [e for e in design.record if (e.radiator_m, e.stub_m, e.tap_m) != (None, None, None)]
-    if not entries:
+    entry = latest_as_built(design.record)
+    if entry is None:
         return dims, "the design's dimensions"
-    entry = max(enumerate(entries), key=lambda pair: (pair[1].date, pair[0]))[1]
     given = [n for n, v in (("radiator", entry.radiator_m), ("stub", entry.stub_m), ("tap", entry.tap_m))
              if v is not None]
     D0 = dataclasses.replace(dims, **{n: getattr(entry, f"{n}_m") for n in given})
@@ -338,8 +337,7 @@ def fit_sweep(design: Design, sweep: Sweep, built: Dimensions | None = None) -> 
     already = calibrated_by(design, sweep)
     if built is None:
         D0, built_from = as_built(design)
-        if already and not any((e.radiator_m, e.stub_m, e.tap_m) != (None, None, None)
-                               for e in design.record):
+        if already and latest_as_built(design.record) is None:
             # no entry: the sweep was taken on the antenna cut to the sheet before this sweep's
             # calibration was written (a calibration before it is not kept in the file)
             D0 = solve(design.with_changes(calibration=Calibration())).dimensions

@@ -33,7 +33,7 @@ from buildsheet import units
 from buildsheet.blocks import (Facts, Figures, Heading, KeyFigure, KeyFigures, Para, Section, Sheet,  # noqa: F401
                                Steps, Table, WriteIn)
 from buildsheet.catalog import national_bands
-from buildsheet.design import Design
+from buildsheet.design import Design, latest_as_built
 from buildsheet.layout import describe, site_layout
 from buildsheet.solver import RIGID_DIAMETER_M, Solution, velocity_factor_text
 from buildsheet.stock import conductor_size
@@ -696,7 +696,28 @@ class _Context:
             min_move=self.length(least),
             big_move=self.length(BIG_MOVE_FRACTION * dims.stub),
             sleeve=s.sleeve is not None,
+            **self.as_built_values(),
         )
+
+    def as_built_values(self) -> dict:
+        """The antenna as it stands, for the tuning procedure: the latest as-built entry
+        (design.latest_as_built), each length against the design's; has_as_built False without one."""
+        entry = latest_as_built(self.d.record)
+        if entry is None:
+            return dict(has_as_built=False)
+        dims = self.s.dimensions
+        parts = []
+        for name, got, want in (("radiator", entry.radiator_m, dims.radiator),
+                                ("stub", entry.stub_m, dims.stub), ("tap", entry.tap_m, dims.tap)):
+            if got is None:
+                parts.append(f"{name} not recorded (taken as designed, {self.length(want)})")
+                continue
+            diff = units.parse_quantity(self.length(got), "length") - units.parse_quantity(
+                self.length(want), "length")
+            rel = ("as designed" if diff == 0 else
+                   f"{self.length(abs(diff))} {'longer' if diff > 0 else 'shorter'} than designed")
+            parts.append(f"{name} {self.length(got)} ({rel})")
+        return dict(has_as_built=True, as_built_date=entry.date, as_built_parts="; ".join(parts))
 
     def tuning(self) -> tuple:
         return render_blocks("tuning.j2", **self.tuning_values())

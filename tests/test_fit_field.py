@@ -11,6 +11,7 @@ References:
 
 from __future__ import annotations
 
+import html
 import json
 import sys
 from pathlib import Path
@@ -114,3 +115,31 @@ def test_write_then_fit_on_the_same_sweep_advises_nothing_further(tmp_path, caps
     third = json.loads(capsys.readouterr().out)
     assert all(abs(m) < 1e-4 for m in third["moves_m"].values())
     assert main(["fit", str(path), str(sweep), "--write"]) == 2
+
+
+def test_sheet_tuning_starts_from_the_latest_as_built_entry():
+    """The sheet's tuning section names the antenna as it stands when the design has a record (the
+    same entry `fit` starts from), each length against the design's in the sheet's rounding."""
+    from buildsheet.design import design_from_text
+    from buildsheet.sheet import Para, build_sheet
+
+    root = Path(__file__).parent.parent
+    text = (root / "designs" / "oak-yard-20m.yaml").read_text()
+    plain_design = design_from_text(text, "oak.yaml")
+    d0 = dims(plain_design)
+    stub_in = round(d0[1] / 0.0254 * 8) / 8 + 6         # 6 in longer than the sheet's rounded stub
+    stub = units.format_length(stub_in * 0.0254, "imperial")
+    recorded = text + ("record:\n  - date: 2026-05-01\n    tap: 9 in\n"
+                       f"  - date: 2026-05-02\n    stub: {stub_in} in\n    tap: 12 in\n")
+    design = design_from_text(recorded, "oak.yaml")
+
+    def tuning_text(d):
+        sheet = build_sheet(d, solve(d), "2026-05-05")
+        return html.unescape(" ".join(b.text for b in sheet.section("tuning").blocks
+                                      if isinstance(b, Para)))
+
+    assert "As built" not in tuning_text(plain_design)
+    got = tuning_text(design).replace("\u00a0", " ")
+    assert "As built (the record's entry of 2026-05-02): radiator not recorded" in got
+    assert f"stub {stub} (6\" longer than designed); tap 1' 0\" (" in got
+    assert fitmod.as_built(design)[1] == "as-built entry of 2026-05-02; radiator as designed"
