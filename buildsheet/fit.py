@@ -27,6 +27,21 @@ Method.
    The reflection coefficient keeps high-impedance points from dominating as ohms would, and w keeps
    the far skirts, where the stub's off-resonance reactance rules, from outweighing the match. First
    with the radiator as built (L_e = L0), then with L_e free as well.
+   Gate. A sweep the model cannot reproduce is refused before any advice (explained()): the fit's
+   own weighted residual, normalized by the weights, sqrt(sum w |rho_fit - rho_meas|^2 / sum w)
+   (an rms |rho| error concentrated on the match, where w is near 1), must not exceed FIT_GATE.
+   FIT_GATE comes from the model's held-out error (physics/jpole.py docstring: the model's 50-ohm
+   reflection coefficient at the dimensions where NEC-2 matches is 0.041 median, 0.097 at the 90th
+   percentile, over held-out designs): taking that error as log-normal through those two
+   percentiles (sigma = ln(0.097/0.041)/1.2816 = 0.672), its 99.9th percentile is
+   0.041 exp(3.090 * 0.672) = 0.33. The fit moves three lengths, so its residual on a sweep of this
+   antenna is no larger than the model's error at fixed lengths; a residual above the 99.9th
+   percentile of that error is taken as a sweep of something else (another antenna, this antenna
+   through a network, a faulty connection). Measured while building the gate (tests/test_fit_field.py):
+   NEC-2 sweeps of mis-cut 20 m J-poles give 0.007-0.016, the demo sweep (NEC-2, real ground) 0.22;
+   a sharp loop resonance 0.48-0.55, an end-fed wire through a 1:49 transformer 0.86-0.88.
+   A sweep with |rho| above touchstone.MAX_REFLECTION anywhere is refused as from an uncalibrated
+   analyzer (the readers refuse such files already; this covers sweeps given to fit_sweep directly).
 3. Advice. Target: the model's own match at f0, (L_t, S_t, T_t). The radiator is retuned to
    resonance only if fitting L_e cut the rms residual to RADIATOR_EVIDENCE of the fit without it;
    otherwise it is left as it is (L_t = L_e) and the stub and tap are matched to it. At the feed the
@@ -41,7 +56,8 @@ Method.
    already corrected by it: solve() gives the dimensions the earlier fit advised. Fitting the same
    sweep again with that calibration would fold the correction in twice, so the advice is then the
    sheet's dimensions themselves, moved to from the antenna as built, and no new calibration is
-   offered (`fit --write` followed by `fit` on the same sweep asks for nothing beyond the first
+   offered; the sweep is fitted (and gated) with the model as it was before that calibration (none
+   is assumed: an earlier one is not kept in the file) (`fit --write` followed by `fit` on the same sweep asks for nothing beyond the first
    fit's moves; once the moves are recorded with `record`, for nothing at all).
 4. Calibration. (a, k, v) with which solve() gives the advised dimensions: a root (scipy.optimize.root,
    hybrid Powell) of solve()'s dimensions minus the advised ones; None, with the reason, when it lies
@@ -77,7 +93,7 @@ from buildsheet.physics import jpole
 from buildsheet.physics.lines import reflection, swr_of
 from buildsheet.schema import CALIBRATION_RANGE
 from buildsheet.solver import Dimensions, antenna_model, solve
-from buildsheet.touchstone import Sweep
+from buildsheet.touchstone import MAX_REFLECTION, Sweep
 
 #: fewest points a sweep may have: three lengths are fitted from it
 MIN_POINTS = 7
@@ -92,6 +108,12 @@ MAX_NFEV = 100
 #: the weight of a point is (1 - |rho_meas|^2) to this power. Against NEC-2 sweeps of mis-cut 20 m
 #: antennas (free space / perfect ground) 1 left SWR 1.31 / 1.25 after the moves, 2 left 1.29 / 1.22
 WEIGHT_POWER = 2
+#: largest normalized weighted rms |rho| residual of a fit that is taken as a sweep of this antenna:
+#: the 99.9th percentile of a log-normal through the model's held-out error, 0.041 median and 0.097
+#: 90th percentile (physics/jpole.py docstring; derivation in the module docstring, step 2)
+HELD_OUT_MEDIAN, HELD_OUT_P90 = 0.041, 0.097
+_Z90, _Z999 = 1.2816, 3.0902          # standard normal quantiles of 0.90 and 0.999
+FIT_GATE = HELD_OUT_MEDIAN * math.exp(_Z999 * math.log(HELD_OUT_P90 / HELD_OUT_MEDIAN) / _Z90)
 #: bounds of the electrical lengths, as fractions of the built ones (radiator, stub, tap)
 ELECTRICAL_BOUNDS = ((0.85, 1.15), (0.85, 1.15), (0.25, 4.0))
 #: the grid the fit starts from (stub fractions times tap fractions; the radiator's fit starts from
@@ -255,6 +277,12 @@ def check_coverage(sweep: Sweep, z_ref: float) -> int:
     with np.errstate(all="ignore"):
         mag = np.abs(sweep.reflection(z_ref))
     mag = np.where(np.isfinite(mag), mag, 1.0)     # an impedance too large for the division: an open
+    if np.max(mag) > MAX_REFLECTION:
+        j = int(np.argmax(mag))
+        raise SweepError(f"has |S11| up to {mag[j]:.3g} (at {units.format_frequency(f[j])}), more than 1: "
+                         "a passive antenna cannot reflect more than it receives; the analyzer is not "
+                         "calibrated (calibrate it with open, short and load at the end of its cable); "
+                         "nothing is fitted from it", file=sweep.path)
     i = int(np.argmin(mag))
     if not mag[i] < 1.0:
         raise SweepError(f"reflects all the power at every point (|S11| >= 1 on {z_ref:g} ohm even at "
@@ -344,7 +372,9 @@ def fit_sweep(design: Design, sweep: Sweep, built: Dimensions | None = None) -> 
             built_from = "the design's dimensions before the calibration fitted to this sweep"
     else:
         D0, built_from = built, "given"
-    model0 = _model(design, design.calibration)
+    # a sweep the calibration was fitted to is fitted again as it was then: without it (a calibration
+    # before it is not kept in the file, so none is assumed)
+    model0 = _model(design, Calibration() if already else design.calibration)
     rho_meas = sweep.reflection(z_ref)
     w = np.clip(1.0 - np.abs(rho_meas) ** 2, 0.0, 1.0) ** WEIGHT_POWER
 
@@ -367,6 +397,7 @@ def fit_sweep(design: Design, sweep: Sweep, built: Dimensions | None = None) -> 
     E = (D0.radiator * x[2], D0.stub * x[0], D0.tap * x[1])
     z_fit = model0.z_feed(f, *E)
 
+    explained(sweep, z_ref, rho_meas, reflection(z_fit, z_ref), w)
     try:
         target = model0.resolve(f0, z_ref) if retune else (E[0], *model0.match(f0, z_ref, E[0]))
     except ValueError as exc:
@@ -408,6 +439,59 @@ def fit_sweep(design: Design, sweep: Sweep, built: Dimensions | None = None) -> 
         fit_rms_reflection=float(np.sqrt(np.mean(np.abs(reflection(z_fit, z_ref) - rho_meas) ** 2))),
         swr_before=swr_before, best_hz=float(f[i_best]), best_swr=float(swr_of(abs(rho_meas[i_best]))),
         swr_after=swr_after, built_from=built_from, already_calibrated=already)
+
+
+def gate_residual(rho_meas: np.ndarray, rho_fit: np.ndarray, w: np.ndarray) -> float:
+    """The gate's statistic: sqrt(sum w |rho_fit - rho_meas|^2 / sum w) (module docstring, step 2)."""
+    total = float(np.sum(w))
+    if not total > 0:
+        return math.inf
+    return float(np.sqrt(np.sum(w * np.abs(rho_fit - rho_meas) ** 2) / total))
+
+
+def _dip_width(f: np.ndarray, mag: np.ndarray) -> float:
+    """Width (Hz) of the frequencies around the lowest |rho| where |rho| stays below the level
+    halfway between it and 1 (linear between points; to the sweep's end where it stays low)."""
+    i = int(np.argmin(mag))
+    level = 0.5 * (mag[i] + 1.0)
+    lo = i
+    while lo > 0 and mag[lo - 1] < level:
+        lo -= 1
+    hi = i
+    while hi < len(f) - 1 and mag[hi + 1] < level:
+        hi += 1
+    def cross(a, b):    # frequency between points a (below level) and b (at or above)
+        return f[a] + (f[b] - f[a]) * (level - mag[a]) / (mag[b] - mag[a])
+    left = cross(lo, lo - 1) if lo > 0 else f[0]
+    right = cross(hi, hi + 1) if hi < len(f) - 1 else f[-1]
+    return float(right - left)
+
+
+def explained(sweep: Sweep, z_ref: float, rho_meas, rho_fit, w) -> float:
+    """The gate statistic of a fit; SweepError, saying what the sweep looks like and what to check,
+    if it exceeds FIT_GATE (module docstring, step 2)."""
+    g = gate_residual(rho_meas, rho_fit, w)
+    if g <= FIT_GATE:
+        return g
+    f = sweep.frequency_hz
+    width_meas = _dip_width(f, np.abs(rho_meas))
+    width_fit = _dip_width(f, np.abs(rho_fit))
+    if width_meas < 0.5 * width_fit:
+        looks = (f"a much sharper resonance than this antenna's (its dip is {width_meas / width_fit:.2f} "
+                 "times as wide as the best fit's), as a small loop or a tuned circuit gives")
+    elif width_meas > 2.0 * width_fit:
+        looks = (f"a much broader match than this antenna's (its dip is {width_meas / width_fit:.1f} "
+                 "times as wide as the best fit's), as an antenna behind a transformer, a tuner or lossy "
+                 "coax gives")
+    else:
+        looks = ("a match of another shape: R and X around the dip do not follow a half-wave fed by a "
+                 "shorted stub (another kind of antenna, or this one through a network)")
+    raise SweepError(f"is not explained by this design's antenna: the best fit misses it by {g:.2f} "
+                     f"in |rho| near the match, where the model is within {FIT_GATE:.2f} of a J-pole "
+                     f"(the 99.9th percentile of its own held-out error); the sweep looks like {looks}. "
+                     "Check that it was taken at the tap of the antenna this design file describes, with "
+                     "nothing between (no transformer, tuner or long coax), and the analyzer calibrated at "
+                     "the end of its cable; no advice is given from it", file=sweep.path)
 
 
 #: most points the least squares of a fit use
