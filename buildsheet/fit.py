@@ -92,6 +92,7 @@ from buildsheet.errors import DesignError, RecordError, SweepError, one_line
 from buildsheet.physics import jpole
 from buildsheet.physics.lines import reflection, swr_of
 from buildsheet.schema import CALIBRATION_RANGE
+from buildsheet.sheet import MIN_MOVE_M, dip_tolerance_hz
 from buildsheet.solver import Dimensions, antenna_model, solve
 from buildsheet.touchstone import MAX_REFLECTION, Sweep
 
@@ -164,6 +165,12 @@ class Fit:
     built_from: str = "the design's dimensions"
     #: the design's calibration was fitted to this sweep (module docstring, step 3)
     already_calibrated: bool = False
+    #: the story: (part, rounded move m, the fitted model's SWR at f0 after it), in STEP_ORDER, parts
+    #: with no move left out
+    steps: tuple = ()
+    #: the sheet's dip tolerance (sheet.dip_tolerance_hz): the radiator is trimmed only for a dip
+    #: further than this from f0 once the match is made
+    dip_tolerance_hz: float = 0.0
 
     def to_dict(self, written: dict | None = None) -> dict:
         """The JSON of `fit --json` (DESIGN.md §6): SI units; `written` describes a --write."""
@@ -193,6 +200,7 @@ class Fit:
             "swr_before": self.swr_before,
             "best": {"frequency_hz": self.best_hz, "swr": self.best_swr},
             "swr_after": self.swr_after,
+            "steps": [{"part": p, "move_m": m, "swr_after": a} for p, m, a in self.steps],
             "points": {"frequency_hz": s.frequency_hz.tolist(), "r_ohm": s.z_ohm.real.tolist(),
                        "x_ohm": s.z_ohm.imag.tolist(), "r_fit_ohm": self.z_fit.real.tolist(),
                        "x_fit_ohm": self.z_fit.imag.tolist()},
@@ -421,10 +429,15 @@ def fit_sweep(design: Design, sweep: Sweep, built: Dimensions | None = None) -> 
     u = design.output.units
     moves = {"radiator": advised[0] - D0.radiator, "short": D0.stub - advised[1],
              "tap": (D0.stub - D0.tap) - (advised[1] - advised[2])}
-    rounded = {key: units.parse_quantity(units.format_length(m, u), "length") for key, m in moves.items()}
-    after = (E[0] + rounded["radiator"], E[1] - rounded["short"],
-             E[2] + rounded["tap"] - rounded["short"])
-    swr_after = float(swr_of(abs(reflection(model0.z_feed(f0, *after)[0], z_ref))))
+    rounded = {key: _tape_move(m, u) for key, m in moves.items()}
+    steps = []
+    done = {"radiator": 0.0, "short": 0.0, "tap": 0.0}
+    for part in STEP_ORDER:
+        if rounded[part] == 0:
+            continue
+        done[part] = rounded[part]
+        steps.append((part, rounded[part], _swr_after(model0, f0, z_ref, E, done)))
+    swr_after = steps[-1][2] if steps else _swr_after(model0, f0, z_ref, E, done)
     swr_before = None
     if f[0] <= f0 <= f[-1]:
         rho0 = np.interp(f0, f, rho_meas.real) + 1j * np.interp(f0, f, rho_meas.imag)
@@ -438,7 +451,26 @@ def fit_sweep(design: Design, sweep: Sweep, built: Dimensions | None = None) -> 
         fit_rms_ohm=float(np.sqrt(np.mean(np.abs(z_fit - sweep.z_ohm) ** 2))),
         fit_rms_reflection=float(np.sqrt(np.mean(np.abs(reflection(z_fit, z_ref) - rho_meas) ** 2))),
         swr_before=swr_before, best_hz=float(f[i_best]), best_swr=float(swr_of(abs(rho_meas[i_best]))),
-        swr_after=swr_after, built_from=built_from, already_calibrated=already)
+        swr_after=swr_after, built_from=built_from, already_calibrated=already, steps=tuple(steps),
+        dip_tolerance_hz=dip_tolerance_hz(solve(design)))
+
+
+#: the order of the moves (the sheet's tuning procedure: X with the short first, then R with the
+#: tap, the radiator only once the match is made)
+STEP_ORDER = ("short", "tap", "radiator")
+
+
+def _tape_move(m: float, u: str) -> float:
+    """A move as the tape makes it: rounded as the sheet prints lengths, and 0 below the smallest
+    move worth making (sheet.MIN_MOVE_M), so that no step prints a move that rounds to nothing."""
+    r = units.parse_quantity(units.format_length(abs(m), u), "length")
+    return math.copysign(r, m) if r >= MIN_MOVE_M[u] - 1e-12 else 0.0
+
+
+def _swr_after(model0: _Model, f0: float, z_ref: float, E, done: dict) -> float:
+    """The fitted model's SWR at f0 after the moves `done` (DESIGN.md §5 signs) on the antenna E."""
+    after = (E[0] + done["radiator"], E[1] - done["short"], E[2] + done["tap"] - done["short"])
+    return float(swr_of(abs(reflection(model0.z_feed(f0, *after)[0], z_ref))))
 
 
 def gate_residual(rho_meas: np.ndarray, rho_fit: np.ndarray, w: np.ndarray) -> float:
@@ -607,33 +639,52 @@ def fit_text(fit: Fit, written: dict | None = None) -> str:
     radiator = f"radiator {fmt(E[0])}, " if fit.radiator_fitted else ""
     add(f"  the antenna behaves as the model with {radiator}stub {fmt(E[1])} and tap {fmt(E[2])}")
     if not fit.radiator_retuned:
-        add("  the radiator is left as it is: the sweep does not tell its length apart from the model's "
-            "own error, so the short and the tap do the matching")
+        follow = ("; it moves only as far as the stub's correction moves its resonance (step below)"
+                  if mv["radiator"] != 0 else "")
+        add("  the radiator is not retuned: the sweep does not tell its length apart from the model's "
+            f"own error, so the short and the tap do the matching{follow}")
+    off = fit.best_hz - d.frequency_hz
+    if not fit.radiator_retuned and abs(off) > fit.dip_tolerance_hz:
+        add(f"  the measured dip is {units.format_frequency(abs(off))} {'below' if off < 0 else 'above'} "
+            f"{f0}: the sheet's rule (tuning procedure) is to make the match with the short and the tap "
+            f"first and to move the radiator only if the dip then stays more than "
+            f"{units.format_frequency(fit.dip_tolerance_hz)} away; after the moves below the fitted model's "
+            f"match is at {f0}, so the radiator is not moved for the dip")
     add("")
-    add(f"To match at {f0} ({units.length_rounding(u)}):")
-    r = mv["radiator"]
-    if r == 0:
-        add(f"  1. Radiator: no change ({fmt(D0.radiator)}).")
+    before_swr = "" if fit.swr_before is None else f" (SWR there now {fit.swr_before:.2f})"
+    if not fit.steps:
+        add(f"At {f0}{before_swr}: nothing to move ({units.length_rounding(u)}, smallest move "
+            f"{fmt(MIN_MOVE_M[u])}). Predicted SWR at {f0}: {fit.swr_after:.2f}.")
     else:
-        why = "" if fit.radiator_retuned else (" (a small change that follows the stub's correction: "
-                                               "the radiator works against the stub's common mode)")
-        add(f"  1. Radiator: {'add' if r > 0 else 'trim'} {fmt(abs(r))} "
-            f"({fmt(D0.radiator)} -> {fmt(adv[0])}){why}.")
-    sh = mv["short"]
-    if sh == 0:
-        add(f"  2. Short: no change (stub {fmt(D0.stub)}).")
-    else:
-        passes = " Take the tap off first: the short passes its place." if sh >= D0.tap else ""
-        add(f"  2. Short: move it {fmt(abs(sh))} {'toward' if sh > 0 else 'away from'} the top "
-            f"(stub {fmt(D0.stub)} -> {fmt(adv[1])}).{passes}")
-    tp = mv["tap"]
-    where = f"it then sits {fmt(adv[2])} above the short (it was {fmt(D0.tap)})"
-    if tp == 0:
-        add(f"  3. Tap: leave the clamp where it is; {where}.")
-    else:
-        add(f"  3. Tap: move it {fmt(abs(tp))} {'up, toward' if tp > 0 else 'down, away from'} the top; "
-            f"{where}.")
-    add(f"Predicted SWR at {f0} after these moves: {fit.swr_after:.2f}. Sweep again to check.")
+        add(f"To match at {f0}{before_swr}, in this order ({units.length_rounding(u)}):")
+    # the tape's positions: each from the printed length, so that "from -> to" is the printed move
+    tape = lambda m: units.parse_quantity(fmt(m), "length")  # noqa: E731
+    stub_now, tap_now = tape(D0.stub), tape(D0.tap)
+    for n, (part, m, swr_step) in enumerate(fit.steps, 1):
+        then = f"; SWR at {f0} then about {swr_step:.2f}"
+        if part == "short":
+            passes = " Take the tap off first: the short passes its place." if m >= D0.tap else ""
+            new_stub = stub_now - m
+            add(f"  {n}. Short: move it {fmt(abs(m))} {'toward' if m > 0 else 'away from'} the top "
+                f"(stub {fmt(stub_now)} -> {fmt(new_stub)}; the tap clamp stays where it is){then}."
+                f"{passes}")
+            tap_now, stub_now = tap_now - m, new_stub
+        elif part == "tap":
+            was = "after the short's move" if mv["short"] != 0 else "now"
+            add(f"  {n}. Tap: move the clamp {fmt(abs(m))} {'up, toward' if m > 0 else 'down, away from'} "
+                f"the top; it then sits {fmt(tap_now + m)} above the short ({fmt(tap_now)} {was}){then}.")
+            tap_now += m
+        else:
+            why = "" if fit.radiator_retuned else (", a small change that follows the stub's correction "
+                                                   "(the radiator works against the stub's common mode)")
+            add(f"  {n}. Radiator: {'add' if m > 0 else 'trim'} {fmt(abs(m))} "
+                f"({fmt(tape(D0.radiator))} -> {fmt(tape(D0.radiator) + m)}){why}{then}.")
+    left = [p for p in STEP_ORDER if mv[p] == 0]
+    if fit.steps and left:
+        names = {"short": "the short", "tap": "the tap", "radiator": "the radiator"}
+        add(f"  Leave {' and '.join(names[p] for p in left)} as {'it is' if len(left) == 1 else 'they are'}.")
+    if fit.steps:
+        add(f"Predicted SWR at {f0} after these moves: {fit.swr_after:.2f}. Sweep again to check.")
     add("")
     cal = fit.calibration
     if written:

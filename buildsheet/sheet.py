@@ -75,6 +75,14 @@ CATEGORY_NAMES = {"us-fcc": ("occupational/controlled", "general population/unco
 # ----------------------------------------------------------------------------------------------
 # Templates
 
+def dip_tolerance_hz(s: Solution) -> float:
+    """How far the dip may stay from the design frequency once the match is made before the
+    radiator is trimmed (the tuning procedure's rule, also `fit`'s): a tenth of the predicted 2:1 SWR
+    bandwidth, or 0.2 % of the frequency when there is none; rounded to 1-2-5."""
+    swr2 = s.band_swr2_hz
+    return _nice(0.1 * (swr2[1] - swr2[0])) if swr2 else _nice(0.002 * s.frequency_hz)
+
+
 def _template_text(name: str) -> str:
     """A template's source: from the installed package's templates, else the checkout's templates/."""
     packaged = importlib.resources.files("buildsheet") / "templates" / name
@@ -657,8 +665,7 @@ class _Context:
         lo, hi = max(i0 - 1, 0), min(i0 + 1, len(sw.frequency_hz) - 1)
         x_slope = (sw.x_ohm[hi] - sw.x_ohm[lo]) / (sw.frequency_hz[hi] - sw.frequency_hz[lo])
         best = int(np.argmin(sw.swr))
-        swr2 = s.band_swr2_hz
-        tolerance = _nice(0.1 * (swr2[1] - swr2[0])) if swr2 else _nice(0.002 * f0)
+        tolerance = dip_tolerance_hz(s)
         rigid = s.parts.rigid_radiator
         fc = s.first_cut
         return dict(
@@ -679,7 +686,7 @@ class _Context:
             wrap=self.length(s.wrap_allowance_m), rigid=rigid,
             f0=self.f0, best_swr=_swr(float(sw.swr[best])),
             best_f=_freq(float(sw.frequency_hz[best])),
-            swr2_band=_band(swr2), z_feed=_ohm(z0),
+            swr2_band=_band(s.band_swr2_hz), z_feed=_ohm(z0),
             x_slope="rises" if x_slope > 0 else "falls",
             x_if_grows="positive" if x_slope > 0 else "negative",
             x_if_shrinks="negative" if x_slope > 0 else "positive",

@@ -289,3 +289,113 @@ def test_uncalibrated_sweep_is_refused_and_nothing_written(tmp_path, capsys):
     z = 50 * (1 + rho) / (1 - rho)
     with pytest.raises(SweepError, match="not calibrated"):
         fitmod.fit_sweep(design, as_sweep(f, z, "bad.s1p"))
+
+
+# ----------------------------------------------------------------------------------------------
+# 3. One story per fit, by the sheet's rule
+
+def story(design, built, f=None):
+    f = design.frequency_hz * np.linspace(0.93, 1.07, 31) if f is None else f
+    return fitmod.fit_sweep(design, as_sweep(f, model_z(design, built, f), "m.s1p"),
+                            built=_dims(design, built))
+
+
+def _dims(design, v):
+    from buildsheet.solver import Dimensions
+    return Dimensions(*v, design.stub.spacing_m)
+
+
+def sheet_rows(design) -> dict:
+    """The sheet's tuning table for the design, as printed: {what you measure: what to do}."""
+    import re
+
+    from buildsheet.sheet import Table, build_sheet
+    sheet = build_sheet(design, solve(design), "2026-01-01")
+    table = next(b for b in sheet.section("tuning").blocks
+                 if isinstance(b, Table) and b.header == ("you measure", "do this"))
+    clean = lambda t: html.unescape(re.sub(r"<[^>]+>", "", t)).replace("\u00a0", " ")  # noqa: E731
+    return {clean(a): clean(b) for a, b in table.rows}
+
+
+def row_move(text: str, part: str) -> float:
+    """The signed move (m, + toward the top / + longer) a table cell gives for `part`."""
+    import re
+    if part == "radiator":
+        m = re.search(r"(shorten|lengthen) the radiator by ([^,]+)", text)
+        return (1 if m.group(1) == "lengthen" else -1) * units.parse_quantity(m.group(2), "length")
+    m = re.search(rf"move the {part} (up|down) by ([^,]+)", text)
+    return (1 if m.group(1) == "up" else -1) * units.parse_quantity(m.group(2), "length")
+
+
+def step_of(result, part):
+    got = [s for s in result.steps if s[0] == part]
+    return got[0] if got else None
+
+
+def test_story_follows_the_sheets_table_on_the_same_case():
+    """The antenna is built off by exactly what a row of the sheet's table corrects (the row's move,
+    undone); the fit's story must move the same part the same way by about as much (the table is the
+    model's slope, the fit the model's finite move: within 25 %), in the sheet's order (short, then
+    tap, then radiator)."""
+    design = free_design()
+    d0 = dims(design)
+    rows = sheet_rows(design)
+    f0 = "14.175 MHz"
+    x_row = next(v for k, v in rows.items() if k.startswith("X = +"))
+    r_row = next(v for k, v in rows.items() if k.startswith("R ") and "above" in k)
+    dip_row = next(v for k, v in rows.items() if k.startswith("lowest SWR") and "below" in k)
+    assert f0 in next(iter(rows))
+
+    # X too high: the short is off by the opposite of the row's move (its clamp left: tap distance too)
+    short = row_move(x_row, "short")
+    built = d0 + np.array([0.0, short, short])
+    result = story(design, built)
+    part, move, _ = result.steps[0]
+    assert part == "short" and np.sign(move) == np.sign(short)
+    assert abs(move) == pytest.approx(abs(short), rel=0.25)
+
+    # R too high: the tap clamp is off by the opposite of the row's move
+    tap = row_move(r_row, "tap")
+    result = story(design, d0 + np.array([0.0, 0.0, -tap]))
+    step = step_of(result, "tap")
+    assert step is not None and np.sign(step[1]) == np.sign(tap)
+    assert abs(step[1]) == pytest.approx(abs(tap), rel=0.25)
+    assert [s[0] for s in result.steps] == [p for p in fitmod.STEP_ORDER if step_of(result, p)]
+
+    # the dip low: the radiator is longer than designed by what the row trims
+    trim = row_move(dip_row, "radiator")
+    assert trim < 0
+    result = story(design, d0 + np.array([-trim, 0.0, 0.0]))
+    step = step_of(result, "radiator")
+    assert result.radiator_retuned and step is not None and step[1] < 0
+    assert abs(step[1]) == pytest.approx(abs(trim), rel=0.25)
+    assert result.steps[-1][0] == "radiator"
+
+
+@pytest.mark.parametrize("off", [(1.0, 1.0, 1.0), (1.0002, 1.0001, 1.0), (1.0, 1.03, 1.2),
+                                 (1.03, 1.0, 1.0), (1.0, 0.97, 0.8), (1.01, 1.02, 1.4)])
+@pytest.mark.parametrize("unit", ["metric", "imperial"])
+def test_no_step_rounds_to_nothing_and_swr_is_given_after_each(off, unit):
+    design = free_design().with_changes(output=dataclasses_replace_units(unit))
+    d0 = dims(design)
+    result = story(design, d0 * np.array(off))
+    text = fitmod.fit_text(result)
+    least = fitmod.MIN_MOVE_M[unit]
+    for part, move, swr_step in result.steps:
+        assert abs(move) >= least - 1e-12 and np.isfinite(swr_step)
+    import re
+    # every printed "a -> b" changes something
+    for a, b in re.findall(r"\((?:stub )?([^()]*?) -> ([^;()]*?)[;)]", text):
+        assert a.strip() != b.strip(), text
+    assert text.count("SWR at 14.175 MHz then about") == len(result.steps)
+    if not result.steps:
+        assert "nothing to move" in text
+    else:
+        # the last step's SWR is the prediction, and it is a match (model round trip)
+        assert result.steps[-1][2] == result.swr_after < 1.1
+    assert "left as it is" not in text
+
+
+def dataclasses_replace_units(unit):
+    import dataclasses
+    return dataclasses.replace(free_design().output, units=unit)
