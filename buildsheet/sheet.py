@@ -83,6 +83,22 @@ def dip_tolerance_hz(s: Solution) -> float:
     return _nice(0.1 * (swr2[1] - swr2[0])) if swr2 else _nice(0.002 * s.frequency_hz)
 
 
+def dip_rule(s: Solution, u: str) -> tuple[float, bool]:
+    """(df, short_moves_dip): the dip error (Hz) the tuning table's dip rows are written for, and
+    whether the short is offered as a dip control beside the radiator: one dip error for both moves,
+    each within its part's linear range; where the short cannot move the dip far without spoiling
+    the match (it also shortens the tap distance), the radiator alone. Used by the sheet and by
+    `fit`'s SWR-only advice."""
+    sens, dims, f0 = s.sensitivity, s.dimensions, s.frequency_hz
+    least = MIN_MOVE_M[u]
+    df = _error_step(_nice(FREQUENCY_STEP * f0), sens["dip_hz_per_m_radiator"],
+                     LINEAR_FRACTION * dims.radiator, least)
+    df_short = _error_step(_nice(FREQUENCY_STEP * f0), sens["dip_hz_per_m_short"],
+                           SHORT_DIP_LINEAR_FRACTION * dims.tap, least)
+    short_moves_dip = df_short >= SHORT_DIP_FRACTION * df
+    return (min(df, df_short) if short_moves_dip else df), short_moves_dip
+
+
 def _template_text(name: str) -> str:
     """A template's source: from the installed package's templates, else the checkout's templates/."""
     packaged = importlib.resources.files("buildsheet") / "templates" / name
@@ -647,12 +663,7 @@ class _Context:
         # one dip error for both moves that correct it, each move within its part's linear range;
         # where the short cannot move the dip far without spoiling the match (it also shortens the tap
         # distance), the radiator alone
-        df = _error_step(_nice(FREQUENCY_STEP * f0), sens["dip_hz_per_m_radiator"],
-                         LINEAR_FRACTION * dims.radiator, least)
-        df_short = _error_step(_nice(FREQUENCY_STEP * f0), sens["dip_hz_per_m_short"],
-                               SHORT_DIP_LINEAR_FRACTION * dims.tap, least)
-        short_moves_dip = df_short >= SHORT_DIP_FRACTION * df
-        df = min(df, df_short) if short_moves_dip else df
+        df, short_moves_dip = dip_rule(s, self.u)
         dr = _error_step(IMPEDANCE_STEP_OHM, sens["ohm_per_m_tap"], LINEAR_FRACTION * dims.tap, least)
         dx = _error_step(IMPEDANCE_STEP_OHM, sens["ohm_per_m_short"], LINEAR_FRACTION * dims.tap, least)
         # the dip df below f0 asks for +df of dip; R dr high for -dr; X +dx for -dx
