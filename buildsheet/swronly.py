@@ -133,7 +133,7 @@ def advice_text(adv: SwrAdvice) -> str:
             f"{len(adv.frequency_hz)} SWR readings, {units.format_frequency(adv.frequency_hz[0])} to "
             f"{units.format_frequency(adv.frequency_hz[-1])} (no phase)",
             f"dip: SWR about {adv.dip_swr:.2f} at about {units.format_frequency(adv.dip_hz)} "
-            f"(a parabola through the readings nearest the lowest)", ""]
+            f"(a parabola through the lowest reading and its neighbours)", ""]
     n = 0
     if adv.dip_part is not None and abs(adv.dip_move_m) >= MIN_MOVE_M[u]:
         n += 1
