@@ -77,7 +77,11 @@ def _parser() -> argparse.ArgumentParser:
     p = sub.add_parser("fit", help="fit the model to a sweep measured at the tap; how to move the short "
                        "and the tap")
     p.add_argument("design", metavar="DESIGN")
-    p.add_argument("sweep", metavar="SWEEP", help="Touchstone 1-port (.s1p) or CSV of frequency, R, X")
+    p.add_argument("sweep", metavar="SWEEP", nargs="?",
+                   help="Touchstone 1-port (.s1p) or CSV of frequency, R, X")
+    p.add_argument("--swr", metavar="F=SWR", action="append",
+                   help="an SWR reading without phase, such as '14.1 MHz=1.8' or '14.1 MHz=RL 10 dB' "
+                   "(return loss); give three or more instead of SWEEP for the dip and advice")
     p.add_argument("--json", action="store_true", help="print the fit and the advice as one JSON object (SI)")
     p.add_argument("--write", action="store_true",
                    help="store the fitted calibration in the design file (backup kept as DESIGN.bak)")
@@ -208,6 +212,16 @@ def _fit(args) -> int:
     from buildsheet.touchstone import read_sweep
 
     design = _load(args)
+    if (args.sweep is None) == (not args.swr):
+        raise BuildsheetError("give either a SWEEP file or SWR readings (--swr), not both or neither",
+                              key="fit")
+    if args.swr:
+        from buildsheet.swronly import advice_text, advise, parse_reading
+        if args.write or args.json:
+            raise BuildsheetError("SWR readings give advice only: --write and --json need a sweep with "
+                                  "phase (R and X)", key="--swr")
+        print(advice_text(advise(design, [parse_reading(r) for r in args.swr])), end="")
+        return 0
     fit = fit_sweep(design, read_sweep(args.sweep))
     written = write_calibration(args.design, fit, args.date) if args.write else None
     if args.json:

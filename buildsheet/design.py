@@ -155,6 +155,14 @@ class RecordEntry:
     note: str | None = None
 
 
+def latest_as_built(record: tuple) -> RecordEntry | None:
+    """The as-built entry that describes the antenna as it stands: of the entries giving a radiator,
+    stub or tap length, the one with the latest date (the last written of equal dates); None if none."""
+    entries = [(e.date, i, e) for i, e in enumerate(record)
+               if (e.radiator_m, e.stub_m, e.tap_m) != (None, None, None)]
+    return max(entries, key=lambda t: t[:2])[2] if entries else None
+
+
 @dataclass(frozen=True)
 class Design:
     schema: int

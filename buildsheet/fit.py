@@ -10,7 +10,9 @@ Symbols (SI: Hz, m, ohm):
     w            weight of a point, (1 - |rho_meas|^2)^WEIGHT_POWER: 1 - |rho|^2 is the share of the
                  power the antenna accepts there
     L, S, T      radiator, stub (open top to the short) and tap (short to the tap), DESIGN.md §5
-    D0           (L0, S0, T0): the antenna the sweep was taken on: solve(design), built to the design
+    D0           (L0, S0, T0): the antenna the sweep was taken on: the latest as-built entry of the
+                 design's `record:` (its radiator/stub/tap; a length it does not give is taken as
+                 designed), or solve(design) when the design has no entry (as_built())
     E            (L_e, S_e, T_e): the antenna's electrical lengths, at which the model reproduces the sweep
     a, k, v      calibration: radiator_scale, end_resistance_scale, stub_velocity_scale
 
@@ -25,6 +27,21 @@ Method.
    The reflection coefficient keeps high-impedance points from dominating as ohms would, and w keeps
    the far skirts, where the stub's off-resonance reactance rules, from outweighing the match. First
    with the radiator as built (L_e = L0), then with L_e free as well.
+   Gate. A sweep the model cannot reproduce is refused before any advice (explained()): the fit's
+   own weighted residual, normalized by the weights, sqrt(sum w |rho_fit - rho_meas|^2 / sum w)
+   (an rms |rho| error concentrated on the match, where w is near 1), must not exceed FIT_GATE.
+   FIT_GATE comes from the model's held-out error (physics/jpole.py docstring: the model's 50-ohm
+   reflection coefficient at the dimensions where NEC-2 matches is 0.041 median, 0.097 at the 90th
+   percentile, over held-out designs): taking that error as log-normal through those two
+   percentiles (sigma = ln(0.097/0.041)/1.2816 = 0.672), its 99.9th percentile is
+   0.041 exp(3.090 * 0.672) = 0.33. The fit moves three lengths, so its residual on a sweep of this
+   antenna is no larger than the model's error at fixed lengths; a residual above the 99.9th
+   percentile of that error is taken as a sweep of something else (another antenna, this antenna
+   through a network, a faulty connection). Measured while building the gate (tests/test_fit_field.py):
+   NEC-2 sweeps of mis-cut 20 m J-poles give 0.007-0.016, the demo sweep (NEC-2, real ground) 0.22;
+   a sharp loop resonance 0.48-0.55, an end-fed wire through a 1:49 transformer 0.86-0.88.
+   A sweep with |rho| above touchstone.MAX_REFLECTION anywhere is refused as from an uncalibrated
+   analyzer (the readers refuse such files already; this covers sweeps given to fit_sweep directly).
 3. Advice. Target: the model's own match at f0, (L_t, S_t, T_t). The radiator is retuned to
    resonance only if fitting L_e cut the rms residual to RADIATOR_EVIDENCE of the fit without it;
    otherwise it is left as it is (L_t = L_e) and the stub and tap are matched to it. At the feed the
@@ -35,6 +52,13 @@ Method.
    exactly) and 1.22-1.29 (radiator 3 %, stub 5 %, tap 40 % long). The moves are target - E, made on
    the antenna as built, so the advised dimensions are D0 + target - E. swr_after is the fitted
    model's SWR at f0 after the moves as printed (rounded for the tape).
+   A design whose calibration names this sweep (calibration.source is the sweep's file name) was
+   already corrected by it: solve() gives the dimensions the earlier fit advised. Fitting the same
+   sweep again with that calibration would fold the correction in twice, so the advice is then the
+   sheet's dimensions themselves, moved to from the antenna as built, and no new calibration is
+   offered; the sweep is fitted (and gated) with the model as it was before that calibration (none
+   is assumed: an earlier one is not kept in the file) (`fit --write` followed by `fit` on the same sweep asks for nothing beyond the first
+   fit's moves; once the moves are recorded with `record`, for nothing at all).
 4. Calibration. (a, k, v) with which solve() gives the advised dimensions: a root (scipy.optimize.root,
    hybrid Powell) of solve()'s dimensions minus the advised ones; None, with the reason, when it lies
    outside what the design validator accepts (calibration_bounds), which is typical of a building
@@ -63,13 +87,14 @@ from scipy.optimize import brentq, least_squares, root
 
 from buildsheet import units
 from buildsheet.editing import after_block, find_key, newline, put_block, scalar, top_level, update_design
-from buildsheet.design import DATE_FORMAT, Calibration, Design, parse_date
+from buildsheet.design import DATE_FORMAT, Calibration, Design, latest_as_built, parse_date
 from buildsheet.errors import DesignError, RecordError, SweepError, one_line
 from buildsheet.physics import jpole
 from buildsheet.physics.lines import reflection, swr_of
 from buildsheet.schema import CALIBRATION_RANGE
+from buildsheet.sheet import MIN_MOVE_M, dip_tolerance_hz
 from buildsheet.solver import Dimensions, antenna_model, solve
-from buildsheet.touchstone import Sweep
+from buildsheet.touchstone import MAX_REFLECTION, Sweep
 
 #: fewest points a sweep may have: three lengths are fitted from it
 MIN_POINTS = 7
@@ -84,6 +109,12 @@ MAX_NFEV = 100
 #: the weight of a point is (1 - |rho_meas|^2) to this power. Against NEC-2 sweeps of mis-cut 20 m
 #: antennas (free space / perfect ground) 1 left SWR 1.31 / 1.25 after the moves, 2 left 1.29 / 1.22
 WEIGHT_POWER = 2
+#: largest normalized weighted rms |rho| residual of a fit that is taken as a sweep of this antenna:
+#: the 99.9th percentile of a log-normal through the model's held-out error, 0.041 median and 0.097
+#: 90th percentile (physics/jpole.py docstring; derivation in the module docstring, step 2)
+HELD_OUT_MEDIAN, HELD_OUT_P90 = 0.041, 0.097
+_Z90, _Z999 = 1.2816, 3.0902          # standard normal quantiles of 0.90 and 0.999
+FIT_GATE = HELD_OUT_MEDIAN * math.exp(_Z999 * math.log(HELD_OUT_P90 / HELD_OUT_MEDIAN) / _Z90)
 #: bounds of the electrical lengths, as fractions of the built ones (radiator, stub, tap)
 ELECTRICAL_BOUNDS = ((0.85, 1.15), (0.85, 1.15), (0.25, 4.0))
 #: the grid the fit starts from (stub fractions times tap fractions; the radiator's fit starts from
@@ -130,6 +161,16 @@ class Fit:
     best_hz: float
     best_swr: float
     swr_after: float
+    #: where D0 came from, for the text: "as-built entry of YYYY-MM-DD" or "the design's dimensions"
+    built_from: str = "the design's dimensions"
+    #: the design's calibration was fitted to this sweep (module docstring, step 3)
+    already_calibrated: bool = False
+    #: the story: (part, rounded move m, the fitted model's SWR at f0 after it), in STEP_ORDER, parts
+    #: with no move left out
+    steps: tuple = ()
+    #: the sheet's dip tolerance (sheet.dip_tolerance_hz): the radiator is trimmed only for a dip
+    #: further than this from f0 once the match is made
+    dip_tolerance_hz: float = 0.0
 
     def to_dict(self, written: dict | None = None) -> dict:
         """The JSON of `fit --json` (DESIGN.md §6): SI units; `written` describes a --write."""
@@ -152,11 +193,14 @@ class Fit:
             "fit_rms_ohm": self.fit_rms_ohm,
             "fit_rms_reflection": self.fit_rms_reflection,
             "built_m": {"radiator": self.built.radiator, "stub": self.built.stub, "tap": self.built.tap},
+            "built_from": self.built_from,
+            "already_calibrated": self.already_calibrated,
             "dimensions_m": dict(zip(names, self.advised)),
             "moves_m": dict(self.moves_m),
             "swr_before": self.swr_before,
             "best": {"frequency_hz": self.best_hz, "swr": self.best_swr},
             "swr_after": self.swr_after,
+            "steps": [{"part": p, "move_m": m, "swr_after": a} for p, m, a in self.steps],
             "points": {"frequency_hz": s.frequency_hz.tolist(), "r_ohm": s.z_ohm.real.tolist(),
                        "x_ohm": s.z_ohm.imag.tolist(), "r_fit_ohm": self.z_fit.real.tolist(),
                        "x_fit_ohm": self.z_fit.imag.tolist()},
@@ -241,6 +285,12 @@ def check_coverage(sweep: Sweep, z_ref: float) -> int:
     with np.errstate(all="ignore"):
         mag = np.abs(sweep.reflection(z_ref))
     mag = np.where(np.isfinite(mag), mag, 1.0)     # an impedance too large for the division: an open
+    if np.max(mag) > MAX_REFLECTION:
+        j = int(np.argmax(mag))
+        raise SweepError(f"has |S11| up to {mag[j]:.3g} (at {units.format_frequency(f[j])}), more than 1: "
+                         "a passive antenna cannot reflect more than it receives; the analyzer is not "
+                         "calibrated (calibrate it with open, short and load at the end of its cable); "
+                         "nothing is fitted from it", file=sweep.path)
     i = int(np.argmin(mag))
     if not mag[i] < 1.0:
         raise SweepError(f"reflects all the power at every point (|S11| >= 1 on {z_ref:g} ohm even at "
@@ -291,15 +341,48 @@ def _fit_electrical(model: _Model, f, rho_meas, w, z_ref, D0: Dimensions, fit_ra
     return x, rms, [("stub", "tap", "radiator")[j] for j in at_bound]
 
 
+def as_built(design: Design) -> tuple[Dimensions, str]:
+    """(D0, where it came from): the antenna as the latest as-built entry of `record:` gives it
+    (design.latest_as_built), a length the entry does not give taken from solve(design);
+    solve(design)'s dimensions when there is no entry with a length."""
+    dims = solve(design).dimensions
+    entry = latest_as_built(design.record)
+    if entry is None:
+        return dims, "the design's dimensions"
+    given = [n for n, v in (("radiator", entry.radiator_m), ("stub", entry.stub_m), ("tap", entry.tap_m))
+             if v is not None]
+    D0 = dataclasses.replace(dims, **{n: getattr(entry, f"{n}_m") for n in given})
+    rest = [n for n in ("radiator", "stub", "tap") if n not in given]
+    note = f"; {' and '.join(rest)} as designed" if rest else ""
+    return D0, f"as-built entry of {entry.date}{note}"
+
+
+def calibrated_by(design: Design, sweep: Sweep) -> bool:
+    """Whether the design's calibration was fitted to this sweep: its source names the sweep's file."""
+    source = design.calibration.source
+    return bool(source) and source == os.path.basename(sweep.path)
+
+
 def fit_sweep(design: Design, sweep: Sweep, built: Dimensions | None = None) -> Fit:
-    """Fit the model to `sweep`, measured at the tap of the antenna `built` (default: built to the
-    design, solve(design).dimensions), and work out the moves and the calibration (module
-    docstring). SweepError if the sweep cannot be fitted."""
+    """Fit the model to `sweep`, measured at the tap of the antenna `built` (default: as_built(design),
+    the latest as-built entry or the design's dimensions), and work out the moves and the
+    calibration (module docstring). SweepError if the sweep cannot be fitted."""
     f0, z_ref = design.frequency_hz, design.feed.impedance_ohm
     f = sweep.frequency_hz
     check_coverage(sweep, z_ref)
-    D0 = built or solve(design).dimensions
-    model0 = _model(design, design.calibration)
+    already = calibrated_by(design, sweep)
+    if built is None:
+        D0, built_from = as_built(design)
+        if already and latest_as_built(design.record) is None:
+            # no entry: the sweep was taken on the antenna cut to the sheet before this sweep's
+            # calibration was written (a calibration before it is not kept in the file)
+            D0 = solve(design.with_changes(calibration=Calibration())).dimensions
+            built_from = "the design's dimensions before the calibration fitted to this sweep"
+    else:
+        D0, built_from = built, "given"
+    # a sweep the calibration was fitted to is fitted again as it was then: without it (a calibration
+    # before it is not kept in the file, so none is assumed)
+    model0 = _model(design, Calibration() if already else design.calibration)
     rho_meas = sweep.reflection(z_ref)
     w = np.clip(1.0 - np.abs(rho_meas) ** 2, 0.0, 1.0) ** WEIGHT_POWER
 
@@ -322,16 +405,23 @@ def fit_sweep(design: Design, sweep: Sweep, built: Dimensions | None = None) -> 
     E = (D0.radiator * x[2], D0.stub * x[0], D0.tap * x[1])
     z_fit = model0.z_feed(f, *E)
 
+    explained(sweep, z_ref, rho_meas, reflection(z_fit, z_ref), w)
     try:
         target = model0.resolve(f0, z_ref) if retune else (E[0], *model0.match(f0, z_ref, E[0]))
     except ValueError as exc:
         raise SweepError(f"gives an antenna the model cannot match at "
                          f"{units.format_frequency(f0)} ({exc})", file=sweep.path) from None
-    try:
-        calibration, note, advised = _calibrate(design, model0, E, D0, target, retune)
-    except ValueError as exc:
-        calibration, note = None, f"none found ({exc}); make the moves by hand"
-        advised = tuple(np.array([D0.radiator, D0.stub, D0.tap]) + np.array(target) - np.array(E))
+    if already:
+        sheet = solve(design).dimensions
+        calibration, advised = None, (sheet.radiator, sheet.stub, sheet.tap)
+        note = (f"already stored from this sweep ({design.calibration.date or 'undated'}): the sheet's "
+                "dimensions carry its correction; after the moves, sweep again and fit the new sweep")
+    else:
+        try:
+            calibration, note, advised = _calibrate(design, model0, E, D0, target, retune)
+        except ValueError as exc:
+            calibration, note = None, f"none found ({exc}); make the moves by hand"
+            advised = tuple(np.array([D0.radiator, D0.stub, D0.tap]) + np.array(target) - np.array(E))
     if not 0 < advised[2] < advised[1]:
         raise SweepError("calls for a tap outside the stub; check the sweep and the design",
                          file=sweep.path)
@@ -339,10 +429,15 @@ def fit_sweep(design: Design, sweep: Sweep, built: Dimensions | None = None) -> 
     u = design.output.units
     moves = {"radiator": advised[0] - D0.radiator, "short": D0.stub - advised[1],
              "tap": (D0.stub - D0.tap) - (advised[1] - advised[2])}
-    rounded = {key: units.parse_quantity(units.format_length(m, u), "length") for key, m in moves.items()}
-    after = (E[0] + rounded["radiator"], E[1] - rounded["short"],
-             E[2] + rounded["tap"] - rounded["short"])
-    swr_after = float(swr_of(abs(reflection(model0.z_feed(f0, *after)[0], z_ref))))
+    rounded = {key: _tape_move(m, u) for key, m in moves.items()}
+    steps = []
+    done = {"radiator": 0.0, "short": 0.0, "tap": 0.0}
+    for part in STEP_ORDER:
+        if rounded[part] == 0:
+            continue
+        done[part] = rounded[part]
+        steps.append((part, rounded[part], _swr_after(model0, f0, z_ref, E, done)))
+    swr_after = steps[-1][2] if steps else _swr_after(model0, f0, z_ref, E, done)
     swr_before = None
     if f[0] <= f0 <= f[-1]:
         rho0 = np.interp(f0, f, rho_meas.real) + 1j * np.interp(f0, f, rho_meas.imag)
@@ -356,7 +451,79 @@ def fit_sweep(design: Design, sweep: Sweep, built: Dimensions | None = None) -> 
         fit_rms_ohm=float(np.sqrt(np.mean(np.abs(z_fit - sweep.z_ohm) ** 2))),
         fit_rms_reflection=float(np.sqrt(np.mean(np.abs(reflection(z_fit, z_ref) - rho_meas) ** 2))),
         swr_before=swr_before, best_hz=float(f[i_best]), best_swr=float(swr_of(abs(rho_meas[i_best]))),
-        swr_after=swr_after)
+        swr_after=swr_after, built_from=built_from, already_calibrated=already, steps=tuple(steps),
+        dip_tolerance_hz=dip_tolerance_hz(solve(design)))
+
+
+#: the order of the moves (the sheet's tuning procedure: X with the short first, then R with the
+#: tap, the radiator only once the match is made)
+STEP_ORDER = ("short", "tap", "radiator")
+
+
+def _tape_move(m: float, u: str) -> float:
+    """A move as the tape makes it: rounded as the sheet prints lengths, and 0 below the smallest
+    move worth making (sheet.MIN_MOVE_M), so that no step prints a move that rounds to nothing."""
+    r = units.parse_quantity(units.format_length(abs(m), u), "length")
+    return math.copysign(r, m) if r >= MIN_MOVE_M[u] - 1e-12 else 0.0
+
+
+def _swr_after(model0: _Model, f0: float, z_ref: float, E, done: dict) -> float:
+    """The fitted model's SWR at f0 after the moves `done` (DESIGN.md §5 signs) on the antenna E."""
+    after = (E[0] + done["radiator"], E[1] - done["short"], E[2] + done["tap"] - done["short"])
+    return float(swr_of(abs(reflection(model0.z_feed(f0, *after)[0], z_ref))))
+
+
+def gate_residual(rho_meas: np.ndarray, rho_fit: np.ndarray, w: np.ndarray) -> float:
+    """The gate's statistic: sqrt(sum w |rho_fit - rho_meas|^2 / sum w) (module docstring, step 2)."""
+    total = float(np.sum(w))
+    if not total > 0:
+        return math.inf
+    return float(np.sqrt(np.sum(w * np.abs(rho_fit - rho_meas) ** 2) / total))
+
+
+def _dip_width(f: np.ndarray, mag: np.ndarray) -> float:
+    """Width (Hz) of the frequencies around the lowest |rho| where |rho| stays below the level
+    halfway between it and 1 (linear between points; to the sweep's end where it stays low)."""
+    i = int(np.argmin(mag))
+    level = 0.5 * (mag[i] + 1.0)
+    lo = i
+    while lo > 0 and mag[lo - 1] < level:
+        lo -= 1
+    hi = i
+    while hi < len(f) - 1 and mag[hi + 1] < level:
+        hi += 1
+    def cross(a, b):    # frequency between points a (below level) and b (at or above)
+        return f[a] + (f[b] - f[a]) * (level - mag[a]) / (mag[b] - mag[a])
+    left = cross(lo, lo - 1) if lo > 0 else f[0]
+    right = cross(hi, hi + 1) if hi < len(f) - 1 else f[-1]
+    return float(right - left)
+
+
+def explained(sweep: Sweep, z_ref: float, rho_meas, rho_fit, w) -> float:
+    """The gate statistic of a fit; SweepError, saying what the sweep looks like and what to check,
+    if it exceeds FIT_GATE (module docstring, step 2)."""
+    g = gate_residual(rho_meas, rho_fit, w)
+    if g <= FIT_GATE:
+        return g
+    f = sweep.frequency_hz
+    width_meas = _dip_width(f, np.abs(rho_meas))
+    width_fit = _dip_width(f, np.abs(rho_fit))
+    if width_meas < 0.5 * width_fit:
+        looks = (f"a much sharper resonance than this antenna's (its dip is {width_meas / width_fit:.2f} "
+                 "times as wide as the best fit's), as a small loop or a tuned circuit gives")
+    elif width_meas > 2.0 * width_fit:
+        looks = (f"a much broader match than this antenna's (its dip is {width_meas / width_fit:.1f} "
+                 "times as wide as the best fit's), as an antenna behind a transformer, a tuner or lossy "
+                 "coax gives")
+    else:
+        looks = ("a match of another shape: R and X around the dip do not follow a half-wave fed by a "
+                 "shorted stub (another kind of antenna, or this one through a network)")
+    raise SweepError(f"is not explained by this design's antenna: the best fit misses it by {g:.2f} "
+                     f"in |rho| near the match, where the model is within {FIT_GATE:.2f} of a J-pole "
+                     f"(the 99.9th percentile of its own held-out error); the sweep looks like {looks}. "
+                     "Check that it was taken at the tap of the antenna this design file describes, with "
+                     "nothing between (no transformer, tuner or long coax), and the analyzer calibrated at "
+                     "the end of its cable; no advice is given from it", file=sweep.path)
 
 
 #: most points the least squares of a fit use
@@ -461,40 +628,63 @@ def fit_text(fit: Fit, written: dict | None = None) -> str:
     before = "outside the sweep" if fit.swr_before is None else f"{fit.swr_before:.2f}"
     add(f"measured: best SWR {fit.best_swr:.2f} at {units.format_frequency(fit.best_hz)}; "
         f"SWR at {f0}: {before}")
+    add(f"the antenna measured: radiator {fmt(D0.radiator)}, stub {fmt(D0.stub)}, tap {fmt(D0.tap)} "
+        f"({fit.built_from}); the moves below are from these")
+    if fit.already_calibrated:
+        add(f"the design's calibration was fitted to this sweep ({d.calibration.date or 'undated'}): the "
+            "sheet's dimensions already carry its correction, so they are the target and nothing is "
+            "added to them")
     add(f"fit: rms {units.format_impedance(fit.fit_rms_ohm)} (reflection {fit.fit_rms_reflection:.3f}) "
         "over the sweep, weighted to the match")
     radiator = f"radiator {fmt(E[0])}, " if fit.radiator_fitted else ""
-    built = f"{fmt(D0.radiator)}, " if fit.radiator_fitted else ""
-    add(f"  the antenna behaves as the model with {radiator}stub {fmt(E[1])} and tap {fmt(E[2])} "
-        f"(built: {built}{fmt(D0.stub)} and {fmt(D0.tap)})")
+    add(f"  the antenna behaves as the model with {radiator}stub {fmt(E[1])} and tap {fmt(E[2])}")
     if not fit.radiator_retuned:
-        add("  the radiator is left as it is: the sweep does not tell its length apart from the model's "
-            "own error, so the short and the tap do the matching")
+        follow = ("; it moves only as far as the stub's correction moves its resonance (step below)"
+                  if mv["radiator"] != 0 else "")
+        add("  the radiator is not retuned: the sweep does not tell its length apart from the model's "
+            f"own error, so the short and the tap do the matching{follow}")
+    off = fit.best_hz - d.frequency_hz
+    if not fit.radiator_retuned and abs(off) > fit.dip_tolerance_hz:
+        add(f"  the measured dip is {units.format_frequency(abs(off))} {'below' if off < 0 else 'above'} "
+            f"{f0}: the sheet's rule (tuning procedure) is to make the match with the short and the tap "
+            f"first and to move the radiator only if the dip then stays more than "
+            f"{units.format_frequency(fit.dip_tolerance_hz)} away; after the moves below the fitted model's "
+            f"match is at {f0}, so the radiator is not moved for the dip")
     add("")
-    add(f"To match at {f0} ({units.length_rounding(u)}):")
-    r = mv["radiator"]
-    if r == 0:
-        add(f"  1. Radiator: no change ({fmt(D0.radiator)}).")
+    before_swr = "" if fit.swr_before is None else f" (SWR there now {fit.swr_before:.2f})"
+    if not fit.steps:
+        add(f"At {f0}{before_swr}: nothing to move ({units.length_rounding(u)}, smallest move "
+            f"{fmt(MIN_MOVE_M[u])}). Predicted SWR at {f0}: {fit.swr_after:.2f}.")
     else:
-        why = "" if fit.radiator_retuned else (" (a small change that follows the stub's correction: "
-                                               "the radiator works against the stub's common mode)")
-        add(f"  1. Radiator: {'add' if r > 0 else 'trim'} {fmt(abs(r))} "
-            f"({fmt(D0.radiator)} -> {fmt(adv[0])}){why}.")
-    sh = mv["short"]
-    if sh == 0:
-        add(f"  2. Short: no change (stub {fmt(D0.stub)}).")
-    else:
-        passes = " Take the tap off first: the short passes its place." if sh >= D0.tap else ""
-        add(f"  2. Short: move it {fmt(abs(sh))} {'toward' if sh > 0 else 'away from'} the top "
-            f"(stub {fmt(D0.stub)} -> {fmt(adv[1])}).{passes}")
-    tp = mv["tap"]
-    where = f"it then sits {fmt(adv[2])} above the short (it was {fmt(D0.tap)})"
-    if tp == 0:
-        add(f"  3. Tap: leave the clamp where it is; {where}.")
-    else:
-        add(f"  3. Tap: move it {fmt(abs(tp))} {'up, toward' if tp > 0 else 'down, away from'} the top; "
-            f"{where}.")
-    add(f"Predicted SWR at {f0} after these moves: {fit.swr_after:.2f}. Sweep again to check.")
+        add(f"To match at {f0}{before_swr}, in this order ({units.length_rounding(u)}):")
+    # the tape's positions: each from the printed length, so that "from -> to" is the printed move
+    tape = lambda m: units.parse_quantity(fmt(m), "length")  # noqa: E731
+    stub_now, tap_now = tape(D0.stub), tape(D0.tap)
+    for n, (part, m, swr_step) in enumerate(fit.steps, 1):
+        then = f"; SWR at {f0} then about {swr_step:.2f}"
+        if part == "short":
+            passes = " Take the tap off first: the short passes its place." if m >= D0.tap else ""
+            new_stub = stub_now - m
+            add(f"  {n}. Short: move it {fmt(abs(m))} {'toward' if m > 0 else 'away from'} the top "
+                f"(stub {fmt(stub_now)} -> {fmt(new_stub)}; the tap clamp stays where it is){then}."
+                f"{passes}")
+            tap_now, stub_now = tap_now - m, new_stub
+        elif part == "tap":
+            was = "after the short's move" if mv["short"] != 0 else "now"
+            add(f"  {n}. Tap: move the clamp {fmt(abs(m))} {'up, toward' if m > 0 else 'down, away from'} "
+                f"the top; it then sits {fmt(tap_now + m)} above the short ({fmt(tap_now)} {was}){then}.")
+            tap_now += m
+        else:
+            why = "" if fit.radiator_retuned else (", a small change that follows the stub's correction "
+                                                   "(the radiator works against the stub's common mode)")
+            add(f"  {n}. Radiator: {'add' if m > 0 else 'trim'} {fmt(abs(m))} "
+                f"({fmt(tape(D0.radiator))} -> {fmt(tape(D0.radiator) + m)}){why}{then}.")
+    left = [p for p in STEP_ORDER if mv[p] == 0]
+    if fit.steps and left:
+        names = {"short": "the short", "tap": "the tap", "radiator": "the radiator"}
+        add(f"  Leave {' and '.join(names[p] for p in left)} as {'it is' if len(left) == 1 else 'they are'}.")
+    if fit.steps:
+        add(f"Predicted SWR at {f0} after these moves: {fit.swr_after:.2f}. Sweep again to check.")
     add("")
     cal = fit.calibration
     if written:

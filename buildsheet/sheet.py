@@ -33,7 +33,7 @@ from buildsheet import units
 from buildsheet.blocks import (Facts, Figures, Heading, KeyFigure, KeyFigures, Para, Section, Sheet,  # noqa: F401
                                Steps, Table, WriteIn)
 from buildsheet.catalog import national_bands
-from buildsheet.design import Design
+from buildsheet.design import Design, latest_as_built
 from buildsheet.layout import describe, site_layout
 from buildsheet.solver import RIGID_DIAMETER_M, Solution, velocity_factor_text
 from buildsheet.stock import conductor_size
@@ -74,6 +74,30 @@ CATEGORY_NAMES = {"us-fcc": ("occupational/controlled", "general population/unco
 
 # ----------------------------------------------------------------------------------------------
 # Templates
+
+def dip_tolerance_hz(s: Solution) -> float:
+    """How far the dip may stay from the design frequency once the match is made before the
+    radiator is trimmed (the tuning procedure's rule, also `fit`'s): a tenth of the predicted 2:1 SWR
+    bandwidth, or 0.2 % of the frequency when there is none; rounded to 1-2-5."""
+    swr2 = s.band_swr2_hz
+    return _nice(0.1 * (swr2[1] - swr2[0])) if swr2 else _nice(0.002 * s.frequency_hz)
+
+
+def dip_rule(s: Solution, u: str) -> tuple[float, bool]:
+    """(df, short_moves_dip): the dip error (Hz) the tuning table's dip rows are written for, and
+    whether the short is offered as a dip control beside the radiator: one dip error for both moves,
+    each within its part's linear range; where the short cannot move the dip far without spoiling
+    the match (it also shortens the tap distance), the radiator alone. Used by the sheet and by
+    `fit`'s SWR-only advice."""
+    sens, dims, f0 = s.sensitivity, s.dimensions, s.frequency_hz
+    least = MIN_MOVE_M[u]
+    df = _error_step(_nice(FREQUENCY_STEP * f0), sens["dip_hz_per_m_radiator"],
+                     LINEAR_FRACTION * dims.radiator, least)
+    df_short = _error_step(_nice(FREQUENCY_STEP * f0), sens["dip_hz_per_m_short"],
+                           SHORT_DIP_LINEAR_FRACTION * dims.tap, least)
+    short_moves_dip = df_short >= SHORT_DIP_FRACTION * df
+    return (min(df, df_short) if short_moves_dip else df), short_moves_dip
+
 
 def _template_text(name: str) -> str:
     """A template's source: from the installed package's templates, else the checkout's templates/."""
@@ -639,12 +663,7 @@ class _Context:
         # one dip error for both moves that correct it, each move within its part's linear range;
         # where the short cannot move the dip far without spoiling the match (it also shortens the tap
         # distance), the radiator alone
-        df = _error_step(_nice(FREQUENCY_STEP * f0), sens["dip_hz_per_m_radiator"],
-                         LINEAR_FRACTION * dims.radiator, least)
-        df_short = _error_step(_nice(FREQUENCY_STEP * f0), sens["dip_hz_per_m_short"],
-                               SHORT_DIP_LINEAR_FRACTION * dims.tap, least)
-        short_moves_dip = df_short >= SHORT_DIP_FRACTION * df
-        df = min(df, df_short) if short_moves_dip else df
+        df, short_moves_dip = dip_rule(s, self.u)
         dr = _error_step(IMPEDANCE_STEP_OHM, sens["ohm_per_m_tap"], LINEAR_FRACTION * dims.tap, least)
         dx = _error_step(IMPEDANCE_STEP_OHM, sens["ohm_per_m_short"], LINEAR_FRACTION * dims.tap, least)
         # the dip df below f0 asks for +df of dip; R dr high for -dr; X +dx for -dx
@@ -657,8 +676,7 @@ class _Context:
         lo, hi = max(i0 - 1, 0), min(i0 + 1, len(sw.frequency_hz) - 1)
         x_slope = (sw.x_ohm[hi] - sw.x_ohm[lo]) / (sw.frequency_hz[hi] - sw.frequency_hz[lo])
         best = int(np.argmin(sw.swr))
-        swr2 = s.band_swr2_hz
-        tolerance = _nice(0.1 * (swr2[1] - swr2[0])) if swr2 else _nice(0.002 * f0)
+        tolerance = dip_tolerance_hz(s)
         rigid = s.parts.rigid_radiator
         fc = s.first_cut
         return dict(
@@ -679,7 +697,7 @@ class _Context:
             wrap=self.length(s.wrap_allowance_m), rigid=rigid,
             f0=self.f0, best_swr=_swr(float(sw.swr[best])),
             best_f=_freq(float(sw.frequency_hz[best])),
-            swr2_band=_band(swr2), z_feed=_ohm(z0),
+            swr2_band=_band(s.band_swr2_hz), z_feed=_ohm(z0),
             x_slope="rises" if x_slope > 0 else "falls",
             x_if_grows="positive" if x_slope > 0 else "negative",
             x_if_shrinks="negative" if x_slope > 0 else "positive",
@@ -696,7 +714,28 @@ class _Context:
             min_move=self.length(least),
             big_move=self.length(BIG_MOVE_FRACTION * dims.stub),
             sleeve=s.sleeve is not None,
+            **self.as_built_values(),
         )
+
+    def as_built_values(self) -> dict:
+        """The antenna as it stands, for the tuning procedure: the latest as-built entry
+        (design.latest_as_built), each length against the design's; has_as_built False without one."""
+        entry = latest_as_built(self.d.record)
+        if entry is None:
+            return dict(has_as_built=False)
+        dims = self.s.dimensions
+        parts = []
+        for name, got, want in (("radiator", entry.radiator_m, dims.radiator),
+                                ("stub", entry.stub_m, dims.stub), ("tap", entry.tap_m, dims.tap)):
+            if got is None:
+                parts.append(f"{name} not recorded (taken as designed, {self.length(want)})")
+                continue
+            diff = units.parse_quantity(self.length(got), "length") - units.parse_quantity(
+                self.length(want), "length")
+            rel = ("as designed" if diff == 0 else
+                   f"{self.length(abs(diff))} {'longer' if diff > 0 else 'shorter'} than designed")
+            parts.append(f"{name} {self.length(got)} ({rel})")
+        return dict(has_as_built=True, as_built_date=entry.date, as_built_parts="; ".join(parts))
 
     def tuning(self) -> tuple:
         return render_blocks("tuning.j2", **self.tuning_values())
