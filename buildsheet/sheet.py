@@ -35,7 +35,9 @@ from buildsheet.blocks import (Facts, Figures, Heading, KeyFigure, KeyFigures, P
 from buildsheet.catalog import national_bands
 from buildsheet.design import Design, latest_as_built
 from buildsheet.layout import describe, site_layout
-from buildsheet.solver import RIGID_DIAMETER_M, Solution, velocity_factor_text
+from buildsheet.physics.coax import matched_loss_db
+from buildsheet.physics.lines import DB_PER_NEPER
+from buildsheet.solver import RIGID_DIAMETER_M, Solution, coax_line_model, velocity_factor_text
 from buildsheet.stock import conductor_size
 
 #: the measurement log's columns: what the builder writes by hand
@@ -61,6 +63,8 @@ SHORT_DIP_FRACTION = 0.2
 SHORT_DIP_LINEAR_FRACTION = 0.1
 #: a move larger than this share of the stub means something other than the dimensions is wrong
 BIG_MOVE_FRACTION = 0.1
+#: most frequencies in the table of the SWR to expect at the station end of the feed coax
+STATION_POINTS = 5
 #: blank rows in the as-built record when there are no entries, for writing by hand
 BLANK_RECORD_ROWS = 3
 
@@ -97,6 +101,21 @@ def dip_rule(s: Solution, u: str) -> tuple[float, bool]:
                            SHORT_DIP_LINEAR_FRACTION * dims.tap, least)
     short_moves_dip = df_short >= SHORT_DIP_FRACTION * df
     return (min(df, df_short) if short_moves_dip else df), short_moves_dip
+
+
+def station_matched_loss_db(d: Design) -> float:
+    """The matched loss of the design's feed coax at the design frequency, dB (as the solver takes it:
+    solver.coax_line_model over feed.length)."""
+    coax = coax_line_model(d)
+    return float(matched_loss_db(coax.gamma(d.frequency_hz).real * DB_PER_NEPER, d.feed.length_m))
+
+
+def station_swr(swr_tap: float, matched_db: float) -> float:
+    """The SWR at the station end of a coax of matched loss `matched_db` whose far end sees
+    `swr_tap`: the reflected wave is attenuated on the way up and on the way back, so
+    |rho_station| = |rho_tap| x 10^(-A/10) (A in dB, power; the amplitude falls 10^(-A/20) each way)."""
+    rho = (swr_tap - 1.0) / (swr_tap + 1.0) * 10 ** (-matched_db / 10)
+    return (1.0 + rho) / (1.0 - rho)
 
 
 def _template_text(name: str) -> str:
@@ -714,8 +733,33 @@ class _Context:
             min_move=self.length(least),
             big_move=self.length(BIG_MOVE_FRACTION * dims.stub),
             sleeve=s.sleeve is not None,
+            sloper=d.site.orientation == "sloper",
+            **self.station_values(),
             **self.as_built_values(),
         )
+
+    def station_values(self) -> dict:
+        """The SWR-meter path of the tuning procedure: the SWR to expect at the station end of the
+        feed coax for the design as cut, at the band's edges, the design frequency and half-way
+        between them (interpolated in the solver's sweep, Solution.sweep.swr_transmitter), beside the
+        SWR at the tap; the coax's matched loss at the design frequency; and the station reading at
+        which tuning may stop, STOP_SWR at the tap carried through that loss (|rho| at the station
+        = |rho| at the tap x 10^(-A/10), the reflected wave crossing the coax twice)."""
+        d, s = self.d, self.s
+        f0 = s.frequency_hz
+        low, high = s.band_hz
+        sw = s.sweep
+        marks = []
+        for f in (low, 0.5 * (low + f0), f0, 0.5 * (f0 + high), high):
+            if all(abs(f - g) > 1e-6 * f0 for g in marks):
+                marks.append(f)
+        marks = sorted(marks)[:STATION_POINTS]
+        rows = tuple((_freq(f), _swr(float(np.interp(f, sw.frequency_hz, sw.swr_transmitter))),
+                      _swr(float(np.interp(f, sw.frequency_hz, sw.swr)))) for f in marks)
+        matched_db = station_matched_loss_db(d)
+        return dict(station_rows=rows, coax_matched_loss=f"{matched_db:.1f}",
+                    feed_length=self.length(d.feed.length_m, coarse=True),
+                    stop_swr_station=_swr(station_swr(STOP_SWR, matched_db)))
 
     def as_built_values(self) -> dict:
         """The antenna as it stands, for the tuning procedure: the latest as-built entry
