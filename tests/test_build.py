@@ -94,7 +94,7 @@ def test_sheet_text_carries_the_numbers_of_the_solution(outdir, design):
     assert units.format_distance(s.exposure.distance_general_m, u) in text
     # the tuning table: the sheet's rows, each one in the PDF as written
     sheet = build_sheet(d, s, DATE)
-    table = next(b for b in sheet.section("tuning").blocks if isinstance(b, Table))
+    table = next(b for b in sheet.section("tuning").blocks if isinstance(b, Table) and b.header[0] == "you measure")
     for measured, action in table.rows:
         assert _plain(html.unescape(measured)) in text and _plain(html.unescape(action)) in text
     # ... and its numbers are the Solution's sensitivities (DESIGN.md §5 signs)
