@@ -61,8 +61,8 @@ def test_station_table_is_the_solutions_sweep_through_the_coax(design):
 def test_coax_loss_lowers_the_swr_at_the_station(design):
     """A lossy line attenuates the reflected wave on the way to the load and back:
     |rho_in| = |rho_load| x 10^(-A/10), A the matched loss in dB (the relation physics/coax.py's
-    total_loss_db rests on; Chipman, Transmission Lines (Schaum), ch. on lossy lines; ARRL Antenna
-    Book, ch. on transmission lines — both from memory). The solver's sweep at the station follows it
+    total_loss_db rests on: the lossy-line relation of transmission-line textbooks, from memory, and
+    checked below against scikit-rf's lossy line). The solver's sweep at the station follows it
     with A taken at each frequency; the residual is the coax model's complex Z0 (from the cable's
     matched loss), under 0.005 of |rho|."""
     d, s, table = _station_table(design)
