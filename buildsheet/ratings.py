@@ -43,8 +43,6 @@ PERSON_M = 2.0
 COAX_SWR_LIMIT = 1.5
 #: impedance ratios of the transformers and baluns builders commonly buy or wind (common practice)
 COMMON_RATIOS = (1.0, 4.0, 9.0, 16.0)
-#: a conductor this thick or thicker is pipe or rod: the wire table does not apply (solver's figure)
-RIGID_DIAMETER_M = 4e-3
 
 
 # ----------------------------------------------------------------------------------------------
@@ -308,7 +306,7 @@ def _insulators(design, s) -> list[Finding]:
 
 def _short_current(design, s) -> list[Finding]:
     st = design.stub
-    if st.conductor_diameter_m >= RIGID_DIAMETER_M:
+    if s.parts.rigid_stub:      # pipe or rod: the wire table does not apply
         return []
     limit = wire_rf_current_rating(design.frequency_hz, st.conductor_diameter_m, st.conductivity_s_m)
     i = s.current_short_a_rms
@@ -514,7 +512,7 @@ def assumptions(design: "Design", s: "Solution") -> tuple[str, ...]:
         recalled.append(f"the {conn.name} connector's voltage")
     if design.site.orientation != "vertical":
         recalled.append("the end insulators' voltage")
-    if st.conductor_diameter_m < RIGID_DIAMETER_M:
+    if not s.parts.rigid_stub:
         recalled.append("the wire's current")
     if recalled:
         out.append("Ratings from memory, not confirmed in a published table: " + ", ".join(recalled)

@@ -37,8 +37,8 @@ from buildsheet.design import Design, latest_as_built
 from buildsheet.layout import describe, site_layout
 from buildsheet.physics.coax import matched_loss_db
 from buildsheet.physics.lines import DB_PER_NEPER
-from buildsheet.solver import RIGID_DIAMETER_M, Solution, coax_line_model, velocity_factor_text
-from buildsheet.stock import conductor_size
+from buildsheet.solver import Solution, coax_line_model, velocity_factor_text
+from buildsheet.stock import conductor_name, conductor_size
 
 #: the measurement log's columns: what the builder writes by hand
 LOG_COLUMNS = ("#", "frequency", "SWR", "R (Ω)", "X (Ω)", "what was changed")
@@ -426,9 +426,8 @@ class _Context:
 
     def radiator_text(self) -> str:
         r, name = self.d.radiator, self.s.parts.radiator_name
-        if r.diameter_m >= RIGID_DIAMETER_M and r.insulation == "bare":
-            size = conductor_size(r.diameter_m, self.u, r.material)
-            return f"{size}, bare" if r.material in size else f"{size}, {r.material}, bare"
+        if self.s.parts.rigid_radiator and r.insulation == "bare":
+            return f"{conductor_name(r.diameter_m, self.u, r.material)}, bare"
         if r.insulation == "bare":
             return f"{name}, bare"
         spread = (f"; sources {velocity_factor_text(*r.velocity_factor_spread)}"
@@ -511,10 +510,9 @@ class _Context:
         stock size a shop sells (stock.py) rather than by the bare diameter."""
         r = self.d.radiator
         label = r.label.lower()
-        if (item.part == "radiator" and r.diameter_m >= RIGID_DIAMETER_M and "awg" not in label
+        if (item.part == "radiator" and self.s.parts.rigid_radiator and "awg" not in label
                 and not label.startswith("#") and r.insulation == "bare"):
-            size = conductor_size(r.diameter_m, self.u, r.material)
-            return size if r.material in size else f"{size}, {r.material}"
+            return conductor_name(r.diameter_m, self.u, r.material)
         return item.material
 
     def cut_list_margin(self) -> str:

@@ -23,3 +23,10 @@ def conductor_size(diameter_m: float, system: str, material: str = "") -> str:
     if stock is not None:
         return f"{stock.name} ({size})"
     return f"{size} dia."
+
+
+def conductor_name(diameter_m: float, system: str, material: str) -> str:
+    """conductor_size with its material, unless the stock name already says it: '1/2 in copper pipe
+    (5/8" OD)', '6 mm rod, aluminium'."""
+    size = conductor_size(diameter_m, system, material)
+    return size if material in size else f"{size}, {material}"

@@ -27,7 +27,7 @@ from buildsheet.drawing.shapes import (THIN, Arc, BreakMark, Circle, Dimension, 
                                        Polyline, Rect, Text)
 from buildsheet.layout import TIE_OFF_M, describe, site_layout
 from buildsheet.solver import Solution
-from buildsheet.stock import conductor_size
+from buildsheet.stock import conductor_name
 
 #: figure keys in the order a builder reads them (also the order of the SVG files)
 FIGURES = ("overview", "radiator", "stub", "short-tap", "choke", "swr", "smith", "pattern")
@@ -145,8 +145,7 @@ class _Context:
         insulation = "" if r.insulation == "bare" else f", {r.insulation} insulated"
         if "awg" in label.lower() or label.startswith("#"):
             return f"{label} {r.material}{insulation}"
-        size = conductor_size(r.diameter_m, self.units, r.material)
-        return f"{size}{insulation}" if r.material in size else f"{size}, {r.material}{insulation}"
+        return conductor_name(r.diameter_m, self.units, r.material) + insulation
 
 
 def _strip(ctx: _Context, caption: str, notes: list[str], width: float, top: float) -> tuple[list, float]:
