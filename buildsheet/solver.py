@@ -397,6 +397,15 @@ def _numbers(value, where: str):
         for k, v in value.items():
             yield from _numbers(v, f"{where}.{k}" if where else str(k))
     elif isinstance(value, (list, tuple)):
+        try:        # a list of reals (a sweep, a pattern cut): checked at once, only faults yielded
+            kind = np.asarray(value).dtype.kind if value else ""
+        except ValueError:      # ragged
+            kind = ""
+        if kind in ("f", "i", "u"):
+            arr = np.asarray(value)
+            for idx in np.argwhere(~np.isfinite(arr)):
+                yield where + "".join(f"[{k}]" for k in idx), arr[tuple(idx)].item()
+            return
         for i, v in enumerate(value):
             yield from _numbers(v, f"{where}[{i}]")
     elif isinstance(value, bool) or value is None or isinstance(value, str):
