@@ -82,6 +82,9 @@ def _parser() -> argparse.ArgumentParser:
     p.add_argument("--swr", metavar="F=SWR", action="append",
                    help="an SWR reading without phase, such as '14.1 MHz=1.8' or '14.1 MHz=RL 10 dB' "
                    "(return loss); give three or more instead of SWEEP for the dip and advice")
+    p.add_argument("--at", choices=("tap", "station"), default="tap",
+                   help="where the sweep or readings were taken: at the tap (default) or at the station end "
+                   "of the design's feed coax (carried back to the tap through it)")
     p.add_argument("--json", action="store_true", help="print the fit and the advice as one JSON object (SI)")
     p.add_argument("--write", action="store_true",
                    help="store the fitted calibration in the design file (backup kept as DESIGN.bak)")
@@ -222,7 +225,7 @@ def _fit(args) -> int:
                                   "phase (R and X)", key="--swr")
         print(advice_text(advise(design, [parse_reading(r) for r in args.swr])), end="")
         return 0
-    fit = fit_sweep(design, read_sweep(args.sweep))
+    fit = fit_sweep(design, read_sweep(args.sweep), at=args.at)
     written = write_calibration(args.design, fit, args.date) if args.write else None
     if args.json:
         print(json.dumps(fit.to_dict(written), indent=1, allow_nan=False))

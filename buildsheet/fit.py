@@ -171,6 +171,10 @@ class Fit:
     #: the sheet's dip tolerance (sheet.dip_tolerance_hz): the radiator is trimmed only for a dip
     #: further than this from f0 once the match is made
     dip_tolerance_hz: float = 0.0
+    #: where the sweep was taken: "tap", or "station" (carried back through the feed coax, station.py)
+    measured_at: str = "tap"
+    #: what the coax hides (station.hidden_text), for a sweep taken at the station
+    coax_note: str | None = None
 
     def to_dict(self, written: dict | None = None) -> dict:
         """The JSON of `fit --json` (DESIGN.md §6): SI units; `written` describes a --write."""
@@ -182,7 +186,8 @@ class Fit:
             "design_id": self.design.document_id,
             "frequency_hz": self.design.frequency_hz,
             "sweep": {"file": s.path, "points": len(s.frequency_hz),
-                      "frequency_hz": [float(s.frequency_hz[0]), float(s.frequency_hz[-1])]},
+                      "frequency_hz": [float(s.frequency_hz[0]), float(s.frequency_hz[-1])],
+                      "measured_at": self.measured_at, "coax": self.coax_note},
             "calibration": None if cal is None else {
                 "radiator_scale": cal.radiator_scale, "end_resistance_scale": cal.end_resistance_scale,
                 "stub_velocity_scale": cal.stub_velocity_scale},
@@ -363,11 +368,21 @@ def calibrated_by(design: Design, sweep: Sweep) -> bool:
     return bool(source) and source == os.path.basename(sweep.path)
 
 
-def fit_sweep(design: Design, sweep: Sweep, built: Dimensions | None = None) -> Fit:
+def fit_sweep(design: Design, sweep: Sweep, built: Dimensions | None = None, at: str = "tap") -> Fit:
     """Fit the model to `sweep`, measured at the tap of the antenna `built` (default: as_built(design),
     the latest as-built entry or the design's dimensions), and work out the moves and the
-    calibration (module docstring). SweepError if the sweep cannot be fitted."""
+    calibration (module docstring). at="station": the sweep was taken at the station end of the feed
+    coax and is first carried back to the tap through it (station.py). SweepError if the sweep cannot
+    be fitted."""
     f0, z_ref = design.frequency_hz, design.feed.impedance_ohm
+    coax_note = None
+    if at == "station":
+        from buildsheet import station
+        coax = station.feed_coax(design, solve(design))
+        sweep = station.to_tap(sweep, coax)
+        coax_note = station.hidden_text(coax, design.output.units)
+    elif at != "tap":
+        raise SweepError(f"'{at}' is not where a sweep is taken: tap or station", key="--at")
     f = sweep.frequency_hz
     check_coverage(sweep, z_ref)
     already = calibrated_by(design, sweep)
@@ -452,7 +467,7 @@ def fit_sweep(design: Design, sweep: Sweep, built: Dimensions | None = None) -> 
         fit_rms_reflection=float(np.sqrt(np.mean(np.abs(reflection(z_fit, z_ref) - rho_meas) ** 2))),
         swr_before=swr_before, best_hz=float(f[i_best]), best_swr=float(swr_of(abs(rho_meas[i_best]))),
         swr_after=swr_after, built_from=built_from, already_calibrated=already, steps=tuple(steps),
-        dip_tolerance_hz=dip_tolerance_hz(solve(design)))
+        dip_tolerance_hz=dip_tolerance_hz(solve(design)), measured_at=at, coax_note=coax_note)
 
 
 #: the order of the moves (the sheet's tuning procedure: X with the short first, then R with the
@@ -624,7 +639,9 @@ def fit_text(fit: Fit, written: dict | None = None) -> str:
     add(f"{d.title}  [{d.name}, document {d.document_id}]")
     add(f"sweep {os.path.basename(s.path)}: {len(s.frequency_hz)} points, "
         f"{units.format_frequency(s.frequency_hz[0])} to {units.format_frequency(s.frequency_hz[-1])}, "
-        f"measured at the tap")
+        f"measured at the {fit.measured_at}")
+    if fit.coax_note:
+        add(f"  {fit.coax_note}; the figures below are at the tap")
     before = "outside the sweep" if fit.swr_before is None else f"{fit.swr_before:.2f}"
     add(f"measured: best SWR {fit.best_swr:.2f} at {units.format_frequency(fit.best_hz)}; "
         f"SWR at {f0}: {before}")
