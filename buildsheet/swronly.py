@@ -11,14 +11,25 @@ Method.
    readings over +/-1 % put a 1.04 dip at 1.09 on the model's own readings, three at the centre
    within 0.05). Three readings are the least; the dip must lie between the lowest and highest
    reading (else: read further).
-3. Advice by the sheet's rule (sheet.dip_rule, sheet.dip_tolerance_hz): a dip further than the
-   tolerance from f0 is moved with the radiator, or with the short where the sheet offers the short
-   as a dip control, by (f0 - f_d) / the solution's dip rate (Solution.sensitivity). A dip deeper than
-   sheet.STOP_SWR needs the tap; SWR alone cannot tell whether the resistance at the dip is above
-   50 ohm (R = 50 SWR) or below (R = 50/SWR), so both tap moves are given (the solution's ohm-per-m
-   rate for each) and the one reading that settles it: the SWR at the dip after a trial move of the
-   smaller one upward (lower: R was below; higher: move back and the other way), or R read on any
-   analyzer. The sign of X, which side of the dip is which part's doing, is not told either.
+3. What the readings say about R and X at the dip, and the advice. The dip's depth alone fits R above
+   or below the reference or a reactance X (SWR 1.5 is R 75 or 33 ohm, or 50 ohm with X +/-20 ohm);
+   its width tells them apart, because the model knows how fast this antenna's impedance moves with
+   frequency (for a given distance of the locus from the match, |rho| rises fast when the impedance
+   sweeps through it quickly on a small circle, slowly on a large one). So the model's |rho| is
+   fitted to the readings (least squares over the stub and the tap as electrical lengths, the
+   radiator as read, from the best points of a grid; fit.py's step 2 with magnitudes only), as
+   `fit` does with phase, and the moves are made as `fit` makes them with the radiator left as it
+   is (the sheet's rule: the match with the short and the tap first): the stub and the tap matched
+   at f0, in the sheet's order, each with the model's SWR after it. Readings the model cannot follow
+   (rms |rho| residual above fit.FIT_GATE) are refused. The old advice here (the dip moved by the
+   sheet's rate, the tap by R = 50 SWR or 50/SWR) took a reactance at the dip for a resistance and
+   the tap's shift of the dip for the radiator's: NEC-2 readings of the tap 40 % long gave SWR 1.64
+   after one round; this gives 1.02 (tests/test_fit_field.py).
+   What SWR alone cannot tell: the mirror image of the antenna about the match gives the same
+   readings to first order. The best fit with the other sign of X at the dip is kept as the
+   alternative; the one reading that settles it is the SWR at the frequency where the two fitted
+   antennas differ most (both values printed); without an alternative, an analyzer's R and X at the
+   dip.
 """
 
 from __future__ import annotations
@@ -31,8 +42,10 @@ import numpy as np
 from buildsheet import units
 from buildsheet.design import Design
 from buildsheet.errors import SweepError
-from buildsheet.physics.lines import swr_of
-from buildsheet.sheet import MIN_MOVE_M, STOP_SWR, dip_rule, dip_tolerance_hz
+from scipy.optimize import least_squares
+
+from buildsheet import fit as fitmod
+from buildsheet.physics.lines import reflection, swr_of
 from buildsheet.solver import solve
 
 #: readings the parabola passes through: the lowest and its neighbours (module docstring, step 2)
@@ -42,18 +55,30 @@ MIN_READINGS = 3
 
 @dataclass(frozen=True)
 class SwrAdvice:
-    """frequency_hz, rho: the readings; dip_hz, dip_swr: the parabola's dip; dip_part: 'radiator',
-    'short' or None and dip_move_m its move (+ longer / toward the top); tap_if_high_m,
-    tap_if_low_m: the tap moves (+ toward the top) if R at the dip is above / below the reference."""
+    """frequency_hz, rho: the readings (|rho| at the tap, after the coax for readings at the station);
+    dip_hz, dip_swr: the parabola's dip; built, built_from: the antenna read (fit.as_built);
+    electrical: (L, S, T) at which the model's |rho| fits the readings best, fit_rms its rms |rho|
+    residual; moves_rounded_m, steps, swr_after: the moves as `fit` gives them (radiator, short, tap;
+    DESIGN.md §5 signs) and the model's SWR at f0 after each; alternative: the best fit with the
+    opposite sign of X at the dip ({electrical, fit_rms, moves_rounded_m, steps, swr_after}) or None;
+    settle: (Hz, SWR if the advice's antenna, SWR if the alternative's) the one further reading that
+    tells them apart, or None; measured_at, coax_note: where the readings were taken."""
     design: Design
     frequency_hz: np.ndarray
     rho: np.ndarray
     dip_hz: float
     dip_swr: float
-    dip_part: str | None
-    dip_move_m: float
-    tap_if_high_m: float
-    tap_if_low_m: float
+    built: object
+    built_from: str
+    electrical: tuple
+    fit_rms: float
+    moves_rounded_m: dict
+    steps: tuple
+    swr_after: float
+    alternative: dict | None
+    settle: tuple | None
+    measured_at: str = "tap"
+    coax_note: str | None = None
 
 
 def parse_reading(text: str) -> tuple[float, float]:
@@ -76,23 +101,33 @@ def parse_reading(text: str) -> tuple[float, float]:
     return f, (value - 1.0) / (value + 1.0)
 
 
-def advise(design: Design, readings: list[tuple[float, float]]) -> SwrAdvice:
-    """The dip and the advice from (Hz, |rho|) readings (module docstring). SweepError if they do
-    not show a dip."""
+def advise(design: Design, readings: list[tuple[float, float]], at: str = "tap", built=None,
+           source: str | None = None) -> SwrAdvice:
+    """The dip and the advice from (Hz, |rho|) readings (module docstring). at="station": |rho| read
+    at the station end of the feed coax (station.py). built: the antenna read (default
+    fit.as_built). SweepError if they do not show a dip or the model cannot follow them."""
+    key = "--swr" if source is None else None
     if len(readings) < MIN_READINGS:
         raise SweepError(f"{len(readings)} reading(s); the dip needs at least {MIN_READINGS}, on both "
-                         "sides of the lowest SWR", key="--swr")
+                         "sides of the lowest SWR", file=source, key=key)
     readings = sorted(readings)
     f = np.array([r[0] for r in readings])
     rho = np.array([r[1] for r in readings])
     if np.any(np.diff(f) <= 0):
-        raise SweepError("two readings at the same frequency; give each frequency once", key="--swr")
+        raise SweepError("two readings at the same frequency; give each frequency once", file=source,
+                         key=key)
+    coax_note = None
+    if at == "station":
+        from buildsheet import station
+        coax = station.feed_coax(design, solve(design))
+        rho = station.rho_to_tap(f, rho, coax, source, key)
+        coax_note = station.hidden_text(coax, design.output.units)
     i = int(np.argmin(rho))
     if i == 0 or i == len(f) - 1:
         side = "below" if i == 0 else "above"
         raise SweepError(f"the lowest SWR is the reading at the {'lowest' if i == 0 else 'highest'} "
                          f"frequency: the dip lies {side} your readings; read further {side}",
-                         key="--swr")
+                         file=source, key=key)
     lo = max(0, min(i - PARABOLA_POINTS // 2, len(f) - PARABOLA_POINTS))
     sel = slice(lo, lo + PARABOLA_POINTS)
     f0 = design.frequency_hz
@@ -100,28 +135,112 @@ def advise(design: Design, readings: list[tuple[float, float]]) -> SwrAdvice:
     a, b, c = np.polyfit(x, rho[sel] ** 2, 2)
     if not a > 0:
         raise SweepError("the readings do not show a dip (the SWR does not rise on both sides of the "
-                         "lowest); read closer around the lowest SWR", key="--swr")
-    xd = -b / (2 * a)
-    dip_hz = f0 * (1 + xd)
+                         "lowest); read closer around the lowest SWR", file=source, key=key)
+    dip_hz = f0 * (1 - b / (2 * a))
     depth = float(np.sqrt(max(c - b * b / (4 * a), 0.0)))
-    s = solve(design)
-    sens = s.sensitivity
-    u = design.output.units
-    _, short_moves_dip = dip_rule(s, u)
-    part, move = None, 0.0
-    if abs(dip_hz - f0) > dip_tolerance_hz(s):
-        part = "short" if short_moves_dip else "radiator"
-        move = (f0 - dip_hz) / sens[f"dip_hz_per_m_{part}"]
+
+    if built is None:
+        D0, built_from = fitmod.as_built(design)
+    else:
+        D0, built_from = built, "given"
+    model = fitmod._model(design, design.calibration)
     z_ref = design.feed.impedance_ohm
-    dip_swr = float(swr_of(depth))
-    tap_high = tap_low = 0.0
-    if dip_swr > STOP_SWR:
-        # R = z_ref SWR (high) or z_ref/SWR (low) at the dip, X near 0; the tap's rate brings it to z_ref
-        tap_high = -(z_ref * dip_swr - z_ref) / sens["ohm_per_m_tap"]
-        tap_low = (z_ref - z_ref / dip_swr) / sens["ohm_per_m_tap"]
-    return SwrAdvice(design=design, frequency_hz=f, rho=rho, dip_hz=float(dip_hz), dip_swr=dip_swr,
-                     dip_part=part, dip_move_m=float(move), tap_if_high_m=float(tap_high),
-                     tap_if_low_m=float(tap_low))
+    fits = _magnitude_fits(model, f, rho, z_ref, D0)
+    best = fits[0]
+    if best["fit_rms"] > fitmod.FIT_GATE:
+        raise SweepError(f"do not follow this design's antenna: the model's best fit to them misses by "
+                         f"{best['fit_rms']:.2f} in |rho| (rms), more than the {fitmod.FIT_GATE:.2f} the "
+                         "model may be off on a J-pole; check that they were read on this antenna, "
+                         "where the option says (tap or station)", file=source, key=key)
+    _advise_fit(best, model, design, D0, source, key)
+    other = next((g for g in fits[1:] if g["x_sign"] != best["x_sign"]), None)
+    settle = None
+    if other is not None:
+        try:
+            _advise_fit(other, model, design, D0, source, key)
+        except SweepError:
+            other = None
+    if other is not None:
+        # the frequency, across the readings, where the two antennas' SWR differ most
+        grid = np.linspace(f[0], f[-1], 201)
+        s1 = swr_of(np.abs(reflection(model.z_feed(grid, *best["electrical"]), z_ref)))
+        s2 = swr_of(np.abs(reflection(model.z_feed(grid, *other["electrical"]), z_ref)))
+        j = int(np.argmax(np.abs(np.log(s1) - np.log(s2))))
+        settle = (float(grid[j]), float(s1[j]), float(s2[j]))
+    return SwrAdvice(design=design, frequency_hz=f, rho=rho, dip_hz=float(dip_hz),
+                     dip_swr=float(swr_of(depth)), built=D0, built_from=built_from,
+                     electrical=best["electrical"], fit_rms=best["fit_rms"],
+                     moves_rounded_m=best["moves_rounded_m"], steps=best["steps"],
+                     swr_after=best["swr_after"], alternative=other, settle=settle,
+                     measured_at=at, coax_note=coax_note)
+
+
+#: the grid the magnitude fit starts from: stub and tap as fractions of the antenna read, and how
+#: many of its best points (and the best of the other sign of X) start a least-squares search
+_GRID_STUB = np.linspace(0.9, 1.1, 21)
+_GRID_TAP = np.geomspace(0.4, 2.5, 15)
+_STARTS = 3
+
+
+def _x_sign(model, E, f, z_ref) -> float:
+    """The sign of X at the model's own dip between the readings' ends."""
+    grid = np.linspace(f[0], f[-1], 201)
+    z = model.z_feed(grid, *E)
+    return float(np.sign(z[int(np.argmin(np.abs(reflection(z, z_ref))))].imag))
+
+
+def _magnitude_fits(model, f, rho, z_ref, D0) -> list[dict]:
+    """Least squares of the model's |rho| against the readings over the stub and the tap (the radiator
+    as read), from the best grid points of each sign of X at the dip: [{electrical, fit_rms,
+    x_sign}], best first (module docstring, step 3)."""
+    lo, hi = fitmod.ELECTRICAL_BOUNDS[1:]
+
+    def residual(x):
+        z = model.z_feed(f, D0.radiator, D0.stub * x[0], D0.tap * x[1])
+        return np.abs(reflection(z, z_ref)) - rho
+
+    starts = [np.array([s, t]) for s in _GRID_STUB for t in _GRID_TAP]
+    with np.errstate(all="ignore"):
+        costs = np.array([float(np.sum(residual(x) ** 2)) for x in starts])
+    costs = np.where(np.isfinite(costs), costs, np.inf)
+    order = list(np.argsort(costs))
+    signs = [_x_sign(model, (D0.radiator, D0.stub * starts[k][0], D0.tap * starts[k][1]), f, z_ref)
+             for k in order[:40]]
+    chosen = order[:_STARTS] + [order[k] for k in range(len(signs)) if signs[k] != signs[0]][:1]
+    fits = []
+    for k in chosen:
+        sol = least_squares(residual, starts[k], bounds=([lo[0], hi[0]], [lo[1], hi[1]]),
+                            x_scale=[0.01, 0.1], max_nfev=fitmod.MAX_NFEV)
+        E = (D0.radiator, D0.stub * float(sol.x[0]), D0.tap * float(sol.x[1]))
+        fits.append({"electrical": E, "fit_rms": float(np.sqrt(np.mean(sol.fun ** 2))),
+                     "x_sign": _x_sign(model, E, f, z_ref)})
+    fits.sort(key=lambda g: g["fit_rms"])
+    return fits
+
+
+def _advise_fit(g: dict, model, design: Design, D0, source, key) -> None:
+    """The moves for one fit, as `fit` makes them with the radiator left as it is (fit.py docstring,
+    step 3): the stub and the tap matched to the radiator at f0; added to g."""
+    f0, z_ref = design.frequency_hz, design.feed.impedance_ohm
+    E = g["electrical"]
+    try:
+        target = (E[0], *model.match(f0, z_ref, E[0]))
+    except ValueError as exc:
+        raise SweepError(f"give an antenna the model cannot match ({exc})", file=source, key=key) from None
+    advised = np.array([D0.radiator, D0.stub, D0.tap]) + np.array(target) - np.array(E)
+    u = design.output.units
+    moves = {"radiator": 0.0, "short": D0.stub - advised[1],
+             "tap": (D0.stub - D0.tap) - (advised[1] - advised[2])}
+    rounded = {k: fitmod._tape_move(m, u) for k, m in moves.items()}
+    done = {"radiator": 0.0, "short": 0.0, "tap": 0.0}
+    steps = []
+    for part in fitmod.STEP_ORDER:
+        if rounded[part] == 0:
+            continue
+        done[part] = rounded[part]
+        steps.append((part, rounded[part], fitmod._swr_after(model, f0, z_ref, E, done)))
+    g.update(moves_rounded_m=rounded, steps=tuple(steps),
+             swr_after=steps[-1][2] if steps else fitmod._swr_after(model, f0, z_ref, E, done))
 
 
 def advice_text(adv: SwrAdvice) -> str:
@@ -129,34 +248,51 @@ def advice_text(adv: SwrAdvice) -> str:
     u = d.output.units
     fmt = lambda m: units.format_length(abs(m), u)  # noqa: E731
     f0 = units.format_frequency(d.frequency_hz)
+    ohm = units.format_impedance(d.feed.impedance_ohm)
+    D0 = adv.built
     rows = [f"{d.title}  [{d.name}, document {d.document_id}]",
             f"{len(adv.frequency_hz)} SWR readings, {units.format_frequency(adv.frequency_hz[0])} to "
-            f"{units.format_frequency(adv.frequency_hz[-1])} (no phase)",
-            f"dip: SWR about {adv.dip_swr:.2f} at about {units.format_frequency(adv.dip_hz)} "
-            f"(a parabola through the lowest reading and its neighbours)", ""]
-    n = 0
-    if adv.dip_part is not None and abs(adv.dip_move_m) >= MIN_MOVE_M[u]:
-        n += 1
-        if adv.dip_part == "radiator":
-            what = f"{'lengthen' if adv.dip_move_m > 0 else 'shorten'} the radiator by {fmt(adv.dip_move_m)}"
-        else:
-            what = f"move the short {'up' if adv.dip_move_m > 0 else 'down'} by {fmt(adv.dip_move_m)}"
-        rows.append(f"  {n}. To put the dip on {f0}: {what} (the sheet's rule and rate); the dip's "
-                    f"depth stays about {adv.dip_swr:.2f} to first order.")
-    if adv.tap_if_high_m or adv.tap_if_low_m:
-        n += 1
-        rows.append(f"  {n}. The depth: SWR {adv.dip_swr:.2f} at the dip means R about "
-                    f"{d.feed.impedance_ohm * adv.dip_swr:.0f} Ω or about "
-                    f"{d.feed.impedance_ohm / adv.dip_swr:.0f} Ω there. If above, move the tap down by "
-                    f"{fmt(adv.tap_if_high_m)}; if below, up by {fmt(adv.tap_if_low_m)}.")
-        rows.append("     SWR alone cannot tell which side of "
-                    f"{units.format_impedance(d.feed.impedance_ohm)} R is, nor the sign of X. One more "
-                    f"reading settles it: move the tap up by {fmt(adv.tap_if_low_m)} and read the SWR at "
-                    "the dip again; lower means R was below (done), higher means move it back down by "
-                    f"{fmt(adv.tap_if_low_m)} and on by {fmt(adv.tap_if_high_m)}. (An analyzer's R reading "
-                    "at the dip settles it at once.)")
-    if n == 0:
-        rows.append(f"  Nothing to move: the dip is on {f0} and SWR {adv.dip_swr:.2f} is below "
-                    f"{STOP_SWR:g}.")
+            f"{units.format_frequency(adv.frequency_hz[-1])} (no phase), taken at the {adv.measured_at}"]
+    if adv.coax_note:
+        rows.append(f"  {adv.coax_note}; the figures below are at the tap")
+    rows += [f"dip: SWR about {adv.dip_swr:.2f} at about {units.format_frequency(adv.dip_hz)} "
+             f"(a parabola through the lowest reading and its neighbours)",
+             f"the antenna read: radiator {fmt(D0.radiator)}, stub {fmt(D0.stub)}, tap {fmt(D0.tap)} "
+             f"({adv.built_from}); the moves below are from these",
+             f"the model follows the readings (rms {adv.fit_rms:.3f} in |rho|) with stub "
+             f"{fmt(adv.electrical[1])} and tap {fmt(adv.electrical[2])}: the dip's width, not only its "
+             "depth, says where R and X stand at the dip, because the model knows how fast this "
+             "antenna's impedance moves with frequency", ""]
+    if not adv.steps:
+        rows.append(f"  Nothing to move ({units.length_rounding(u)}): predicted SWR at {f0} "
+                    f"{adv.swr_after:.2f}.")
+    else:
+        rows.append(f"To match at {f0}, in this order ({units.length_rounding(u)}; the radiator is left "
+                    "as it is, as the sheet's rule says until the match is made):")
+    stub_now, tap_now = D0.stub, D0.tap
+    for n, (part, m, after) in enumerate(adv.steps, 1):
+        then = f"; SWR at {f0} then about {after:.2f}"
+        if part == "short":
+            rows.append(f"  {n}. Short: move it {fmt(m)} {'toward' if m > 0 else 'away from'} the top "
+                        f"(stub {fmt(stub_now)} -> {fmt(stub_now - m)}; the tap clamp stays){then}.")
+            tap_now, stub_now = tap_now - m, stub_now - m
+        elif part == "tap":
+            rows.append(f"  {n}. Tap: move the clamp {fmt(m)} {'up' if m > 0 else 'down'}; it then sits "
+                        f"{fmt(tap_now + m)} above the short{then}.")
+            tap_now += m
+    rows.append(f"SWR alone cannot tell which side of {ohm} R is, nor the sign of X: the readings "
+                "are the same for an antenna and its mirror image about the match to first order.")
+    if adv.settle is not None:
+        fs, s1, s2 = adv.settle
+        alt = adv.alternative
+        moves = ", ".join(f"{p} {'+' if m > 0 else '-'}{fmt(m)}" for p, m, _ in alt["steps"]) or "none"
+        rows.append(f"  The other reading of them (rms {alt['fit_rms']:.3f}, against {adv.fit_rms:.3f}) "
+                    f"would call for: {moves}.")
+        rows.append(f"  One more reading settles it: the SWR at {units.format_frequency(fs)} should be "
+                    f"about {s1:.2f} for the advice above, about {s2:.2f} for the other.")
+    else:
+        rows.append("  One more reading settles it: an analyzer's R and X at the dip (no mirror image "
+                    "of the antenna fits these readings).")
     rows.append("Read the SWR again after each move, at the same frequencies.")
     return "\n".join(rows) + "\n"
+

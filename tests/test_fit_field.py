@@ -426,39 +426,30 @@ def test_swr_readings_find_the_dip_the_model_has():
 
 
 def nec_swr_round(design, built):
-    """One round of SWR-only advice on NEC-2 readings, the tap's side settled as the text says (a trial
-    move up; back and the other way if the SWR rose). Returns (SWR at f0 before, after, advice)."""
+    """One round of SWR-only advice on NEC-2 readings, the moves applied as printed. Returns (SWR at
+    f0 before, after, advice)."""
     from buildsheet import swronly
+    from buildsheet.solver import Dimensions
     f0 = design.frequency_hz
     f = f0 * READ_AT
     z = nec_sweep.nec_impedance(design, *built, np.concatenate([[f0], f]))
     rho = np.abs((z[1:] - 50) / (z[1:] + 50))
-    adv = swronly.advise(design, list(zip(f, rho)))
-    at_f0 = lambda v: float(swr(nec_sweep.nec_impedance(design, *v, [f0])[0], 50.0))  # noqa: E731
-    after = built.copy()
-    if adv.dip_part == "radiator":
-        after[0] += adv.dip_move_m
-    elif adv.dip_part == "short":
-        after[1:] -= adv.dip_move_m
-    if adv.tap_if_low_m:
-        trial = after.copy()
-        trial[2] += adv.tap_if_low_m
-        after[2] += adv.tap_if_low_m if at_f0(trial) < at_f0(after) else adv.tap_if_high_m
-    return float(swr(z[0], 50.0)), at_f0(after), adv
+    adv = swronly.advise(design, list(zip(f, rho)), built=Dimensions(*built, design.stub.spacing_m))
+    mv = adv.moves_rounded_m
+    after = built + np.array([mv["radiator"], -mv["short"], mv["tap"] - mv["short"]])
+    return float(swr(z[0], 50.0)), float(swr(nec_sweep.nec_impedance(design, *after, [f0])[0], 50.0)), adv
 
 
-@pytest.mark.parametrize("off,limit", [((1.03, 1.0, 1.0), 1.1), ((1.0, 1.0, 0.7), 1.5),
-                                       ((1.0, 1.0, 1.4), None)])
-def test_swr_only_round_on_nec_readings(off, limit):
-    """NEC-2 readings of a mis-cut antenna (SWR only). Measured while writing this: radiator 3 % long
-    1.87 -> 1.05, tap 30 % short 2.14 -> 1.37, tap 40 % long 1.90 -> 1.64 (the tap moves the dip, and
-    SWR alone takes it for the radiator's: the limit the text states)."""
+@pytest.mark.parametrize("off", [(1.03, 1.0, 1.0), (1.0, 1.0, 0.7), (1.0, 1.0, 1.4)])
+def test_swr_only_round_on_nec_readings(off):
+    """NEC-2 readings of a mis-cut antenna (SWR only, nine readings over +/-2.5 %), one round of the
+    advice: the issue's target is SWR 1.5 or lower. Measured while writing this (the model's |rho|
+    fitted to the readings): radiator 3 % long 1.89 -> 1.04, tap 30 % short 2.17 -> 1.03, tap 40 %
+    long 1.87 -> 1.02 (with the earlier parabola-and-rates advice the last was 1.64)."""
     design = free_design()
     before, after, adv = nec_swr_round(design, dims(design) * np.array(off))
     print(f"SWR only, {off}: NEC SWR at f0 {before:.2f} -> {after:.2f}")
-    assert after < before
-    if limit is not None:
-        assert after <= limit
+    assert after < before and after <= 1.5
 
 
 def test_swr_only_cli_says_what_swr_cannot_tell(capsys):
