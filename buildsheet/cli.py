@@ -223,7 +223,7 @@ def _fit(args) -> int:
         if args.write or args.json:
             raise BuildsheetError("SWR readings give advice only: --write and --json need a sweep with "
                                   "phase (R and X)", key="--swr")
-        print(advice_text(advise(design, [parse_reading(r) for r in args.swr])), end="")
+        print(advice_text(advise(design, [parse_reading(r) for r in args.swr], at=args.at)), end="")
         return 0
     fit = fit_sweep(design, read_sweep(args.sweep), at=args.at)
     written = write_calibration(args.design, fit, args.date) if args.write else None
