@@ -54,6 +54,11 @@ def _parser() -> argparse.ArgumentParser:
     p.add_argument("--resonance", metavar="FREQ", help="measured frequency of lowest SWR")
     p.add_argument("--swr", metavar="N", help="measured SWR, a plain number such as 1.3")
     p.add_argument("--note", metavar="TEXT", help="one line of free text")
+    p.add_argument("--readings", metavar="FILE", help="SWR readings taken on the antenna as this entry "
+                   "records it: a CSV of the sheet's measurement log (frequency, SWR, R (Ω), X (Ω)) or "
+                   "of frequency and SWR or return loss")
+    p.add_argument("--reading", metavar="F=SWR", action="append",
+                   help="one SWR reading, such as '14.1 MHz=1.8' or '14.1 MHz=RL 10 dB' (repeat)")
     p.set_defaults(run=_record)
 
     p = sub.add_parser("history", help="revisions of a design from git, with the key dimensions")
@@ -82,6 +87,11 @@ def _parser() -> argparse.ArgumentParser:
     p.add_argument("--swr", metavar="F=SWR", action="append",
                    help="an SWR reading without phase, such as '14.1 MHz=1.8' or '14.1 MHz=RL 10 dB' "
                    "(return loss); give three or more instead of SWEEP for the dip and advice")
+    p.add_argument("--readings", metavar="FILE",
+                   help="SWR readings from a CSV (the sheet's measurement log: frequency, SWR, R (Ω), X (Ω), "
+                   "what was changed; or frequency_mhz and SWR or return_loss_db) instead of SWEEP")
+    p.add_argument("--from-record", action="store_true",
+                   help="SWR readings from the latest as-built entry that has them (record --readings)")
     p.add_argument("--at", choices=("tap", "station"), default="tap",
                    help="where the sweep or readings were taken: at the tap (default) or at the station end "
                    "of the design's feed coax (carried back to the tap through it)")
@@ -215,15 +225,23 @@ def _fit(args) -> int:
     from buildsheet.touchstone import read_sweep
 
     design = _load(args)
-    if (args.sweep is None) == (not args.swr):
-        raise BuildsheetError("give either a SWEEP file or SWR readings (--swr), not both or neither",
-                              key="fit")
-    if args.swr:
-        from buildsheet.swronly import advice_text, advise, parse_reading
+    given = [args.sweep is not None, bool(args.swr), args.readings is not None, args.from_record]
+    if sum(given) != 1:
+        raise BuildsheetError("give one of a SWEEP file, SWR readings (--swr), a readings file "
+                              "(--readings) or --from-record", key="fit")
+    if not given[0]:
+        from buildsheet.swronly import advice_text, advise, as_rho, parse_reading, read_readings, record_readings
         if args.write or args.json:
             raise BuildsheetError("SWR readings give advice only: --write and --json need a sweep with "
                                   "phase (R and X)", key="--swr")
-        print(advice_text(advise(design, [parse_reading(r) for r in args.swr], at=args.at)), end="")
+        if args.swr:
+            adv = advise(design, [parse_reading(r) for r in args.swr], at=args.at)
+        elif args.readings is not None:
+            adv = advise(design, as_rho(read_readings(args.readings)[0]), at=args.at, source=args.readings)
+        else:
+            readings, entry, _ = record_readings(design)
+            adv = advise(design, as_rho(readings), at=args.at, source=design.path)
+        print(advice_text(adv), end="")
         return 0
     fit = fit_sweep(design, read_sweep(args.sweep), at=args.at)
     written = write_calibration(args.design, fit, args.date) if args.write else None
@@ -310,7 +328,19 @@ def _not_the_design(files, design: str) -> None:
 def _record(args) -> int:
     from buildsheet.record import ENTRY_KEYS, add_entry
 
-    added = add_entry(args.design, {key: getattr(args, key) for key in ENTRY_KEYS})
+    fields = {key: getattr(args, key) for key in ENTRY_KEYS if key != "readings"}
+    if args.readings is not None or args.reading:
+        from buildsheet.design import Reading
+        from buildsheet.swronly import parse_reading, read_readings
+        if args.readings is not None and args.reading:
+            raise BuildsheetError("give the readings as a FILE or typed (--reading), not both",
+                                  key="--readings")
+        if args.readings is not None:
+            fields["readings"] = read_readings(args.readings)[0]
+        else:
+            fields["readings"] = [Reading(frequency_hz=f, swr=float(f"{(1 + r) / (1 - r):.4g}"))
+                                  for f, r in (parse_reading(t, "--reading") for t in args.reading)]
+    added = add_entry(args.design, fields)
     print(f"{added.path}: as-built entry {added.index + 1} ({added.entry.date}) added; document ID "
           f"{added.document_id} unchanged; the previous file is {added.backup}")
     return 0

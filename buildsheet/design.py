@@ -143,6 +143,15 @@ class Calibration:
 
 
 @dataclass(frozen=True)
+class Reading:
+    """One reading of the sheet's measurement log: frequency (Hz), SWR, and R and X (ohm) if read."""
+    frequency_hz: float
+    swr: float
+    r_ohm: float | None = None
+    x_ohm: float | None = None
+
+
+@dataclass(frozen=True)
 class RecordEntry:
     """One as-built entry; lengths in m, resonance in Hz, None where not measured."""
     date: str
@@ -153,6 +162,8 @@ class RecordEntry:
     resonance_hz: float | None = None
     swr: float | None = None
     note: str | None = None
+    #: the readings of the measurement log taken on the antenna as this entry records it (Reading)
+    readings: tuple = ()
 
 
 def latest_as_built(record: tuple) -> RecordEntry | None:
@@ -661,7 +672,9 @@ class _Validator:
         values: dict = {"date": when}
         for k in entry:
             row = schema.row(f"{key}.{k}")
-            if row.kind in ("length", "frequency"):
+            if k == "readings":
+                values["readings"] = self.readings(f"{key}.readings", entry[k])
+            elif row.kind in ("length", "frequency"):
                 v = self.quantity(f"{key}.{k}", row.kind)
                 if v <= row.lo:
                     raise self.fail(f"{key}.{k}", "must be greater than zero")
@@ -669,6 +682,30 @@ class _Validator:
             elif k != "date":
                 values[k] = self.value(f"{key}.{k}")
         return RecordEntry(**values)
+
+    def readings(self, key: str, raw) -> tuple:
+        """The readings of an as-built entry: a list of {frequency, swr, r, x} (r and x optional)."""
+        if raw is None:
+            return ()
+        if not isinstance(raw, list):
+            raise self.fail(key, f"must be a list of readings {{frequency, swr, r, x}}, got {_describe(raw)}")
+        allowed = ("frequency", "swr", "r", "x")
+        out = []
+        for i, item in enumerate(raw):
+            k = f"{key}.{i}"
+            if not isinstance(item, dict):
+                raise self.fail(k, f"must be a mapping {{frequency, swr, r, x}}, got {_describe(item)}")
+            self.refuse_unknown(item, f"{k}.", allowed, schema.KEYS["record.N.readings"].unknown)
+            for need in ("frequency", "swr"):
+                if need not in item:
+                    raise self.fail(k, f"is missing `{need}` (a reading is a frequency and an SWR)")
+            f = self.quantity(f"{k}.frequency", "frequency")
+            if not f > 0:
+                raise self.fail(f"{k}.frequency", "must be greater than zero")
+            out.append(Reading(frequency_hz=f, swr=self.value(f"{k}.swr"),
+                               r_ohm=self.quantity(f"{k}.r", "impedance") if "r" in item else None,
+                               x_ohm=self.quantity(f"{k}.x", "impedance") if "x" in item else None))
+        return tuple(out)
 
     # -- cross checks (those on the solved geometry are in solver.py: check_*_clearance) --
     def cross_checks(self, d: Design) -> None:

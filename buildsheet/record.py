@@ -26,7 +26,7 @@ from dataclasses import dataclass
 import yaml
 
 from buildsheet import units
-from buildsheet.design import DATE_FORMAT, RecordEntry, parse_date
+from buildsheet.design import DATE_FORMAT, Reading, RecordEntry, parse_date
 from buildsheet.editing import after_block, lead, newline, put_block, scalar, top_level, update_design
 from buildsheet.errors import BuildsheetError, DesignError, RecordError, one_line
 from buildsheet.schema import ENTRY_KEYS
@@ -96,7 +96,7 @@ def _entry(fields: Mapping[str, str], path: str) -> tuple[dict[str, str], Record
     for key in ENTRY_KEYS:
         if fields.get(key) is None:
             continue
-        typed = str(fields[key]).strip()
+        typed = str(fields[key]).strip() if key != "readings" else ""
         if key == "date":
             when = parse_date(typed)
             if when is None:
@@ -109,6 +109,8 @@ def _entry(fields: Mapping[str, str], path: str) -> tuple[dict[str, str], Record
             except BuildsheetError as exc:
                 raise fail(key, exc.problem) from None
             written[key] = scalar(typed)
+        elif key == "readings":
+            written[key], values[key] = _readings(fields[key], fail)
         elif key == "swr":
             if not _SWR.match(typed):
                 raise fail(key, f"must be a plain number such as 1.3, got '{one_line(typed)}'")
@@ -117,6 +119,29 @@ def _entry(fields: Mapping[str, str], path: str) -> tuple[dict[str, str], Record
             # text rules (one line, printable in the sheet's font) are the validator's, on read-back
             written[key], values[key] = scalar(typed), typed
     return written, RecordEntry(**values)
+
+
+def _readings(readings, fail) -> tuple[str, tuple]:
+    """(a YAML flow list of {frequency, swr, r, x}, the Reading tuple it reads back as) from
+    design.Reading objects (swronly.read_readings or typed readings). Values are written to 9
+    significant digits, the frequency in MHz: what reads back is what is stored."""
+    if not readings:
+        raise fail("readings", "holds no readings")
+    items, back = [], []
+    for r in readings:
+        f = float(f"{r.frequency_hz / 1e6:.9g}") * 1e6
+        parts = [f"frequency: {r.frequency_hz / 1e6:.9g} MHz", f"swr: {r.swr:.9g}"]
+        extra = {}
+        for name, attr in (("r", "r_ohm"), ("x", "x_ohm")):
+            v = getattr(r, attr)
+            if v is not None:
+                parts.append(f"{name}: {v:.9g} ohm")
+                extra[attr] = float(f"{v:.9g}")
+        items.append("{" + ", ".join(parts) + "}")
+        back.append(Reading(frequency_hz=units.parse_quantity(f"{r.frequency_hz / 1e6:.9g} MHz", "frequency"),
+                            swr=float(f"{r.swr:.9g}"), **extra))
+        del f
+    return "[" + ", ".join(items) + "]", tuple(back)
 
 
 # ----------------------------------------------------------------------------------------------

@@ -301,7 +301,9 @@ TABLE: tuple = (
     Key("calibration.date", "text", hi=200),
 
     Key("record", "list", [], "`[]` (none)", unknown="is not a key of an as-built entry",
-        meaning="as-built entries `{date, site, radiator, stub, tap, resonance, swr, note}`"),
+        meaning="as-built entries `{date, site, radiator, stub, tap, resonance, swr, note, readings}`; "
+                "`readings` is a list of `{frequency, swr, r, x}` (r and x optional), as the sheet's "
+                "measurement log has them"),
     Key("record.N.date", "date", REQUIRED),
     Key("record.N.site", "text", hi=500),
     Key("record.N.radiator", **_ENTRY_LENGTH),
@@ -310,6 +312,11 @@ TABLE: tuple = (
     Key("record.N.resonance", "frequency", lo=0.0),
     Key("record.N.swr", "number", lo=1.0, hi=100.0, why="an SWR reading"),
     Key("record.N.note", "text", hi=500),
+    Key("record.N.readings", "list", [], unknown="is not a key of a reading (frequency, swr, r, x)"),
+    Key("record.N.readings.N.frequency", "frequency", REQUIRED, lo=0.0),
+    Key("record.N.readings.N.swr", "number", REQUIRED, lo=1.0, hi=100.0, why="an SWR reading"),
+    Key("record.N.readings.N.r", "impedance"),
+    Key("record.N.readings.N.x", "impedance"),
 )
 
 KEYS: dict[str, Key] = {row.path: row for row in TABLE if isinstance(row, Key)}

@@ -34,17 +34,17 @@ Method.
 
 from __future__ import annotations
 
+import math
 import re
 from dataclasses import dataclass
 
 import numpy as np
-
-from buildsheet import units
-from buildsheet.design import Design
-from buildsheet.errors import SweepError
 from scipy.optimize import least_squares
 
 from buildsheet import fit as fitmod
+from buildsheet import units
+from buildsheet.design import Design
+from buildsheet.errors import SweepError
 from buildsheet.physics.lines import reflection, swr_of
 from buildsheet.solver import solve
 
@@ -81,23 +81,23 @@ class SwrAdvice:
     coax_note: str | None = None
 
 
-def parse_reading(text: str) -> tuple[float, float]:
+def parse_reading(text: str, key: str = "--swr") -> tuple[float, float]:
     """'14.1 MHz=1.8' (SWR) or '14.1 MHz=RL 10 dB' (return loss) -> (Hz, |rho|); SweepError."""
     m = re.fullmatch(r"\s*([^=]+?)\s*=\s*(?:(rl)\s*([0-9.eE+-]+)\s*db|([0-9.eE+-]+))\s*", text, re.I)
     if not m:
         raise SweepError(f"'{text}' is not a reading: write FREQUENCY=SWR ('14.1 MHz=1.8') or "
-                         "FREQUENCY=RL dB ('14.1 MHz=RL 10 dB')", key="--swr")
+                         "FREQUENCY=RL dB ('14.1 MHz=RL 10 dB')", key=key)
     try:
         f = units.parse_quantity(m.group(1), "frequency")
     except Exception:
-        raise SweepError(f"'{m.group(1)}' is not a frequency with a unit", key="--swr") from None
+        raise SweepError(f"'{m.group(1)}' is not a frequency with a unit", key=key) from None
     value = float(m.group(3) or m.group(4))
     if m.group(2):
         if not value > 0:
-            raise SweepError(f"return loss {value:g} dB: it must be above 0 dB", key="--swr")
+            raise SweepError(f"return loss {value:g} dB: it must be above 0 dB", key=key)
         return f, 10.0 ** (-value / 20.0)
     if not value >= 1.0 or not np.isfinite(value):
-        raise SweepError(f"SWR {value:g}: an SWR is 1 or more", key="--swr")
+        raise SweepError(f"SWR {value:g}: an SWR is 1 or more", key=key)
     return f, (value - 1.0) / (value + 1.0)
 
 
@@ -296,3 +296,157 @@ def advice_text(adv: SwrAdvice) -> str:
     rows.append("Read the SWR again after each move, at the same frequencies.")
     return "\n".join(rows) + "\n"
 
+
+
+# ----------------------------------------------------------------------------------------------
+# Readings from a file: the sheet's measurement log typed into a CSV, or an analyzer's table of
+# frequency and SWR or return loss
+
+#: the columns a readings file may have (lower case, spaces trimmed): the sheet's log's own headings
+#: (sheet.LOG_COLUMNS) and the sweep CSV's style of names
+_FREQ_WITH_UNIT = ("frequency", "freq")
+_SWR_COLUMNS = ("swr",)
+_RL_COLUMNS = ("return_loss_db", "rl_db", "return loss (db)", "rl (db)")
+_R_COLUMNS = ("r (ω)", "r (ohm)", "r_ohm")
+_X_COLUMNS = ("x (ω)", "x (ohm)", "x_ohm")
+_IGNORED = ("#", "note")
+_CHANGED = ("what was changed",)
+
+
+def read_readings(path: str) -> tuple[list, str]:
+    """(readings, what was used) from a CSV of readings without phase (README: SWR readings): a header
+    naming a frequency column (`frequency`, values with their unit as written in the sheet's log, or
+    `frequency_hz`/`_khz`/`_mhz`), `SWR` or a return loss in dB (`return_loss_db`), optionally `R (Ω)`
+    and `X (Ω)`, `#` and `what was changed`. Where `what was changed` is filled in, the readings from
+    the last such row on are used (the antenna as it stands: write the change on the first reading
+    after it). SweepError naming the file and line otherwise. A Touchstone file always carries phase
+    and is a SWEEP, not readings."""
+    import csv
+    import io
+    import os
+
+    from buildsheet.design import Reading
+    from buildsheet.touchstone import _CSV_FREQUENCY, _read_text
+
+    ext = os.path.splitext(path)[1].lower()
+    if ext != ".csv":
+        hint = (" (a Touchstone file carries phase: give it as SWEEP, `fit DESIGN FILE`)"
+                if ext == ".s1p" else "")
+        raise SweepError(f"has the extension '{ext or '(none)'}'; readings are a CSV file (.csv) of "
+                         f"frequency and SWR or return loss{hint}", file=path)
+    text = _read_text(path)
+    reader = csv.reader(io.StringIO(text, newline=None))
+    header = None
+    rows = []
+    cols: dict = {}
+    for fields in reader:
+        line = reader.line_num
+        if not fields or all(not x.strip() for x in fields):
+            continue
+        if fields[0].lstrip().startswith("#") and fields[0].strip() != "#":
+            continue        # a comment line
+        if header is None:
+            header = [x.strip().lower() for x in fields]
+            for i, name in enumerate(header):
+                kind = ("f" if name in _FREQ_WITH_UNIT or name in _CSV_FREQUENCY else
+                        "swr" if name in _SWR_COLUMNS else "rl" if name in _RL_COLUMNS else
+                        "r" if name in _R_COLUMNS else "x" if name in _X_COLUMNS else
+                        "changed" if name in _CHANGED else "skip" if name in _IGNORED else None)
+                if kind is None:
+                    raise SweepError(f"the header's '{fields[i].strip()}' is not a column of readings; "
+                                     "expected frequency (or frequency_mhz ...), SWR or return_loss_db, "
+                                     "and optionally R (Ω), X (Ω), #, what was changed (the sheet's "
+                                     "measurement log)", file=path, line=line)
+                if kind in cols and kind != "skip":
+                    raise SweepError(f"the header names the column '{name}' twice", file=path, line=line)
+                cols[kind] = i
+            if "f" not in cols or ("swr" in cols) == ("rl" in cols):
+                raise SweepError("the header must name a frequency column and one of SWR or "
+                                 "return_loss_db", file=path, line=line)
+            continue
+        def cell(k, fields=fields):
+            return fields[cols[k]].strip() if k in cols and cols[k] < len(fields) else ""
+        if not cell("f") and not cell("swr") and not cell("rl"):
+            continue        # a row of the log with only a change or a note
+        rows.append((line, cell))
+    if header is None or not rows:
+        raise SweepError("holds no readings (a header, then one line per frequency)", file=path)
+    marked = [i for i, (_, cell) in enumerate(rows) if cell("changed")] if "changed" in cols else []
+    if marked:
+        rows = rows[marked[-1]:]
+    readings = []
+    fname = header[cols["f"]]
+    for line, cell in rows:
+        try:
+            if fname in _CSV_FREQUENCY:
+                f = float(cell("f")) * _CSV_FREQUENCY[fname]
+                if not math.isfinite(f):
+                    raise ValueError
+            else:
+                f = units.parse_quantity(cell("f"), "frequency")
+        except Exception:
+            raise SweepError(f"'{cell('f')}' is not a frequency ({fname}"
+                             f"{'' if fname in _CSV_FREQUENCY else ': a number with its unit, 14.1 MHz'})",
+                             file=path, line=line) from None
+        kind = "swr" if "swr" in cols else "rl"
+        try:
+            v = float(cell(kind))
+        except ValueError:
+            raise SweepError(f"'{cell(kind)}' is not a number ({header[cols[kind]]})", file=path,
+                             line=line) from None
+        if kind == "swr" and not (1.0 <= v <= 100.0):
+            raise SweepError(f"SWR {v:g}: an SWR reading is from 1 to 100", file=path, line=line)
+        if kind == "rl":
+            if not (0.0 < v <= 60.0):
+                raise SweepError(f"return loss {v:g} dB: it must be above 0 and at most 60 dB",
+                                 file=path, line=line)
+            r = 10.0 ** (-v / 20.0)
+            v = (1 + r) / (1 - r)
+            if v > 100.0:
+                raise SweepError(f"return loss {cell(kind)} dB is SWR above 100", file=path, line=line)
+        extra = {}
+        for k, name in (("r", "r_ohm"), ("x", "x_ohm")):
+            if cell(k):
+                try:
+                    extra[name] = units.parse_quantity(cell(k), "impedance") if not _is_number(cell(k)) \
+                        else float(cell(k))
+                except Exception:
+                    raise SweepError(f"'{cell(k)}' is not an impedance ({header[cols[k]]})", file=path,
+                                     line=line) from None
+        if not (f > 0 and math.isfinite(f)):
+            raise SweepError(f"the frequency {cell('f')} must be above 0", file=path, line=line)
+        readings.append(Reading(frequency_hz=f, swr=v, **extra))
+    used = f"{len(readings)} readings" + (f", from line {rows[0][0]} on (the last row with 'what was "
+                                          "changed' filled in)" if marked else "")
+    return readings, used
+
+
+def _is_number(text: str) -> bool:
+    try:
+        float(text)
+        return True
+    except ValueError:
+        return False
+
+
+def as_rho(readings) -> list[tuple[float, float]]:
+    """(Hz, |rho|) of Reading objects: |rho| = (SWR - 1)/(SWR + 1)."""
+    return [(r.frequency_hz, (r.swr - 1.0) / (r.swr + 1.0)) for r in readings]
+
+
+def record_readings(design: Design):
+    """(readings, entry, index) of the latest as-built entry with readings; SweepError when there is
+    none, or when a later entry records a change of the antenna (the readings are of the antenna
+    before it)."""
+    from buildsheet.design import latest_as_built
+    with_readings = [(e.date, i, e) for i, e in enumerate(design.record) if e.readings]
+    if not with_readings:
+        raise SweepError("has no as-built entry with readings (`buildsheet record DESIGN --date D "
+                         "--readings FILE`)", file=design.path, key="record")
+    _, i, entry = max(with_readings, key=lambda t: t[:2])
+    built = latest_as_built(design.record)
+    if built is not None and built is not entry and (built.date, design.record.index(built)) > (entry.date, i):
+        raise SweepError(f"the latest readings ({entry.date}) were taken before the change the entry of "
+                         f"{built.date} records: read the SWR again and record it", file=design.path,
+                         key=f"record.{i}.readings")
+    return list(entry.readings), entry, i

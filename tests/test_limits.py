@@ -216,7 +216,10 @@ def _any_quantity(accepted):
 
 def _record_swr(accepted):
     make = lambda v: _design("oak-yard-20m", {"record": [{"date": "2026-05-01", "swr": v}]})  # noqa: E731
-    return _range_cases("record.0.swr", accepted, make)
+    reading = lambda v: _design("oak-yard-20m", {"record": [  # noqa: E731
+        {"date": "2026-05-01", "readings": [{"frequency": "14.1 MHz", "swr": v}]}]})
+    return (_range_cases("record.0.swr", accepted, make)
+            + _range_cases("record.0.readings.0.swr", accepted, reading))
 
 
 def _loss(index: int):
@@ -284,7 +287,7 @@ BUILDERS = {
     ("`power.on_air`", "1 %"): _simple("power.on_air", "oak-yard-20m", lambda v: {"power.on_air": v}),
     ("`calibration.radiator_scale`, `calibration.end_resistance_scale`, `calibration.stub_velocity_scale`",
      "0.5 to 2"): _calibration_scales,
-    ("`record.N.swr`", "1 to 100"): _record_swr,
+    ("`record.N.swr`, `record.N.readings.N.swr`", "1 to 100"): _record_swr,
     ("(any quantity)", "at most 64"): _any_quantity,
 }
 #: file-level rows, each tested by its own function below

@@ -385,10 +385,14 @@ def test_permissions_are_kept(tmp_path):
 def test_splice_output_matches_its_read_back_for_the_entry_keys():
     # every key of DESIGN.md §4 is written, in that order, and the validator accepts each
     written = {"date": "2026-05-01", "site": "yard", "radiator": "33 ft 4 in", "stub": "4.8 m",
-               "tap": "190 mm", "resonance": "14175 kHz", "swr": "1.15", "note": "ok"}
+               "tap": "190 mm", "resonance": "14175 kHz", "swr": "1.15", "note": "ok",
+               "readings": "[{frequency: 14.1 MHz, swr: 1.4}, {frequency: 14.2 MHz, swr: 1.2, r: 55 ohm, "
+                           "x: -3 ohm}]"}
     text = record_module.splice(COMMENTED, written)
     entry = design_from_text(text).record[-1]
     assert list(yaml.safe_load(text)["record"][-1]) == list(record_module.ENTRY_KEYS)
+    assert [(r.frequency_hz, r.swr, r.r_ohm, r.x_ohm) for r in entry.readings] == [
+        (14.1e6, 1.4, None, None), (14.2e6, 1.2, 55.0, -3.0)]
     assert entry.radiator_m == pytest.approx(33 * FOOT + 4 * INCH, abs=1e-12)
     assert (entry.stub_m, entry.tap_m, entry.resonance_hz) == pytest.approx((4.8, 0.19, 14.175e6))
 

@@ -46,7 +46,8 @@ def test_every_row_default_is_what_the_validator_applies():
 
 
 def test_derived_key_lists_come_from_the_table():
-    assert schema.ENTRY_KEYS == ("date", "site", "radiator", "stub", "tap", "resonance", "swr", "note")
+    assert schema.ENTRY_KEYS == ("date", "site", "radiator", "stub", "tap", "resonance", "swr", "note",
+                                 "readings")
     assert schema.CALIBRATION_PARAMETERS == ("radiator_scale", "end_resistance_scale", "stub_velocity_scale")
     assert schema.CALIBRATION_RANGE == (0.5, 2.0)
 
