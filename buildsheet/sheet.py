@@ -860,6 +860,13 @@ class _Context:
             Para(_e(f"Readings at the tap. Target at {self.f0}: R = "
                     f"{_ohm(self.d.feed.impedance_ohm)}, X = 0 Ω, SWR {STOP_SWR:g}:1 or "
                     "lower."), "note"),
+            Para(_e("Back into the tool: type the log into a CSV file whose first line holds these "
+                    "column names (the frequency with its unit, as written here; R and X may stay "
+                    "empty) and run `buildsheet fit DESIGN --readings FILE` for the next moves (add "
+                    "`--at station` for SWR read at the station end of the coax), or store it with "
+                    "the as-built entry: `buildsheet record DESIGN --date YYYY-MM-DD --readings "
+                    "FILE`. Write what you changed on the first reading after the change: only the "
+                    "readings from there on are used."), "note"),
             WriteIn(header=LOG_COLUMNS, widths=(0.35, 1.2, 0.7, 0.8, 0.8, 4.2), min_rows=12),
         )
 

@@ -75,6 +75,8 @@ class Coax:
     z0_ohm: float
     loss_db_f0: float
     frequency_hz: float
+    #: what the cut list says the length holds (the run, the choke's turns or a sleeve, the pigtail)
+    note: str = ""
 
     def loss_db(self, f) -> np.ndarray:
         """One-way matched loss, dB, at frequencies f (Hz)."""
@@ -87,7 +89,7 @@ def feed_coax(design: Design, solution: Solution) -> Coax:
     line = coax_line_model(design)
     f0 = design.frequency_hz
     coax = Coax(name=design.feed.coax, line=line, length_m=float(item.length_m),
-                z0_ohm=float(design.feed.coax_z0_ohm), loss_db_f0=0.0, frequency_hz=f0)
+                z0_ohm=float(design.feed.coax_z0_ohm), loss_db_f0=0.0, frequency_hz=f0, note=item.note)
     return Coax(**{**coax.__dict__, "loss_db_f0": float(coax.loss_db(f0))})
 
 
@@ -146,7 +148,7 @@ def hidden_text(coax: Coax, u: str = "metric") -> str:
     a = coax.loss_db_f0
     shown = lambda s: swr_of(((s - 1) / (s + 1)) * 10 ** (-a / 10))  # noqa: E731
     return (f"measured at the station through {units.format_length(coax.length_m, u)} of "
-            f"{coax.name} (the run, the choke's turns and the pigtail; velocity factor "
+            f"{coax.name} (the cut list's feed coax: {coax.note}; velocity factor "
             f"{float(coax.line.velocity_factor(coax.frequency_hz)):.3g}, matched loss {a:.2f} dB at "
             f"{units.format_frequency(coax.frequency_hz)}): reflections come back {2 * a:.2f} dB weaker, "
             f"so SWR 1.5, 2 and 3 at the tap read {shown(1.5):.2f}, {shown(2.0):.2f} and {shown(3.0):.2f} "

@@ -46,6 +46,7 @@ from buildsheet import units
 from buildsheet.design import Design
 from buildsheet.errors import SweepError
 from buildsheet.physics.lines import reflection, swr_of
+from buildsheet.sheet import LOG_COLUMNS
 from buildsheet.solver import solve
 
 #: readings the parabola passes through: the lowest and its neighbours (module docstring, step 2)
@@ -304,13 +305,14 @@ def advice_text(adv: SwrAdvice) -> str:
 
 #: the columns a readings file may have (lower case, spaces trimmed): the sheet's log's own headings
 #: (sheet.LOG_COLUMNS) and the sweep CSV's style of names
-_FREQ_WITH_UNIT = ("frequency", "freq")
-_SWR_COLUMNS = ("swr",)
+_LOG = tuple(c.lower() for c in LOG_COLUMNS)        # #, frequency, swr, r (ω), x (ω), what was changed
+_FREQ_WITH_UNIT = (_LOG[1], "freq")
+_SWR_COLUMNS = (_LOG[2],)
 _RL_COLUMNS = ("return_loss_db", "rl_db", "return loss (db)", "rl (db)")
-_R_COLUMNS = ("r (ω)", "r (ohm)", "r_ohm")
-_X_COLUMNS = ("x (ω)", "x (ohm)", "x_ohm")
-_IGNORED = ("#", "note")
-_CHANGED = ("what was changed",)
+_R_COLUMNS = (_LOG[3], "r (ohm)", "r_ohm")
+_X_COLUMNS = (_LOG[4], "x (ohm)", "x_ohm")
+_IGNORED = (_LOG[0], "note")
+_CHANGED = (_LOG[5],)
 
 
 def read_readings(path: str) -> tuple[list, str]:

@@ -150,3 +150,26 @@ def test_station_reading_above_what_the_coax_allows_is_refused(nec_case):
     near_open = np.full(len(f), 0.99)       # through 0.6 dB of coax a station can never read this
     with pytest.raises(SweepError, match="more than a passive antenna reflects"):
         station.rho_to_tap(f, near_open, coax)
+
+
+def test_swr_readings_at_the_station_give_the_advice_of_the_tap(nec_case, capsys):
+    """SWR read at the station is lower than at the tap (the coax's two-way loss); carried back, the
+    NEC-2 readings (through the scikit-rf line) give the tap's advice, and read as if at the tap they
+    would not."""
+    from buildsheet import swronly
+    design, built, _, _, coax, _ = nec_case
+    f = design.frequency_hz * np.array([0.975, 0.985, 0.99, 0.995, 1.0, 1.005, 1.01, 1.015, 1.025])
+    z_tap = nec_sweep.nec_impedance(design, *built, f)
+    z_st = skrf_station(f, z_tap, coax)
+    rho = lambda z: np.abs((z - 50) / (z + 50))  # noqa: E731
+    assert np.all(rho(z_st) < rho(z_tap))
+    b = Dimensions(*built, design.stub.spacing_m)
+    at_tap = swronly.advise(design, list(zip(f, rho(z_tap))), built=b)
+    at_station = swronly.advise(design, list(zip(f, rho(z_st))), at="station", built=b)
+    assert at_station.moves_rounded_m == at_tap.moves_rounded_m
+    naive = swronly.advise(design, list(zip(f, rho(z_st))), built=b)
+    assert naive.moves_rounded_m != at_tap.moves_rounded_m
+    typed = sum((["--swr", f"{fi / 1e6:.4f} MHz={(1 + r) / (1 - r):.3f}"] for fi, r in zip(f, rho(z_st))), [])
+    assert main(["fit", str(FREE), *typed, "--at", "station"]) == 0
+    out = capsys.readouterr().out
+    assert "taken at the station" in out and "reflections come back" in out
