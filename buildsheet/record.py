@@ -129,7 +129,6 @@ def _readings(readings, fail) -> tuple[str, tuple]:
         raise fail("readings", "holds no readings")
     items, back = [], []
     for r in readings:
-        f = float(f"{r.frequency_hz / 1e6:.9g}") * 1e6
         parts = [f"frequency: {r.frequency_hz / 1e6:.9g} MHz", f"swr: {r.swr:.9g}"]
         extra = {}
         for name, attr in (("r", "r_ohm"), ("x", "x_ohm")):
@@ -140,7 +139,6 @@ def _readings(readings, fail) -> tuple[str, tuple]:
         items.append("{" + ", ".join(parts) + "}")
         back.append(Reading(frequency_hz=units.parse_quantity(f"{r.frequency_hz / 1e6:.9g} MHz", "frequency"),
                             swr=float(f"{r.swr:.9g}"), **extra))
-        del f
     return "[" + ", ".join(items) + "]", tuple(back)
 
 

@@ -39,6 +39,7 @@ Method.
 
 from __future__ import annotations
 
+import dataclasses
 import math
 from dataclasses import dataclass
 
@@ -90,7 +91,7 @@ def feed_coax(design: Design, solution: Solution) -> Coax:
     f0 = design.frequency_hz
     coax = Coax(name=design.feed.coax, line=line, length_m=float(item.length_m),
                 z0_ohm=float(design.feed.coax_z0_ohm), loss_db_f0=0.0, frequency_hz=f0, note=item.note)
-    return Coax(**{**coax.__dict__, "loss_db_f0": float(coax.loss_db(f0))})
+    return dataclasses.replace(coax, loss_db_f0=float(coax.loss_db(f0)))
 
 
 def check_loss(coax: Coax, f, file: str | None, key: str | None = None) -> None:

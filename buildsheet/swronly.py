@@ -162,12 +162,18 @@ def advise(design: Design, readings: list[tuple[float, float]], at: str = "tap",
         except SweepError:
             other = None
     if other is not None:
-        # the frequency, across the readings, where the two antennas' SWR differ most
-        grid = np.linspace(f[0], f[-1], 201)
-        s1 = swr_of(np.abs(reflection(model.z_feed(grid, *best["electrical"]), z_ref)))
-        s2 = swr_of(np.abs(reflection(model.z_feed(grid, *other["electrical"]), z_ref)))
-        j = int(np.argmax(np.abs(np.log(s1) - np.log(s2))))
-        settle = (float(grid[j]), float(s1[j]), float(s2[j]))
+        # the frequency where the two antennas' SWR differ most: across the readings and half their
+        # span beyond each end, away from the frequencies already read (a reading there is in hand)
+        span = f[-1] - f[0]
+        grid = np.linspace(f[0] - span / 2, f[-1] + span / 2, 401)
+        gap = np.min(np.diff(f)) / 2
+        grid = grid[np.min(np.abs(grid[:, None] - f[None, :]), axis=1) >= gap]
+        # (told apart in |rho|, which a meter's scale resolves about evenly; in SWR a difference
+        # between two high readings would look large and be hard to read)
+        r1 = np.abs(reflection(model.z_feed(grid, *best["electrical"]), z_ref))
+        r2 = np.abs(reflection(model.z_feed(grid, *other["electrical"]), z_ref))
+        j = int(np.argmax(np.abs(r1 - r2)))
+        settle = (float(grid[j]), float(swr_of(r1[j])), float(swr_of(r2[j])))
     return SwrAdvice(design=design, frequency_hz=f, rho=rho, dip_hz=float(dip_hz),
                      dip_swr=float(swr_of(depth)), built=D0, built_from=built_from,
                      electrical=best["electrical"], fit_rms=best["fit_rms"],
@@ -287,8 +293,8 @@ def advice_text(adv: SwrAdvice) -> str:
         fs, s1, s2 = adv.settle
         alt = adv.alternative
         moves = ", ".join(f"{p} {'+' if m > 0 else '-'}{fmt(m)}" for p, m, _ in alt["steps"]) or "none"
-        rows.append(f"  The other reading of them (rms {alt['fit_rms']:.3f}, against {adv.fit_rms:.3f}) "
-                    f"would call for: {moves}.")
+        rows.append(f"  Its mirror image (X of the other sign at the dip) fits them less well (rms "
+                    f"{alt['fit_rms']:.3f} against {adv.fit_rms:.3f}) and would call for: {moves}.")
         rows.append(f"  One more reading settles it: the SWR at {units.format_frequency(fs)} should be "
                     f"about {s1:.2f} for the advice above, about {s2:.2f} for the other.")
     else:

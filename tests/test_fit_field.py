@@ -452,6 +452,22 @@ def test_swr_only_round_on_nec_readings(off):
     assert after < before and after <= 1.5
 
 
+@pytest.mark.parametrize("off", [(1.0, 1.0, 0.7), (0.98, 1.0, 0.8)])
+def test_the_reading_that_settles_it_picks_the_antenna_nec_has(off):
+    """Where the readings leave a mirror-image alternative, the one further reading the advice names
+    must tell them apart on the real thing: NEC-2's SWR at that frequency lies nearer (in |rho|) to
+    the advice's antenna than to the alternative's."""
+    design = free_design()
+    built = dims(design) * np.array(off)
+    _, _, adv = nec_swr_round(design, built)
+    assert adv.settle is not None
+    fs, s1, s2 = adv.settle
+    assert not np.any(np.isclose(fs, adv.frequency_hz))
+    rho = lambda s: (s - 1) / (s + 1)  # noqa: E731
+    got = rho(float(swr(nec_sweep.nec_impedance(design, *built, [fs])[0], 50.0)))
+    assert abs(got - rho(s1)) < abs(got - rho(s2))
+
+
 def test_swr_only_cli_says_what_swr_cannot_tell(capsys):
     args = ["fit", str(FREE), "--swr", "13.9 MHz=2.5", "--swr", "14.0 MHz=1.6", "--swr",
             "14.1 MHz=RL 14 dB", "--swr", "14.2 MHz=2.2", "--swr", "14.3 MHz=3.5"]
