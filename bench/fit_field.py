@@ -120,6 +120,8 @@ def others_refused(design, coax):
 
 
 def main():
+    # the commit the run starts from (read before the run: the tree may move on while it runs)
+    commit = subprocess.run(["git", "rev-parse", "HEAD"], cwd=ROOT, capture_output=True, text=True).stdout.strip()
     rows = []
     for name in DESIGNS:
         design = load_design(ROOT / "tests" / "data" / name)
@@ -176,7 +178,6 @@ def main():
     print(f"station, cable off (vf x{CABLE_VF_OFF}, loss x{CABLE_LOSS_OFF}): {summary['station_cable_off']}")
     print(f"other-antenna sweeps refused: {refused['tap']} of {refused['offered']} at the tap, "
           f"{refused['station']} of {refused['offered']} at the station")
-    commit = subprocess.run(["git", "rev-parse", "HEAD"], cwd=ROOT, capture_output=True, text=True).stdout.strip()
     now = datetime.now(timezone.utc)
     out = ROOT / "bench" / "data" / f"fit_field-{now:%Y%m%d}.json"
     out.write_text(json.dumps(dict(provenance=dict(script="bench/fit_field.py", commit=commit,
