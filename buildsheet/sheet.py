@@ -904,15 +904,23 @@ class _Context:
                     _e(_swr(float(sw.swr[best]))), "")
         rows = [designed]
         for entry in d.record:
+            resonance, swr_read, note = entry.resonance_hz, entry.swr, entry.note or ""
+            if entry.readings:
+                # the entry's SWR readings (record --readings): their lowest where the entry gives
+                # no resonance of its own, and how many there are beside the note
+                low = min(entry.readings, key=lambda r: r.swr)
+                if resonance is None:
+                    resonance, swr_read = low.frequency_hz, low.swr
+                n = len(entry.readings)
+                note = f"{note} ({n} SWR reading{'s' if n != 1 else ''} stored)".strip()
             rows.append((
                 _e(entry.date), _e(entry.site or ""),
                 self.built(entry.radiator_m, dims.radiator), self.built(entry.stub_m, dims.stub),
                 self.built(entry.tap_m, dims.tap),
-                _e(_freq(entry.resonance_hz)) + _e(
-                    f" ({(entry.resonance_hz - s.frequency_hz) / 1e3:+.0f} kHz)")
-                if entry.resonance_hz is not None else "",
-                _e(f"{entry.swr:.2f}") if entry.swr is not None else "",
-                _e(entry.note or "")))
+                _e(_freq(resonance)) + _e(f" ({(resonance - s.frequency_hz) / 1e3:+.0f} kHz)")
+                if resonance is not None else "",
+                _e(f"{swr_read:.2f}") if swr_read is not None else "",
+                _e(note)))
         return (
             *render_blocks("asbuilt.j2", entries=len(d.record)),
             Table(header=("date", "site", "radiator", "stub", "tap", "lowest SWR at", "SWR", "note"),

@@ -160,3 +160,22 @@ def test_sheet_says_how_the_log_comes_back():
     sheet = build_sheet(design, solve(design), "2026-01-01")
     text = " ".join(b.text for b in sheet.section("log").blocks if isinstance(b, Para))
     assert "--readings FILE" in text and "column names" in text
+
+
+def test_sheet_as_built_table_shows_the_stored_readings(tmp_path):
+    """The record's readings on paper: the entry's row gives their lowest SWR and where, and how
+    many are stored (the same readings the design file holds)."""
+    import html
+    import re
+
+    from buildsheet.design import design_from_text
+    from buildsheet.sheet import Table, build_sheet
+    text = FREE.read_text() + ("record:\n  - date: 2026-06-01\n    readings: [{frequency: 14.0 MHz, swr: 1.9}, "
+                               "{frequency: 14.1 MHz, swr: 1.3}, {frequency: 14.2 MHz, swr: 2.4}]\n")
+    design = design_from_text(text, "free.yaml")
+    sheet = build_sheet(design, solve(design), "2026-06-02")
+    table = next(b for b in sheet.section("as-built").blocks
+                 if isinstance(b, Table) and b.header[:2] == ("date", "site"))
+    row = [html.unescape(re.sub(r"<[^>]+>", "", c)).replace("\u00a0", " ") for c in table.rows[-1]]
+    assert row[0] == "2026-06-01" and row[5].startswith("14.100 MHz") and row[6] == "1.30"
+    assert "3 SWR readings stored" in row[7]

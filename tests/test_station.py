@@ -173,3 +173,13 @@ def test_swr_readings_at_the_station_give_the_advice_of_the_tap(nec_case, capsys
     assert main(["fit", str(FREE), *typed, "--at", "station"]) == 0
     out = capsys.readouterr().out
     assert "taken at the station" in out and "reflections come back" in out
+
+
+def test_turn_per_percent_of_velocity_factor(nec_case):
+    """beta = 2 pi f/(vf c) (lossless phase constant, textbook; the catalogue's line is distortionless
+    so its beta is exactly that): a 1 % error of vf turns rho by 2 beta l 0.01 rad."""
+    design, _, _, _, coax, _ = nec_case
+    beta = 2 * math.pi * design.frequency_hz / (design.feed.coax_velocity_factor * 299_792_458.0)
+    assert station.turn_deg_per_percent(coax) == pytest.approx(
+        math.degrees(2 * beta * coax.length_m * 0.01), rel=1e-9)
+    assert f"about {station.turn_deg_per_percent(coax):.0f}°" in station.hidden_text(coax)
