@@ -48,6 +48,7 @@ from buildsheet.errors import SweepError
 from buildsheet.physics.lines import reflection, swr_of
 from buildsheet.sheet import LOG_COLUMNS
 from buildsheet.solver import solve
+from buildsheet.touchstone import FREQUENCY_RANGE_HZ
 
 #: readings the parabola passes through: the lowest and its neighbours (module docstring, step 2)
 PARABOLA_POINTS = 3
@@ -117,6 +118,12 @@ def advise(design: Design, readings: list[tuple[float, float]], at: str = "tap",
     if np.any(np.diff(f) <= 0):
         raise SweepError("two readings at the same frequency; give each frequency once", file=source,
                          key=key)
+    if not (FREQUENCY_RANGE_HZ[0] <= f[0] and f[-1] <= FREQUENCY_RANGE_HZ[1]):
+        raise SweepError("a reading's frequency is not between 1 Hz and 1 THz (is the unit right?)",
+                         file=source, key=key)
+    if np.ptp(rho) == 0:
+        raise SweepError("the readings are all the same SWR: they show no dip; read around the lowest "
+                         "SWR, where it rises on both sides", file=source, key=key)
     coax_note = None
     if at == "station":
         from buildsheet import station
@@ -347,7 +354,14 @@ def read_readings(path: str) -> tuple[list, str]:
     header = None
     rows = []
     cols: dict = {}
-    for fields in reader:
+    while True:
+        try:
+            fields = next(reader)
+        except StopIteration:
+            break
+        except csv.Error as exc:
+            raise SweepError(f"is not a CSV table the reader can take ({exc})", file=path,
+                             line=reader.line_num or None) from None
         line = reader.line_num
         if not fields or all(not x.strip() for x in fields):
             continue
@@ -421,8 +435,10 @@ def read_readings(path: str) -> tuple[list, str]:
                 except Exception:
                     raise SweepError(f"'{cell(k)}' is not an impedance ({header[cols[k]]})", file=path,
                                      line=line) from None
-        if not (f > 0 and math.isfinite(f)):
-            raise SweepError(f"the frequency {cell('f')} must be above 0", file=path, line=line)
+        lo, hi = FREQUENCY_RANGE_HZ
+        if not (lo <= f <= hi):
+            raise SweepError(f"the frequency {cell('f')} is not between 1 Hz and 1 THz (is the unit "
+                             "right?)", file=path, line=line)
         readings.append(Reading(frequency_hz=f, swr=v, **extra))
     used = f"{len(readings)} readings" + (f", from line {rows[0][0]} on (the last row with 'what was "
                                           "changed' filled in)" if marked else "")

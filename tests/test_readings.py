@@ -124,6 +124,8 @@ BAD = {
     "rl-zero.csv": ("frequency_mhz,return_loss_db\n14.1,0\n", "above 0"),
     "empty.csv": ("frequency,SWR\n", "holds no readings"),
     "sweep.s1p": ("# MHz S DB R 50\n14.1 -10 0\n", "carries phase"),
+    "huge-frequency.csv": ("frequency_mhz,SWR\n1e300,1.5\n", "between 1 Hz and 1 THz"),
+    "nul.csv": ("frequency_mhz,SWR\n14.1,1.5\n14\x00.2,1.6\n", "binary"),
 }
 
 
@@ -179,3 +181,11 @@ def test_sheet_as_built_table_shows_the_stored_readings(tmp_path):
     row = [html.unescape(re.sub(r"<[^>]+>", "", c)).replace("\u00a0", " ") for c in table.rows[-1]]
     assert row[0] == "2026-06-01" and row[5].startswith("14.100 MHz") and row[6] == "1.30"
     assert "3 SWR readings stored" in row[7]
+
+
+def test_readings_without_a_dip_are_refused_with_what_to_read(tmp_path, capsys):
+    flat = tmp_path / "flat.csv"
+    flat.write_text("frequency_mhz,SWR\n14.0,1.0\n14.1,1.0\n14.2,1.0\n")
+    assert main(["fit", str(FREE), "--readings", str(flat)]) == 2
+    err = capsys.readouterr().err
+    assert len(err.strip().splitlines()) == 1 and "all the same SWR" in err and "flat.csv" in err
