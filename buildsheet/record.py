@@ -38,6 +38,9 @@ OPTIONS = {**{k: f"--{k}" for k in ENTRY_KEYS}, "stub": "--short"}
 _QUANTITY_KEYS = {"radiator": ("length", "radiator_m"), "stub": ("length", "stub_m"),
                   "tap": ("length", "tap_m"), "resonance": ("frequency", "resonance_hz")}
 _SWR = re.compile(r"\d+(?:\.\d+)?\Z")
+#: most readings an entry keeps: an analyzer's longest common sweep (common practice: 101 to 1001
+#: points), well inside the design file's value limit (yamlread.MAX_NODES, 5 values a reading)
+MAX_READINGS = 1001
 
 
 @dataclass(frozen=True)
@@ -127,6 +130,9 @@ def _readings(readings, fail) -> tuple[str, tuple]:
     significant digits, the frequency in MHz: what reads back is what is stored."""
     if not readings:
         raise fail("readings", "holds no readings")
+    if len(readings) > MAX_READINGS:
+        raise fail("readings", f"holds {len(readings)} readings; an as-built entry keeps at most "
+                   f"{MAX_READINGS} (a log, not a sweep: keep the analyzer's file beside the design)")
     items, back = [], []
     for r in readings:
         parts = [f"frequency: {r.frequency_hz / 1e6:.9g} MHz", f"swr: {r.swr:.9g}"]

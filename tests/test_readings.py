@@ -189,3 +189,18 @@ def test_readings_without_a_dip_are_refused_with_what_to_read(tmp_path, capsys):
     assert main(["fit", str(FREE), "--readings", str(flat)]) == 2
     err = capsys.readouterr().err
     assert len(err.strip().splitlines()) == 1 and "all the same SWR" in err and "flat.csv" in err
+
+
+def test_a_sweep_sized_table_is_refused_by_record_with_the_limit(tmp_path, capsys):
+    from buildsheet.record import MAX_READINGS
+    from buildsheet.yamlread import MAX_NODES
+    assert 5 * MAX_READINGS < MAX_NODES
+    table = tmp_path / "long.csv"
+    f = np.linspace(13.0, 15.5, MAX_READINGS + 1)
+    table.write_text("frequency_mhz,SWR\n" + "".join(f"{x:.6f},{1.2 + abs(x - 14.2) * 5:.3f}\n" for x in f))
+    path = tmp_path / "free.yaml"
+    path.write_bytes(FREE.read_bytes())
+    assert main(["record", str(path), "--date", "2026-06-01", "--readings", str(table)]) == 2
+    err = capsys.readouterr().err
+    assert len(err.strip().splitlines()) == 1 and f"at most {MAX_READINGS}" in err
+    assert path.read_bytes() == FREE.read_bytes()
