@@ -141,10 +141,9 @@ def _check_passive_at_tap(mag, f, coax: Coax, file, key=None) -> None:
         i = bad[0]
         raise SweepError(
             f"carried back through {units.format_length(coax.length_m, 'metric')} of {coax.name} "
-            f"({coax.loss_db(f[i]):.2f} dB matched loss at {units.format_frequency(f[i])}) gives |rho| "
-            f"{mag[i]:.3g} at the tap, more than a passive antenna reflects: the reading is too high "
-            "for that coax (is it the design's coax and length? was it taken at the station end? is the "
-            "analyzer calibrated at the end of its cable?)", file=file, key=key)
+            f"({coax.loss_db(f[i]):.2f} dB at {units.format_frequency(f[i])}) gives |rho| {mag[i]:.3g} "
+            "at the tap, more than a passive antenna reflects: check the design's coax and length, "
+            "that it was read at the station end, and the analyzer's calibration", file=file, key=key)
 
 
 def hidden_text(coax: Coax, u: str = "metric") -> str:
