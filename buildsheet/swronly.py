@@ -469,7 +469,8 @@ def record_readings(design: Design):
                          "--readings FILE`)", file=design.path, key="record")
     _, i, entry = max(with_readings, key=lambda t: t[:2])
     built = latest_as_built(design.record)
-    if built is not None and built is not entry and (built.date, design.record.index(built)) > (entry.date, i):
+    j = next((k for k, e in enumerate(design.record) if e is built), -1)
+    if built is not None and built is not entry and (built.date, j) > (entry.date, i):
         raise SweepError(f"the latest readings ({entry.date}) were taken before the change the entry of "
                          f"{built.date} records: read the SWR again and record it", file=design.path,
                          key=f"record.{i}.readings")
