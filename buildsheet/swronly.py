@@ -1,9 +1,13 @@
 """SWR readings without phase -> the dip and advice, with what SWR alone cannot tell (issue 16, part 5).
-Owns reading typed SWR readings ("14.1 MHz=1.8"; or return loss, "14.1 MHz=RL 10 dB"), finding the dip
-from them and the advice. It changes no file.
+Owns reading SWR readings: typed ("14.1 MHz=1.8"; or return loss, "14.1 MHz=RL 10 dB"), from a CSV
+(the sheet's measurement log under its own column names, or frequency and SWR or return loss:
+read_readings) and from the record's latest entry with readings (record_readings); finding the dip
+from them and the advice. It changes no file (record.py stores readings).
 
 Method.
-1. |rho| from each reading: (SWR - 1)/(SWR + 1), or 10^(-RL/20) for a return loss RL in dB.
+1. |rho| from each reading: (SWR - 1)/(SWR + 1), or 10^(-RL/20) for a return loss RL in dB. Readings
+   taken at the station end of the feed coax are carried back to the tap first: |rho| times
+   10^(A/10), A the coax's one-way matched loss (station.py; exact on a line of real Z0).
 2. The dip. Near a match rho is close to linear in frequency, so |rho|^2 is a parabola in f
    (|rho|^2 = |rho_d|^2 + c (f - f_d)^2 for rho = rho_d + a (f - f_d) with a orthogonal to rho_d;
    any offset only shifts f_d): the parabola through the lowest reading and its two neighbours gives
