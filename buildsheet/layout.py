@@ -120,8 +120,8 @@ def describe(layout: SiteLayout, length) -> str:
                 f"up and {length(layout.standoff_m)} out from the trunk: the top insulator "
                 f"{length(layout.standoff_m)} below it, the antenna's top {length(layout.top_m)} up, "
                 f"{low_end} {length(layout.bottom_m)} up, tethered to a ground stake straight below "
-                "(or a weight of about 1 kg, common practice) so it hangs straight and does not swing "
-                "into the tree.")
+                "(or a weight of about 1 kg, common practice) so it hangs straight, clear of the "
+                "trunk.")
     if layout.orientation == "horizontal":
         return (f"Supports {length(layout.span_m)} apart: the radiator, an end insulator and "
                 f"{length(layout.standoff_m)} of rope at each end.")

@@ -717,6 +717,8 @@ class _Context:
             height=self.length(d.site.height_m), radiator=self.length(dims.radiator),
             radiator_end=self.radiator_end(), vertical=d.site.orientation == "vertical",
             inverted=d.site.orientation == "inverted", hung=d.hung,
+            short_side="above" if d.site.orientation == "inverted" else "below",
+            tap_side="below" if d.site.orientation == "inverted" else "above",
             stub=self.length(dims.stub), tap=self.length(dims.tap),
             wrap=self.length(s.wrap_allowance_m), rigid=rigid,
             f0=self.f0, best_swr=_swr(float(sw.swr[best])),
@@ -884,6 +886,8 @@ class _Context:
             v_far_pk=_volts(s.voltage_far_end_v_peak),
             i_short=_amps(s.current_short_a_rms),
             low_point=self.length(low_point) if low_point is not None else "", low_point_what=low_what,
+            # within 3 m of the ground: a standing person's reach (2.5 m, ratings.py) and a little more
+            low_point_near=low_point is not None and low_point < 3.0,
             d_general=self.distance(e.distance_general_m),
             d_controlled=self.distance(e.distance_controlled_m),
             general_name=general, controlled_name=controlled, standard=STANDARD_NAMES[e.standard],

@@ -908,12 +908,12 @@ def _cut_list(design: Design, d: Dimensions, wrap: float, ch, first: FirstCut,
                        if design.site.orientation == "vertical" else
                        ("above the short", "the radiator's far end"))
         hardware += [
-            HardwareItem("end insulators", 2, f"one at the top ({top}), on the halyard; one at the "
-                         f"bottom ({bottom}), on the tether"),
-            HardwareItem("throw weight and line, or a pulley", 1, "to get the halyard over the branch "
-                         "(a pulley on the branch lets the antenna be lowered and raised again)"),
-            HardwareItem("ground stake or weight", 1, "holds the tether (a weight: about 1 kg, "
-                         "common practice)"),
+            HardwareItem("end insulators", 2, f"top ({top}) on the halyard, bottom ({bottom}) on the "
+                         "tether"),
+            HardwareItem("throw weight and line, or a pulley", 1, "gets the halyard over the branch; a "
+                         "pulley lets the antenna down to tune"),
+            HardwareItem("ground stake or weight", 1, "holds the tether (weight about 1 kg, common "
+                         "practice)"),
         ]
     elif design.site.orientation == "inverted":
         hardware += [

@@ -482,7 +482,7 @@ def _overview_hung(ctx: _Context) -> tuple[Layout, float]:
     x_trunk = 46.0
     y_branch = 34.0
     y_ins = y_branch + 22.0                   # the top insulator's upper end
-    stub_span, rad_span = 150.0, 112.0
+    stub_span, rad_span = 128.0, 96.0
     sheet_items = []
     if inverted:
         y_short = y_ins + 16.0 + 12.0
@@ -496,7 +496,7 @@ def _overview_hung(ctx: _Context) -> tuple[Layout, float]:
         y_short = y_top + stub_span
         y_tap = y_short - tap_span
         y_bottom = y_short + 7.0
-    y_g = y_bottom + 16.0 + (84.0 if inverted else 58.0)
+    y_g = y_bottom + 16.0 + (72.0 if inverted else 58.0)
     body_h = y_g + 26.0
     sheet = Layout(WIDTH, body_h)
     sheet.add(*_ground(PAD, WIDTH - PAD, y_g))
@@ -658,6 +658,7 @@ def _radiator(ctx: _Context) -> Drawing:
     fmt = ctx.length
     rigid = s.parts.rigid_radiator
     vertical = d.site.orientation == "vertical"
+    inverted = d.site.orientation == "inverted"
     allowance = "allowance" if rigid else "wrap"
     body_h = 262.0
     sheet = Layout(WIDTH, body_h)
@@ -676,7 +677,8 @@ def _radiator(ctx: _Context) -> Drawing:
         sheet.add(Circle(x_a, y1, 1.8, width=0, fill=0.0))
         if not rigid:
             sheet.add(_wrap_mark(x_a + 2.0, y1, int(30.0 / WRAP_PITCH), "x", end=30.0))
-        sheet.callout(x_a - 18.0, y1 + 5.0, ["top end insulator" if vertical else "end insulator"],
+        sheet.callout(x_a - 18.0, y1 + 5.0, ["top end insulator" if vertical else
+                                             "bottom end insulator" if inverted else "end insulator"],
                       angles=(250, 270, 225, 290))
         sheet.callout(x_a, y1 - 2.0, ["attachment point"], angles=(110, 135, 90), radii=(30, 40, 52))
     # the stub's two conductors at its open top
@@ -728,6 +730,9 @@ def _radiator(ctx: _Context) -> Drawing:
     notes = ["Not to scale: the radiator is drawn shortened (break marks).", ctx.rounding_note()]
     if vertical:
         notes.insert(0, "Drawn lying down: the left end is the top of the vertical.")
+    elif inverted:
+        notes.insert(0, "Drawn lying down: the left end is the bottom of the upside-down antenna, "
+                        "the right end joins the stub above it.")
     return _finish(ctx, "Radiator: length and cut", sheet.items, body_h, notes)
 
 
@@ -795,9 +800,11 @@ def _stub(ctx: _Context) -> Drawing:
     sheet.add(Circle(x_j, y_top, 2.4, width=0, fill=0.0))
     if not s.parts.rigid_radiator:
         sheet.add(_wrap_mark(x_j, y_top + 2.0, 7, "y", amplitude=2.4))
-    if orientation == "vertical":
+    if orientation in ("vertical", "inverted"):
         sheet.add(Line(x_j, y_top, x_j, PAD + 8.0, width=CONDUCTOR + 0.3))
-        sheet.callout(x_j, (y_top + PAD + 8.0) / 2, ["radiator, straight up"], angles=(180, 200, 160))
+        sheet.callout(x_j, (y_top + PAD + 8.0) / 2, ["radiator, straight up"] if orientation == "vertical"
+                      else ["radiator (installed: hanging", "straight down from here)"],
+                      angles=(180, 200, 160))
     else:
         theta = 0.0 if orientation == "horizontal" else min(d.site.slope_rad, MAX_DRAWN_SLOPE)
         reach = 150.0
@@ -857,6 +864,10 @@ def _stub(ctx: _Context) -> Drawing:
     notes = ["Not to scale: the stub is drawn shortened (break marks).",
              "Stub: open top to the centre line of the short. Tap: centre line of the short to the "
              "tap point.", ctx.rounding_note()]
+    if orientation == "inverted":
+        notes.insert(0, "Drawn the right way up for the bench; installed, this antenna is upside down: "
+                        "the short at the top, the open top below, the radiator hanging from it. Lead "
+                        "the coax out sideways from the tap through the choke, then down (overview).")
     return _finish(ctx, "Stub: open top, short and tap", sheet.items, body_h, notes)
 
 
@@ -1138,7 +1149,8 @@ def _pattern(ctx: _Context) -> Drawing:
                               r.azimuth_gain_dbi, r.max_gain_dbi, r.takeoff_deg, r.azimuth_deg, free,
                               WIDTH, "Radiation pattern (predicted), gain in dBi")
     site = ctx.design.site
-    zero = ("the direction the radiator runs from the stub" if site.orientation != "vertical" else
+    zero = ("the direction the radiator runs from the stub"
+            if site.orientation not in ("vertical", "inverted") else
             "from the stub toward the conductor that carries the radiator")
     where = "in free space" if free else "over the site's ground (direct and ground-reflected wave)"
     notes = [f"Gain relative to the power delivered to the tap: the antenna's losses"
