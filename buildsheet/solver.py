@@ -910,10 +910,6 @@ def _cut_list(design: Design, d: Dimensions, wrap: float, ch, first: FirstCut,
         hardware += [
             HardwareItem("end insulators", 2, f"top ({top}) on the halyard, bottom ({bottom}) on the "
                          "tether"),
-            HardwareItem("throw weight and line, or a pulley", 1, "gets the halyard over the branch; a "
-                         "pulley lets the antenna down to tune"),
-            HardwareItem("ground stake or weight", 1, "holds the tether (weight about 1 kg, common "
-                         "practice)"),
         ]
     elif design.site.orientation == "inverted":
         hardware += [
