@@ -103,10 +103,10 @@ def _hung_layout(orientation: str, height_m: float, radiator_m: float, stub_m: f
         top, bottom = height_m, height_m - stub_m - radiator_m
         top_what, bottom_what = "the insulator above the short", "the radiator's end insulator"
     support = top + INSULATOR_M + gap
-    halyard = Rope("halyard", gap + support + TIE_OFF_M,
+    halyard = Rope("halyard rope", gap + support + TIE_OFF_M,
                    f"from {top_what} up over the branch (a throw weight and line gets it there) "
                    "or a pulley hung there (it lets the antenna down to tune), down to a cleat")
-    tether = Rope("tether", max(bottom - INSULATOR_M, 0.0) + TIE_OFF_M,
+    tether = Rope("tether rope", max(bottom - INSULATOR_M, 0.0) + TIE_OFF_M,
                   f"from {bottom_what} straight down to a ground stake (or a weight of about 1 kg)")
     return SiteLayout(orientation, height_m, gap, bottom if orientation == "inverted" else top, 0.0,
                       None, None, (halyard, tether), support, top, bottom)

@@ -574,15 +574,16 @@ def _overview_hung(ctx: _Context) -> tuple[Layout, float]:
 
     # dimensions: the tap beside the stub; the parts and the heights chained on the right
     if inverted:
-        sheet.add(_vdim(x_j, y_tap, y_short, tap_text, -34.0))
+        # measured from the short's centre line, as on the upright drawings (here downward)
+        sheet.add(Dimension(x_j, y_short, x_j, y_tap, tap_text, -34.0))
     else:
         sheet.add(_vdim(x_o, y_short, y_tap, tap_text, 34.0))
     x_d = 392.0
     if inverted:
         marks = ((y_short, x_o), (y_top, x_o), (y_far, x_j))
         chain = ((y_g, y_short, f"height {fmt(d.site.height_m)}", 36.0),
-                 (y_top, y_short, f"stub {fmt(dims.stub)}", 0.0),
-                 (y_far, y_top, f"radiator {fmt(dims.radiator)}", 0.0),
+                 (y_short, y_top, f"stub {fmt(dims.stub)}", 0.0),
+                 (y_top, y_far, f"radiator {fmt(dims.radiator)}", 0.0),
                  (y_g, y_far, f"far end at {fmt(d.site.height_m - dims.stub - dims.radiator)}", 0.0))
     else:
         marks = ((y_rt, x_j), (y_top, x_o), (y_short, x_o))
