@@ -650,10 +650,11 @@ def check_hanging_end_clearance(design: Design, radiator: float, stub: float, so
     clearance = RULES["hanging_end_clears_ground"].value
     far = site.height_m - stub - radiator
     if site.orientation == "inverted" and far < clearance:
-        about = "solved" if solved else "about"
+        where = f"{metres(far)} above" if far >= 0 else f"{metres(-far)} below"
+        lengths = (f"the solved stub is {metres(stub)}, the radiator {metres(radiator)}" if solved else
+                   f"the stub is about {metres(stub)}, the radiator {metres(radiator)}")
         raise design.fail("site.height", f"{metres(site.height_m)} to the short of an inverted antenna "
-                          f"puts the radiator's far end {metres(far)} above ground (the {about} stub "
-                          f"is {metres(stub)}, the radiator {metres(radiator)}); hang the short at "
+                          f"puts the radiator's far end {where} ground ({lengths}); hang the short at "
                           f"least {metres(stub + radiator + clearance)} up")
 
 
@@ -702,6 +703,11 @@ def _match(design: Design, ant, clearance: bool = True) -> tuple:
         with np.errstate(all="ignore"):
             stub, tap = jpole.solve_match(f0, z_feed, ant, radiator, prepared=at_f0)
     except ValueError as exc:       # ModelError, or a singular step of the numeric search
+        if clearance:
+            # an inverted radiator through the ground (image theory fails there): its quarter-wave
+            # stub estimated from the line says so
+            quarter = float(ant.stub_line.velocity_factor(f0)) * design.wavelength_m / 4
+            check_hanging_end_clearance(design, radiator, quarter, solved=False)
         raise _unmatched(design, exc) from None
     if clearance:
         check_stub_clearance(design, stub)
