@@ -473,14 +473,14 @@ def _overview_hung(ctx: _Context) -> tuple[Layout, float]:
     dims = s.dimensions
     fmt = ctx.length
     site = ctx.layout()
-    hung = site is not None
     inverted = d.site.orientation == "inverted"
     tap_text = f"tap {fmt(dims.tap)}"
     tap_span = _tap_span(tap_text)
     x_j, x_o = 230.0, 242.0
     x_mid = (x_j + x_o) / 2
     x_trunk = 46.0
-    y_branch = 34.0
+    hung = site is not None
+    y_branch = 34.0 if hung else 10.0
     y_ins = y_branch + 22.0                   # the top insulator's upper end
     stub_span, rad_span = 128.0, 96.0
     sheet_items = []
@@ -513,10 +513,12 @@ def _overview_hung(ctx: _Context) -> tuple[Layout, float]:
                             (x_trunk + 10.0, y_g - 40.0)), width=ROPE, dash=ROPE_DASH))
         sheet.add(Rect(x_trunk + 7.0, y_g - 42.0, 6.0, 4.0, width=0.6, fill=0.0))
     else:
-        x_m = x_o + 16.0
+        # the mast stands clear of the radiator, the stub held out on an arm with a stand-off insulator
+        x_m = x_o + 52.0
         sheet.add(BreakMark(x_m, y_short - 24.0, x_m, y_g, at=0.6, width=3.0))
         y_so = y_short + 15.0
-        sheet.add(Rect(x_o + 1.5, y_so - 2.5, x_m - x_o - 3.0, 5.0, width=0.6, fill=INSULATOR_GREY))
+        sheet.add(Rect(x_o + 1.5, y_so - 2.5, 18.0, 5.0, width=0.6, fill=INSULATOR_GREY))
+        sheet.add(Line(x_o + 19.5, y_so, x_m, y_so, width=2.0))
 
     # the stub: conductors broken between the tap and the open top, the short, the tap
     if inverted:
@@ -554,7 +556,7 @@ def _overview_hung(ctx: _Context) -> tuple[Layout, float]:
         sheet.add(_pole(x_stake, y_g - 9.0, y_g + 4.0, 3.0))
 
     # the feed: the coax from the tap through the choke to the station on the right
-    station_x = x_o + 66.0
+    station_x = x_o + (66.0 if hung else 72.0)
     y_coax = y_g - 4.0
     if inverted:
         x_c = x_o + 30.0
@@ -614,7 +616,8 @@ def _overview_hung(ctx: _Context) -> tuple[Layout, float]:
     else:
         sheet.callout(x_o + 5.0, y_short + 17.5, ["stand-off insulator"], angles=(330, 315, 345, 300),
                       radii=(30, 42, 56, 72))
-        sheet.callout(x_o + 16.0, y_g - 24.0, ["mast"], angles=(20, 0, 40, 340), radii=(20, 30, 42, 56))
+        sheet.callout(x_o + 52.0, y_g - 24.0, ["mast"], angles=(20, 0, 40, 340), radii=(20, 30, 42, 56))
+        sheet.callout(x_o + 36.0, y_short + 15.0, ["arm"], angles=(30, 0, 60), radii=(20, 30, 42))
         sheet.callout(x_j, y_far + 8.0, ["far end insulator"], angles=(200, 180, 160, 225))
     sheet.callout(x_j, y_short, ["short"], angles=(200, 180, 225, 160))
     sheet.callout(x_j, y_tap, ["tap"], angles=(160, 180, 135, 200) if not inverted else (200, 180, 225))
