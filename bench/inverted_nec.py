@@ -49,6 +49,7 @@ CASES = (
     acc.Case("12m-wire-inv-top12-perfect", 24.94e6, B12, AWG(14), AWG(14), 0.025, "inverted", 12.0,
              PERFECT),
     acc.Case("10m-wire-inv-top10-poor", 28.4e6, B10, AWG(14), AWG(14), 0.025, "inverted", 10.0, POOR),
+    acc.Case("10m-wire-inv-top8.2-avg", 28.4e6, B10, AWG(14), AWG(14), 0.025, "inverted", 8.2, AVG),
     acc.Case("20m-wire-inv-top18-avg", 14.175e6, B20, AWG(14), AWG(14), 0.025, "inverted", 18.0, AVG),
     acc.Case("2m-wire-inv-top2.2-avg", 146.0e6, B2, 0.002, 0.002, 0.025, "inverted", 2.2, AVG),
     acc.Case("2m-wire-inv-top3-avg", 146.0e6, B2, 0.002, 0.002, 0.025, "inverted", 3.0, AVG),
