@@ -6,7 +6,7 @@ model chooses radiator, stub and tap; NEC-2 (DESIGN.md §7 mesh, Sommerfeld-Nort
 the wires built to those dimensions. The same acceptance as the upright designs of
 tests/test_jpole_nec.py: SWR (50 ohm) at f0 <= 1.15, the 2:1 bands overlapping by >= 0.85
 (intersection/union), each edge within 10 % of NEC's 2:1 width. No constant of the model was fitted
-to these designs (held out). bench/inverted_nec.py runs nine such designs with the data stored in
+to these designs (held out). bench/inverted_nec.py runs ten such designs with the data stored in
 bench/data/inverted-nec-20261205.json; these four are a subset, an HF wire low over average ground
 (far end 0.6 m up), 20 m from an 18 m top, perfect ground, and a 2 m wire whose far end is 0.7 m up.
 """
