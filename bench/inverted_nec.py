@@ -13,6 +13,11 @@ of NEC's 2:1 width; and, as "before", NEC's SWR at f0 for the dimensions the mod
 not told the antenna is turned over (orientation vertical at the same short height: the image
 and coupling terms of the upright antenna). No constant was fitted to any of these designs
 (jpole.CAL is as bench/fdtd_fit.py fitted it on upright and horizontal designs).
+Also, from the same dimensions: the maximum gain (dBi, relative to the power in) and the take-off
+angle of the model's radiation (physics/radiation.py) and of NEC-2's RP grid
+(tests/test_radiation_nec.py compare), and over real ground the efficiency with the ground loss
+(model: jpole.state_at; NEC-2: its radiated fraction over its own lossless balance, as
+tests/test_jpole_nec.py measures it).
 """
 
 from __future__ import annotations
@@ -32,7 +37,9 @@ ROOT = Path(__file__).resolve().parents[1]
 sys.path.insert(0, str(ROOT / "tests"))
 import necref  # noqa: E402
 import test_jpole_nec as acc  # noqa: E402
+import test_radiation_nec as rad_nec  # noqa: E402
 
+from buildsheet.physics import jpole  # noqa: E402
 from buildsheet.physics.lines import swr  # noqa: E402
 
 AWG = acc.AWG
@@ -65,8 +72,23 @@ def edges(r) -> tuple[float, float] | None:
     return abs(m_lo - n_lo) / (n_hi - n_lo), abs(m_hi - n_hi) / (n_hi - n_lo)
 
 
+def efficiency(case: acc.Case) -> tuple[float, float]:
+    """(model, NEC-2) efficiency, radiated / delivered with the ground loss, as
+    tests/test_jpole_nec.py test_efficiency_with_ground_loss_matches_nec measures it: NEC's average
+    gain over the upper hemisphere over its own lossless free-space balance."""
+    ant, L, S, T = acc.model_design(case)
+    model = jpole.state_at(case.f0, ant, L, S, T, 100.0).efficiency
+    d = case.nec_dims(L, S, T)
+    raw = necref.jpole_model(d, [case.f0], pattern_step_deg=5.0).average_gain[0]
+    balance = necref.jpole_model(replace(d, ground=necref.Ground(), wire_sigma=None, stub_sigma=None),
+                                 [case.f0], pattern_step_deg=5.0).average_gain[0]
+    return float(model), float(raw / balance)
+
+
 def run_case(case: acc.Case) -> dict:
     r = acc.compare(case)
+    pat = rad_nec.compare(case)
+    eff = efficiency(case) if case.ground["ground_kind"] == "real" else None
     _, L0, S0, T0 = acc.model_design(replace(case, orientation="vertical"))
     z0 = necref.jpole_model(case.nec_dims(L0, S0, T0), [case.f0]).z_feed[0]
     return dict(case=case.name, f0=case.f0, height_top=case.height, ground=case.ground,
@@ -75,7 +97,10 @@ def run_case(case: acc.Case) -> dict:
                 z_nec=[r["z_nec"].real, r["z_nec"].imag], swr_nec=r["swr"],
                 band_nec=r["band_nec"], band_model=r["band_model"], overlap=r["overlap"],
                 edge_error=edges(r),
-                before=dict(L=L0, S=S0, T=T0, z_nec=[z0.real, z0.imag], swr_nec=float(swr(z0, 50.0))))
+                before=dict(L=L0, S=S0, T=T0, z_nec=[z0.real, z0.imag], swr_nec=float(swr(z0, 50.0))),
+                max_gain_dbi=dict(model=pat["model_gain"], nec=pat["nec_gain"]),
+                takeoff_deg=dict(model=pat["model_takeoff"], nec=pat["nec_takeoff"]),
+                efficiency=None if eff is None else dict(model=eff[0], nec=eff[1]))
 
 
 def main(argv) -> int:
@@ -88,8 +113,12 @@ def main(argv) -> int:
         e = row["edge_error"]
         print(f"{row['case']:30s} far end {row['far_end_height']:5.2f} m  NEC SWR {row['swr_nec']:.3f}"
               f"  overlap {row['overlap']:.3f}  edges {e[0]:.3f} {e[1]:.3f}"
-              f"  | not told it is inverted: SWR {row['before']['swr_nec']:.3f}  ({time.time() - t:.1f} s)",
-              flush=True)
+              f"  | not told it is inverted: SWR {row['before']['swr_nec']:.3f}", flush=True)
+        g, a, ef = row["max_gain_dbi"], row["takeoff_deg"], row["efficiency"]
+        print(f"{'':30s} gain model {g['model']:.2f} NEC {g['nec']:.2f} dBi, take-off model "
+              f"{a['model']:.1f} NEC {a['nec']:.1f} deg"
+              + (f", efficiency model {ef['model']:.3f} NEC {ef['nec']:.3f}" if ef else "")
+              + f"  ({time.time() - t:.1f} s)", flush=True)
     if out:
         try:
             commit = subprocess.run(["git", "-C", str(ROOT), "rev-parse", "HEAD"], capture_output=True,
