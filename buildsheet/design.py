@@ -694,6 +694,12 @@ class _Validator:
     # -- cross checks (those on the solved geometry are in solver.py: check_*_clearance) --
     def cross_checks(self, d: Design) -> None:
         stub, lam = d.stub, d.wavelength_m
+        if d.hung:
+            from buildsheet.solver import is_rigid     # the one threshold of pipe and rod (lazy: the
+            if is_rigid(d.radiator.diameter_m):        # solver imports this module)
+                raise self.fail("construction", f"hung is a wire hung by a rope; a "
+                                f"{mm(d.radiator.diameter_m)} radiator is pipe or rod: use construction: "
+                                "wire on a mast, or a wire radiator")
         touching = RULES["spacing_vs_conductor"].value
         if stub.spacing_m <= stub.conductor_diameter_m * touching:
             raise self.fail("stub.line", f"spacing {mm(stub.spacing_m)} must be larger than the "

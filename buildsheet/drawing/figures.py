@@ -985,6 +985,10 @@ def _short_tap(ctx: _Context) -> Drawing:
                      ["Keep the leads short. Weatherproof the coax end", "with self-amalgamating tape."],
                      size=LABEL)
     notes = [scale_note, ctx.rounding_note()]
+    if ctx.design.site.orientation == "inverted":
+        notes.insert(0, "Drawn the right way up for the bench; installed, upside down: the short at the "
+                        "top, the open top and the radiator below. Lead the coax out sideways from "
+                        "the tap through the choke, then down (overview).")
     return _finish(ctx, "Short and tap: how they are made", sheet.items, body_h, notes)
 
 
