@@ -48,12 +48,7 @@ def test_inverted_nec_swr_at_design_frequency(case, results):
 
 @pytest.mark.parametrize("case", CASES, ids=[c.name for c in CASES])
 def test_inverted_nec_and_model_2to1_bands_overlap(case, results):
-    r = results[case.name]
-    assert r["overlap"] >= 0.85, f"{case.name}: bands NEC {r['band_nec']} model {r['band_model']}"
-    (n_lo, n_hi), (m_lo, m_hi) = r["band_nec"], r["band_model"]
-    width = n_hi - n_lo
-    assert abs(m_lo - n_lo) <= 0.1 * width and abs(m_hi - n_hi) <= 0.1 * width, \
-        f"{case.name}: bands NEC {r['band_nec']} model {r['band_model']}"
+    acc.assert_bands_agree(case.name, results[case.name])
 
 
 def test_turning_over_moves_the_model_where_nec_moves():
