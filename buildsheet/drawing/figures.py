@@ -483,7 +483,6 @@ def _overview_hung(ctx: _Context) -> tuple[Layout, float]:
     y_branch = 34.0 if hung else 10.0
     y_ins = y_branch + 22.0                   # the top insulator's upper end
     stub_span, rad_span = 128.0, 96.0
-    sheet_items = []
     if inverted:
         y_short = y_ins + 16.0 + 12.0
         y_tap = y_short + tap_span
