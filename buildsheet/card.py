@@ -52,7 +52,9 @@ def _cut_list(ctx: _Context) -> tuple:
     return (
         Para(_e(f"Cut lengths include the allowances ({units.length_rounding(ctx.u)}; coax and rope "
                 f"{units.length_rounding(ctx.u, 'coarse')}). {ctx.cut_list_margin()}"
-                + (describe(site, lambda m: ctx.length(m, coarse=True)) if site else "")), "note"),
+                # a hung antenna's overview on the card's first page draws and states its site
+                + (describe(site, lambda m: ctx.length(m, coarse=True))
+                   if site and site.support_height_m is None else "")), "note"),
         Table(header=("part", "qty", "cut length", "material"), rows=cut_rows, widths=(1.6, 0.45, 1.1, 4.0),
               align=("left", "right", "right", "left"), boxes=tuple(i.quantity for i in s.cut_list)),
         Table(header=("qty", "hardware"), rows=tuple((str(h.quantity), _e(f"{h.item}: {ctx.hardware_note(h)}"))

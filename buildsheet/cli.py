@@ -112,10 +112,10 @@ def _parser() -> argparse.ArgumentParser:
     p.add_argument("--frequency", metavar="FREQ", help="design frequency, such as '14.2 MHz'")
     p.add_argument("--line", metavar="NAME", help="stub line from the catalogue (default window-450)")
     p.add_argument("--coax", metavar="NAME", help="feed coax from the catalogue (default RG-8X)")
-    p.add_argument("--orientation", choices=("horizontal", "sloper", "vertical"),
+    p.add_argument("--orientation", choices=("horizontal", "sloper", "vertical", "inverted"),
                    help="how it is hung (default: horizontal below 30 MHz, vertical above)")
-    p.add_argument("--height", metavar="LEN", help="height of the stub's open top (vertical: of the "
-                   "short), with a unit")
+    p.add_argument("--height", metavar="LEN", help="height of the stub's open top (vertical and "
+                   "inverted: of the short), with a unit")
     p.add_argument("--units", choices=("imperial", "metric"), help="units of the sheet")
     p.add_argument("--region", type=int, choices=(1, 2, 3), default=None, help="ITU region (default 2)")
     p.add_argument("--title", metavar="TEXT", help="title printed on the sheet")
@@ -154,8 +154,8 @@ def _parser() -> argparse.ArgumentParser:
 _QUESTIONS = (("band", "band, such as 20 m or 2 m (or leave empty and give a frequency)"),
               ("frequency", "design frequency, such as 14.2 MHz"),
               ("line", "stub line"), ("coax", "feed coax"),
-              ("orientation", "horizontal, sloper or vertical"),
-              ("height", "height of the stub's open top (vertical: of the short), such as 10 m"),
+              ("orientation", "horizontal, sloper, vertical or inverted"),
+              ("height", "height of the stub's open top (vertical and inverted: of the short), such as 10 m"),
               ("units", "imperial or metric"))
 
 

@@ -197,6 +197,13 @@ class Design:
     #: the `country` whose national band edges were asked for (None: the ITU table of the region);
     #: not part of the canonical form: the band edges it chose are
     country: str | None = None
+    #: how it is built (schema `construction`): 'wire' or 'hung'
+    construction: str = "wire"
+
+    @property
+    def hung(self) -> bool:
+        """A wire vertical hung by a rope (construction: hung): rope and insulators, no mast."""
+        return self.construction == "hung"
 
     @property
     def wavelength_m(self) -> float:
@@ -209,6 +216,8 @@ class Design:
         data = dataclasses.asdict(self)
         for key in ("title", "output", "record", "path", "lines", "country"):
             data.pop(key)
+        if data["construction"] == "wire":     # the default: designs from before the key keep their ID
+            data.pop("construction")
         data["stub"].pop("source")  # where the catalogue's numbers come from is not the antenna
         for part in ("stub", "radiator"):  # nor the range the sources give for a velocity factor
             data[part].pop("velocity_factor_spread")
@@ -468,7 +477,7 @@ class _Validator:
                         stub=self.stub_line(), feed=self.feed(), site=self.site(), power=self.power(),
                         output=Output(units=self.value("output.units"), paper=self.value("output.paper")),
                         calibration=self.calibration(), record=self.record(), path=self.path,
-                        country=country,
+                        country=country, construction=self.construction(),
                         lines={key: self.doc.line_of(self._path(key)) for key in schema.KEYS
                                if ".N." not in key and self.has(key)})
         self.cross_checks(design)
@@ -622,10 +631,22 @@ class _Validator:
                     impedance_ohm=self.value("feed.impedance", f"{coax.z0_ohm:g} ohm"),
                     length_m=self.value("feed.length"), choke_form_m=self.value("feed.choke_form"))
 
+    def construction(self) -> str:
+        construction = self.value("construction")
+        orientation = self.get("site.orientation")
+        if construction == "hung" and orientation not in ("vertical", "inverted"):
+            raise self.fail("construction", f"hung is a wire vertical hung by a rope; this design's "
+                            f"site.orientation is {orientation}: use vertical or inverted, or "
+                            "construction: wire")
+        return construction
+
     def site(self) -> Site:
         orientation = self.value("site.orientation")
         height = self.value("site.height")
-        if orientation != "vertical" and height <= 0.0:
+        if orientation == "inverted" and height <= 0.0:
+            raise self.fail("site.height", "must be above ground (an inverted antenna hangs from its "
+                            "short at this height)")
+        if orientation not in ("vertical", "inverted") and height <= 0.0:
             raise self.fail("site.height", "must be above ground (the stub's open top hangs from it)")
         if self.has("site.slope") and orientation != "sloper":
             raise self.fail("site.slope", f"applies only to a sloper; this design is {orientation}")
@@ -710,6 +731,12 @@ class _Validator:
     # -- cross checks (those on the solved geometry are in solver.py: check_*_clearance) --
     def cross_checks(self, d: Design) -> None:
         stub, lam = d.stub, d.wavelength_m
+        if d.hung:
+            from buildsheet.solver import is_rigid     # the one threshold of pipe and rod (lazy: the
+            if is_rigid(d.radiator.diameter_m):        # solver imports this module)
+                raise self.fail("construction", f"hung is a wire hung by a rope; a "
+                                f"{mm(d.radiator.diameter_m)} radiator is pipe or rod: use construction: "
+                                "wire on a mast, or a wire radiator")
         touching = RULES["spacing_vs_conductor"].value
         if stub.spacing_m <= stub.conductor_diameter_m * touching:
             raise self.fail("stub.line", f"spacing {mm(stub.spacing_m)} must be larger than the "

@@ -10,6 +10,12 @@ an insulator and a stand-off rope at each end. Sloper: the radiator slopes down 
 horizontal from the open top; its far end insulator is tied by an anchor rope continuing along the
 same straight line to a ground anchor (so the wire pulls straight), which is at h / tan(slope) from
 the point below the open top, plus the near stand-off from the support's foot.
+Hung (construction: hung, a wire vertical or inverted on a rope): the antenna hangs straight down
+from a top insulator on a halyard over a branch or a pulley, at least a stand-off above its top and
+out from the trunk; a tether from a bottom insulator to a ground stake straight below (or a weight)
+keeps it straight and off the trunk. Vertical: the top is the radiator's far end, at the short's
+height plus the stub and the radiator; inverted: the top is the short, at `height`, and the bottom
+is the radiator's far end, at the height less the stub and the radiator.
 """
 
 from __future__ import annotations
@@ -47,6 +53,11 @@ class SiteLayout:
     span_m: float | None
     anchor_distance_m: float | None
     ropes: tuple
+    #: hung only: the branch or pulley the halyard runs over, at least this high, m; the antenna's
+    #: top and bottom (the insulators' attachment points), m
+    support_height_m: float | None = None
+    top_m: float | None = None
+    bottom_m: float | None = None
 
 
 def standoff(wavelength_m: float) -> float:
@@ -57,10 +68,11 @@ def standoff(wavelength_m: float) -> float:
 
 
 def site_layout(orientation: str, height_m: float, slope_rad: float, radiator_m: float,
-                wavelength_m: float) -> SiteLayout | None:
-    """The layout of a horizontal or sloper (None for a vertical, which stands on its mast)."""
-    if orientation == "vertical":
-        return None
+                wavelength_m: float, stub_m: float = 0.0, hung: bool = False) -> SiteLayout | None:
+    """The layout of a horizontal, a sloper or a hung vertical (None for a vertical or inverted
+    antenna on a mast). stub_m: the solved stub (hung only), m."""
+    if orientation in ("vertical", "inverted"):
+        return _hung_layout(orientation, height_m, radiator_m, stub_m, wavelength_m) if hung else None
     gap = standoff(wavelength_m)
     halyard = 2.0 * height_m + gap + TIE_OFF_M
     near = Rope("rope, near end", halyard,
@@ -80,9 +92,37 @@ def site_layout(orientation: str, height_m: float, slope_rad: float, radiator_m:
                       gap + height_m / math.tan(slope_rad), (near, anchor))
 
 
+def _hung_layout(orientation: str, height_m: float, radiator_m: float, stub_m: float,
+                 wavelength_m: float) -> SiteLayout:
+    """A wire vertical or inverted antenna on a rope (see the module docstring)."""
+    gap = standoff(wavelength_m)
+    if orientation == "vertical":
+        top, bottom = height_m + stub_m + radiator_m, height_m
+        top_what, bottom_what = "the radiator's top insulator", "the insulator below the short"
+    else:
+        top, bottom = height_m, height_m - stub_m - radiator_m
+        top_what, bottom_what = "the insulator above the short", "the radiator's end insulator"
+    support = top + INSULATOR_M + gap
+    halyard = Rope("halyard rope", gap + support + TIE_OFF_M,
+                   f"from {top_what} up over the branch (a throw weight and line gets it there) "
+                   "or a pulley hung there (it lets the antenna down to tune), down to a cleat")
+    tether = Rope("tether rope", max(bottom - INSULATOR_M, 0.0) + TIE_OFF_M,
+                  f"from {bottom_what} straight down to a ground stake (or a weight of about 1 kg)")
+    return SiteLayout(orientation, height_m, gap, bottom if orientation == "inverted" else top, 0.0,
+                      None, None, (halyard, tether), support, top, bottom)
+
+
 def describe(layout: SiteLayout, length) -> str:
     """The layout in one sentence for the builder; `length(m)` formats a length (the sheet's units,
     to the inch or the cm: these are paced out, not cut)."""
+    if layout.support_height_m is not None:
+        low_end = "the short" if layout.orientation == "vertical" else "the radiator's far end"
+        return (f"Hang it from a branch or a halyard pulley at least {length(layout.support_height_m)} "
+                f"up and {length(layout.standoff_m)} out from the trunk: the top insulator "
+                f"{length(layout.standoff_m)} below it, the antenna's top {length(layout.top_m)} up, "
+                f"{low_end} {length(layout.bottom_m)} up, tethered to a ground stake straight below "
+                "(or a weight of about 1 kg, common practice) so it hangs straight, clear of the "
+                "trunk.")
     if layout.orientation == "horizontal":
         return (f"Supports {length(layout.span_m)} apart: the radiator, an end insulator and "
                 f"{length(layout.standoff_m)} of rope at each end.")

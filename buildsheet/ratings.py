@@ -285,7 +285,7 @@ def _stub_voltage(design, s) -> list[Finding]:
 
 
 def _insulators(design, s) -> list[Finding]:
-    if design.site.orientation == "vertical":
+    if design.site.orientation == "vertical" and not design.hung:
         return []        # the only insulators hold the stub below the short, near 0 V
     ins = ratings().insulators["end"]
     v = max(s.voltage_open_end_v_peak, s.voltage_far_end_v_peak)
@@ -446,16 +446,18 @@ def _reach(design, s) -> list[Finding]:
     u = design.output.units
     raise_by = REACH_M - low
     key = "site.height"
+    inverted = design.site.orientation == "inverted"
+    carries = (f"and carries up to {_v(s.voltage_far_end_v_peak)} peak" if inverted else
+               f"and the stub above it carries up to {_v(s.voltage_open_end_v_peak)} peak at its open top")
     return [Finding(
         part="lowest live point", anchor="reach",
-        figure=(f"{what} is {units.format_length(low, u)} above ground, and the stub above it carries "
-                f"up to {_v(s.voltage_open_end_v_peak)} peak at its open top"),
+        figure=f"{what} is {units.format_length(low, u)} above ground, {carries}",
         rating=(f"a standing person reaches {units.format_distance(REACH_M, u)} (the arm's reach of "
                 "IEC 60364-4-41, from memory)"),
-        change=(f"raise the {'short' if design.site.orientation == 'vertical' else 'open top'} "
+        change=(f"raise the {'short' if design.site.orientation in ('vertical', 'inverted') else 'open top'} "
                 f"({key}) by at least {units.format_length(raise_by, u)} (to "
                 f"{units.format_length(design.site.height_m + raise_by, u)}), or fence off the ground "
-                "under the stub so that nobody can reach it"))]
+                f"under {'it' if inverted else 'the stub'} so that nobody can reach it"))]
 
 
 def _exposure_reach(design, s) -> list[Finding]:
@@ -510,7 +512,7 @@ def assumptions(design: "Design", s: "Solution") -> tuple[str, ...]:
     conn = connector_for(design.frequency_hz)
     if _how_sure(conn.source) == "from memory":
         recalled.append(f"the {conn.name} connector's voltage")
-    if design.site.orientation != "vertical":
+    if design.site.orientation != "vertical" or design.hung:
         recalled.append("the end insulators' voltage")
     if not s.parts.rigid_stub:
         recalled.append("the wire's current")

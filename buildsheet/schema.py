@@ -248,12 +248,19 @@ TABLE: tuple = (
         why="something coax can be wound on",
         meaning="outer diameter of the form the choke's coax is wound on"),
 
+    Key("construction", "choice", "wire", choices=("wire", "hung"),
+        meaning="how it is built: `wire` (wire radiator, two-wire line stub, on a mast or between "
+                "supports), `hung` (a wire vertical hung by a rope from a tree or a halyard: rope and "
+                "insulators, no mast hardware; `site.orientation` vertical or inverted)"),
+
     Key("site", "mapping", unknown="is not a key of a design file"),
-    Key("site.orientation", "choice", REQUIRED, choices=("horizontal", "sloper", "vertical"),
-        meaning="horizontal, sloper or vertical"),
+    Key("site.orientation", "choice", REQUIRED, choices=("horizontal", "sloper", "vertical", "inverted"),
+        meaning="horizontal, sloper, vertical, or inverted (upside down: the short at the top, the "
+                "stub above, the radiator hanging below it)"),
     Key("site.height", "length", REQUIRED, lo=0.0, hi=300.0, show=metres, readme=_g("m"),
         why="a mast or a tree, not an aircraft",
-        meaning="horizontal/sloper: height of the stub's open top; vertical: height of the short"),
+        meaning="horizontal/sloper: height of the stub's open top; vertical and inverted: height of "
+                "the short (inverted: the top of the antenna)"),
     Rule("stub_clears_ground", "`site.height`",
          "horizontal and sloper: the stub's short at least {value} m above ground",
          "the stub hangs from the open top; its short must clear the ground (checked on the solved "
@@ -263,6 +270,11 @@ TABLE: tuple = (
         meaning="sloper: radiator angle below horizontal"),
     Rule("far_end_clears_ground", "`site.slope`", "the radiator's far end at least {value} m above ground",
          "the wire must clear the ground (checked on the solved radiator)", 0.3),
+    Rule("hanging_end_clears_ground", "`site.height`",
+         "inverted: the radiator's far end (the short's height less the stub and the radiator) at least "
+         "{value} m above ground",
+         "the radiator hangs below the stub; its far end must clear the ground (checked on the solved "
+         "stub and radiator; NEC-2 SWR 1.09 with the far end 0.37 m up on 10 m, bench/inverted_nec.py)", 0.3),
     Key("site.ground", "form", "average", choices="ground", unit="name or mapping",
         unknown="is not a key of a ground",
         meaning="free-space, perfect, poor, average, very-good, sea-water, or "

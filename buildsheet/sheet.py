@@ -418,7 +418,7 @@ class _Context:
         """Where the radiator's length starts (DESIGN.md §5): the far end insulator's attachment
         point, or the free top of a vertical."""
         if self.d.site.orientation == "vertical":
-            return "free top end"
+            return "top insulator's attachment point" if self.d.hung else "free top end"
         return "far end insulator's attachment point"
 
     def line_name(self) -> str:
@@ -451,13 +451,19 @@ class _Context:
         if site.orientation == "sloper":
             return (f"sloper, the radiator {units.format_angle(site.slope_rad)} below horizontal; the "
                     f"stub's open top {h} above {self.ground()}")
-        return f"vertical; the short {h} above {self.ground()}, the stub and radiator standing above it"
+        rope = ", hung on a rope" if self.d.hung else ""
+        if site.orientation == "inverted":
+            dims = self.s.dimensions
+            far = self.length(site.height_m - dims.stub - dims.radiator)
+            return (f"inverted (upside down){rope}; the short {h} above {self.ground()} at the top, the "
+                    f"stub below it and the radiator hanging below the stub, its far end {far} up")
+        return f"vertical{rope}; the short {h} above {self.ground()}, the stub and radiator standing above it"
 
     def layout(self):
         """The site layout of a horizontal or sloper (layout.site_layout), None for a vertical."""
         site = self.d.site
         return site_layout(site.orientation, site.height_m, site.slope_rad, self.s.dimensions.radiator,
-                           self.d.wavelength_m)
+                           self.d.wavelength_m, self.s.dimensions.stub, self.d.hung)
 
     def top_height(self) -> float:
         site, dims = self.d.site, self.s.dimensions
@@ -710,6 +716,9 @@ class _Context:
             model_limits=tuple(f"{w[0].upper()}{w[1:]}." for w in s.warnings),
             height=self.length(d.site.height_m), radiator=self.length(dims.radiator),
             radiator_end=self.radiator_end(), vertical=d.site.orientation == "vertical",
+            inverted=d.site.orientation == "inverted", hung=d.hung,
+            short_side="above" if d.site.orientation == "inverted" else "below",
+            tap_side="below" if d.site.orientation == "inverted" else "above",
             stub=self.length(dims.stub), tap=self.length(dims.tap),
             wrap=self.length(s.wrap_allowance_m), rigid=rigid,
             f0=self.f0, best_swr=_swr(float(sw.swr[best])),
@@ -884,10 +893,13 @@ class _Context:
             v_far_pk=_volts(s.voltage_far_end_v_peak),
             i_short=_amps(s.current_short_a_rms),
             low_point=self.length(low_point) if low_point is not None else "", low_point_what=low_what,
+            # within 3 m of the ground: a standing person's reach (2.5 m, ratings.py) and a little more
+            low_point_near=low_point is not None and low_point < 3.0,
             d_general=self.distance(e.distance_general_m),
             d_controlled=self.distance(e.distance_controlled_m),
             general_name=general, controlled_name=controlled, standard=STANDARD_NAMES[e.standard],
-            vertical=d.site.orientation == "vertical",
+            vertical=d.site.orientation in ("vertical", "inverted"), hung=d.hung,
+            inverted=d.site.orientation == "inverted",
             in_near_field=e.distance_general_m < e.near_field_m,
             near_field=self.distance(e.near_field_m), f0=self.f0,
             findings=[(_capital(f.part), f.body) for f in s.findings])

@@ -546,7 +546,9 @@ def _parts(design: Design, dims: Dimensions, ch) -> Parts:
     line_name = st.name if st.name != "custom" else (
         "two-wire line by geometry" if st.kind == "geometry" else "two-wire line as measured")
     low, what = None, ""
-    if site.orientation != "vertical":
+    if site.orientation == "inverted":
+        low, what = site.height_m - dims.stub - dims.radiator, "the radiator's far end"
+    elif site.orientation != "vertical":
         low, what = site.height_m - dims.stub, "the bottom of the stub"
         if site.orientation == "sloper":
             far = site.height_m - dims.radiator * math.sin(site.slope_rad)
@@ -618,7 +620,7 @@ def check_stub_clearance(design: Design, stub: float) -> None:
     site = design.site
     clearance = RULES["stub_clears_ground"].value
     bottom = site.height_m - stub
-    if site.orientation != "vertical" and bottom < clearance:
+    if site.orientation in ("horizontal", "sloper") and bottom < clearance:
         raise design.fail("site.height", f"{metres(site.height_m)} leaves the stub's short {metres(bottom)} "
                           f"above ground (the solved stub is {metres(stub)} long); raise the open top to "
                           f"at least {metres(stub + clearance)} or hang the antenna as a sloper with a "
@@ -637,6 +639,23 @@ def check_far_end_clearance(design: Design, radiator: float, solved: bool = True
                           f"the radiator's far end {metres(far)} above ground (the "
                           f"{'solved radiator is' if solved else 'radiator is about'} {metres(radiator)}); "
                           "use a smaller slope or a higher top")
+
+
+def check_hanging_end_clearance(design: Design, radiator: float, stub: float, solved: bool = True) -> None:
+    """As check_stub_clearance, for an inverted antenna: the radiator hangs below the stub, so its
+    far end, the short's height less the solved stub and radiator, is the lowest point (a radiator
+    through its own image gives a negative radiation resistance). radiator, stub: m; solved False:
+    the half wave and quarter wave estimated where no radiator could be solved."""
+    site = design.site
+    clearance = RULES["hanging_end_clears_ground"].value
+    far = site.height_m - stub - radiator
+    if site.orientation == "inverted" and far < clearance:
+        where = f"{metres(far)} above" if far >= 0 else f"{metres(-far)} below"
+        lengths = (f"the solved stub is {metres(stub)}, the radiator {metres(radiator)}" if solved else
+                   f"the stub is about {metres(stub)}, the radiator {metres(radiator)}")
+        raise design.fail("site.height", f"{metres(site.height_m)} to the short of an inverted antenna "
+                          f"puts the radiator's far end {where} ground ({lengths}); hang the short at "
+                          f"least {metres(stub + radiator + clearance)} up")
 
 
 def check_geometry(design: Design) -> None:
@@ -674,8 +693,9 @@ def _match(design: Design, ant, clearance: bool = True) -> tuple:
             # no resonant radiator: on a low sloper, because every length searched runs through the
             # ground (where image theory fails); the half wave the search centres on says so
             rad = design.radiator
-            check_far_end_clearance(design, rad.velocity_factor / design.calibration.radiator_scale
-                                    * design.wavelength_m / 2, solved=False)
+            half = rad.velocity_factor / design.calibration.radiator_scale * design.wavelength_m / 2
+            check_far_end_clearance(design, half, solved=False)
+            check_hanging_end_clearance(design, half, design.wavelength_m / 4, solved=False)
         raise _unmatched(design, exc) from None
     if clearance:
         check_far_end_clearance(design, radiator)
@@ -683,9 +703,15 @@ def _match(design: Design, ant, clearance: bool = True) -> tuple:
         with np.errstate(all="ignore"):
             stub, tap = jpole.solve_match(f0, z_feed, ant, radiator, prepared=at_f0)
     except ValueError as exc:       # ModelError, or a singular step of the numeric search
+        if clearance:
+            # an inverted radiator through the ground (image theory fails there): its quarter-wave
+            # stub estimated from the line says so
+            quarter = float(ant.stub_line.velocity_factor(f0)) * design.wavelength_m / 4
+            check_hanging_end_clearance(design, radiator, quarter, solved=False)
         raise _unmatched(design, exc) from None
     if clearance:
         check_stub_clearance(design, stub)
+        check_hanging_end_clearance(design, radiator, stub)
     return radiator, stub, tap, at_f0
 
 
@@ -863,7 +889,7 @@ def _cut_list(design: Design, d: Dimensions, wrap: float, ch, first: FirstCut,
                              "slides over the feed coax at the tap; cut long, trim the open end to "
                              "resonance"))
     site = site_layout(design.site.orientation, design.site.height_m, design.site.slope_rad, d.radiator,
-                       lam)
+                       lam, d.stub, design.hung)
     for rope in site.ropes if site else ():
         items.append(CutItem(rope.what, "UV-resistant polyester rope", rope.length_m, 1, TIE_OFF_M,
                              rope.note + " (common practice)", coarse=True))
@@ -883,7 +909,23 @@ def _cut_list(design: Design, d: Dimensions, wrap: float, ch, first: FirstCut,
             HardwareItem("insulating spacers", 2, "plastic, drilled to the coax, to centre the sleeve at "
                          "both ends"),
         ]
-    if design.site.orientation == "vertical":
+    if design.hung:
+        top, bottom = (("the radiator's far end", "below the short")
+                       if design.site.orientation == "vertical" else
+                       ("above the short", "the radiator's far end"))
+        hardware += [
+            HardwareItem("end insulators", 2, f"top ({top}) on the halyard, bottom ({bottom}) on the "
+                         "tether"),
+        ]
+    elif design.site.orientation == "inverted":
+        hardware += [
+            HardwareItem("mast clamps and stand-off insulators", 3,
+                         "to mount the stub below the short (at the top) without touching the "
+                         "conductors"),
+            HardwareItem("end insulator", 1, "the radiator's far end (the bottom), with a tie to "
+                         "keep it hanging straight"),
+        ]
+    elif design.site.orientation == "vertical":
         hardware.append(HardwareItem("mast clamps and stand-off insulators", 3,
                                      "to mount the stub below the short without touching the conductors"))
     else:

@@ -22,6 +22,9 @@ SLOPE_DEG = 30
 #: the stub's bottom is kept at least this far above ground on a new horizontal or sloper, m
 #: (common practice: out of reach of a person standing under it)
 CLEAR_M = 2.5
+#: a new inverted antenna's far end is kept this far above ground, m (the same reach, and room for the
+#: stub and radiator to come out a little longer than three quarters of a wavelength of air)
+INVERTED_CLEAR_M = 3.0
 
 
 @dataclass(frozen=True)
@@ -81,7 +84,8 @@ def design_text(a: Answers) -> str:
     f, why = _frequency(a)
     line = _check_choice(a.line, c.names("stub_line"), "--line") if a.line else "window-450"
     coax = _check_choice(a.coax, c.names("coax"), "--coax") if a.coax else "RG-8X"
-    orientation = _check_choice(a.orientation, ("horizontal", "sloper", "vertical"), "--orientation") \
+    orientation = _check_choice(a.orientation, ("horizontal", "sloper", "vertical", "inverted"),
+                                "--orientation") \
         if a.orientation else ("horizontal" if f < 30e6 else "vertical")
     unit_system = _check_choice(a.units, ("imperial", "metric"), "--units") if a.units else (
         "imperial" if a.region == 2 else "metric")
@@ -95,6 +99,8 @@ def design_text(a: Answers) -> str:
     else:
         if orientation == "vertical":
             height = 3.0
+        elif orientation == "inverted":   # the short at the top: stub and radiator (3/4 wave) below it,
+            height = math.ceil(0.75 * lam + INVERTED_CLEAR_M)       # the far end above heads
         else:   # the stub (a quarter wave of line at most) hangs below the open top, clear of heads
             height = max(10.0, math.ceil(lam / 4 + CLEAR_M))
         height_text = (f"{math.ceil(height / units.FOOT_M)} ft" if unit_system == "imperial"
@@ -106,7 +112,8 @@ def design_text(a: Answers) -> str:
     title = a.title or f"{units.format_frequency(f)} {orientation} end-fed, first draft"
     where = {"horizontal": "the stub's open top (the end of the radiator at the support)",
              "sloper": "the stub's open top, at the high support",
-             "vertical": "the short, at the bottom of the stub"}[orientation]
+             "vertical": "the short, at the bottom of the stub",
+             "inverted": "the short, at the top (the stub and the radiator hang below it)"}[orientation]
     out = [
         f"# {a.name}: written by `buildsheet start`. Edit it, then `buildsheet check` and `buildsheet build`.",
         "# `buildsheet catalogue` lists the wires, lines, coax, grounds and bands this file may name.",
@@ -126,7 +133,7 @@ def design_text(a: Answers) -> str:
         _kv("  length", "15 m", "coax from the tap to the transmitter"),
         _kv("  choke_form", form, "outside diameter of the form the coax is wound on"),
         "site:",
-        _kv("  orientation", orientation, "horizontal | sloper | vertical"),
+        _kv("  orientation", orientation, "horizontal | sloper | vertical | inverted"),
         _kv("  height", height_text, where),
     ]
     if orientation == "sloper":

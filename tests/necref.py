@@ -9,7 +9,9 @@ Geometry (SI, metres; z up, ground plane z = 0):
   the radiator continues from conductor A's open-top end, conductor B ends there (open);
   horizontal: stub hangs down from the open top at z = height, radiator runs along +x at z = height;
   sloper: as horizontal, radiator runs along +x sloping down at `slope` below horizontal;
-  vertical: short at z = height, stub stands up, radiator continues straight up from A.
+  vertical: short at z = height, stub stands up, radiator continues straight up from A;
+  inverted: the vertical turned upside down: short at z = height, the stub hangs down from it, the
+  radiator continues straight down from A's open end (its far end is the lowest point).
   The short bar and the tap bar join A and B; the feed is a 1 V source on the tap bar's middle segment.
 
 Symbols: f frequency (Hz), lam free-space wavelength (m), a radius (m), s spacing (m),
@@ -68,7 +70,7 @@ class Ground:
 class JPoleDims:
     """All dimensions (m) and conductors of one J-pole, as built; see the module docstring for axes.
     sigma values in S/m (None = perfect conductor). height: open top (horizontal/sloper) or short
-    (vertical) above ground. slope: rad below horizontal (sloper only)."""
+    (vertical, inverted) above ground. slope: rad below horizontal (sloper only)."""
     radiator: float
     stub: float
     tap: float
@@ -219,13 +221,17 @@ def jpole_wires(d: JPoleDims, f_mesh: float, mesh: Mesh = MESH,
     if d.orientation == "vertical":
         z_short, z_tap, z_top = d.height, d.height + d.tap, d.height + d.stub
         rad_end = (0.0, 0.0, z_top + d.radiator)
+    elif d.orientation == "inverted":
+        z_short, z_tap, z_top = d.height, d.height - d.tap, d.height - d.stub
+        rad_end = (0.0, 0.0, z_top - d.radiator)
     elif d.orientation in ("horizontal", "sloper"):
         z_top = d.height
         z_short, z_tap = z_top - d.stub, z_top - d.stub + d.tap
         psi = d.slope if d.orientation == "sloper" else 0.0
         rad_end = (d.radiator * math.cos(psi), 0.0, z_top - d.radiator * math.sin(psi))
     else:
-        raise ValueError(f"orientation {d.orientation!r}: expected horizontal, sloper or vertical")
+        raise ValueError(f"orientation {d.orientation!r}: expected horizontal, sloper, vertical or "
+                         "inverted")
     if d.ground.kind != "free-space":
         lowest = min(z_short, rad_end[2])
         if lowest <= max(3 * a_s, 1e-3 * lam):

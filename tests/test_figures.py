@@ -120,7 +120,8 @@ def svg_texts(drawing) -> list[str]:
 
 #: lengths not cut to the tape: coax and rope to the inch or cm, diameters and spacings finer
 #: (units.format_length's steps; issue 18)
-COARSE = ("coax", "rope", "span", "far end height", "far end out", "anchor", "anchor rope")
+COARSE = ("coax", "rope", "span", "far end height", "far end out", "anchor", "anchor rope", "branch",
+          "halyard", "tether", "top", "bottom")
 SIZE = ("spacing", "wire")
 
 
@@ -147,8 +148,14 @@ def expected_lengths(design, solution) -> dict[str, dict[str, float]]:
     overview = {"radiator": d.radiator, "stub": d.stub, "tap": d.tap,
                 "height": design.site.height_m, "coax": design.feed.length_m}
     site = site_layout(design.site.orientation, design.site.height_m, design.site.slope_rad, d.radiator,
-                       design.wavelength_m)
-    if site is not None and site.orientation == "horizontal":
+                       design.wavelength_m, d.stub, design.hung)
+    if design.site.orientation == "inverted":       # the far end's height, as the dimension shows it
+        overview["far end"] = design.site.height_m - d.stub - d.radiator
+    if site is not None and site.support_height_m is not None:     # hung: branch, ropes, heights
+        overview.update({"rope": site.standoff_m, "branch": site.support_height_m,
+                         "halyard": site.ropes[0].length_m, "tether": site.ropes[1].length_m,
+                         "top": site.top_m, "bottom": site.bottom_m})
+    elif site is not None and site.orientation == "horizontal":
         overview.update({"rope": site.standoff_m, "span": site.span_m})
     elif site is not None:
         overview.update({"rope": site.standoff_m, "far end height": site.far_end_height_m,
@@ -284,9 +291,13 @@ def test_overview_shows_the_orientation():
         dims = {item.text.split()[0]: item for item in drawings["overview"].items
                 if isinstance(item, Dimension)}
         rad = dims["radiator"]
-        if design.site.orientation == "vertical":
+        if design.site.orientation == "inverted":
+            assert rad.x1 == rad.x2 and rad.y2 > rad.y1          # hanging down from the open top
+            assert dims["stub"].y1 < dims["stub"].y2 == rad.y1   # the stub above it, short at the top
+            assert any("far end: high RF voltage" in t for t in texts)
+        elif design.site.orientation == "vertical":
             assert rad.x1 == rad.x2 and rad.y2 < rad.y1          # straight up
-            assert any("stand-off insulator" in t for t in texts)
+            assert any(("top insulator" if design.hung else "stand-off insulator") in t for t in texts)
         elif design.site.orientation == "horizontal":
             assert rad.y1 == rad.y2
             assert "end insulator" in texts
@@ -316,7 +327,10 @@ def test_tap_drawn_between_short_and_open_top(path, key):
     tap, stub = dims["tap"], dims["stub"]
     y_short, y_tap, y_top = tap.y1, tap.y2, stub.y2
     assert stub.y1 == y_short                       # both measured from the short's centre line
-    assert y_top < y_tap < y_short                   # page y grows downwards
+    if key == "overview" and design.site.orientation == "inverted":
+        assert y_short < y_tap < y_top               # drawn upside down: the short at the top
+    else:
+        assert y_top < y_tap < y_short               # page y grows downwards
     # the tap is marked where its dimension ends: clamp or tap point on the conductors
     assert any(isinstance(p, (Circle, Polyline)) and abs(p.bbox().center[1] - y_tap) < 0.01
                for item in d.items for p in item.primitives())

@@ -190,6 +190,20 @@ def _far_end_clears_ground(accepted):
             ("far end too low", make(slope * (1 + 1e-3)), "site.slope")]
 
 
+def _hanging_end_clears_ground(accepted):
+    """As above, for the solved stub and radiator of an inverted antenna: the short's height that
+    leaves the far end exactly the clearance (found by iteration; both lengths move a little with
+    the height through the radiator's image)."""
+    clearance = _number_in(accepted, r"at least (\S+) m above ground")
+    make = lambda h: _design("heron-pond-10m", {"site.height": f"{h:.10g} m"})  # noqa: E731
+    height = 10.0
+    for _ in range(12):
+        radiator, stub, _ = _solved(make(height))
+        height = stub + radiator + clearance
+    return [("inverted: far end just clears the ground", make(height + 1e-3), None),
+            ("inverted: far end 1 mm too low", make(height - 1e-3), "site.height")]
+
+
 def _region(accepted):
     assert accepted == "1, 2 or 3"
     make = lambda r: _design("oak-yard-20m", {"region": r})  # noqa: E731
@@ -273,6 +287,7 @@ BUILDERS = {
                                             lambda v: {"feed.choke_form": v}),
     ("`site.height`", "0 m"): _simple("site.height", "allotment-2m", lambda v: {"site.height": v}),
     ("`site.height`", "horizontal and sloper"): _stub_clears_ground,
+    ("`site.height`", "inverted"): _hanging_end_clears_ground,
     ("`site.slope`", "5 deg"): _simple("site.slope", "mill-lane-15m", lambda v: {"site.slope": v},
                                        {"site.height": "20 m"}),
     ("`site.slope`", "the radiator's far end"): _far_end_clears_ground,

@@ -132,7 +132,8 @@ class _Context:
     def layout(self):
         site = self.design.site
         return site_layout(site.orientation, site.height_m, site.slope_rad,
-                           self.solution.dimensions.radiator, self.design.wavelength_m)
+                           self.solution.dimensions.radiator, self.design.wavelength_m,
+                           self.solution.dimensions.stub, self.design.hung)
 
     def rounding_note(self) -> str:
         system = "feet and inches" if self.units == "imperial" else "metres and millimetres"
@@ -206,7 +207,9 @@ def _finish(ctx: _Context, caption: str, body: list, body_height: float, notes: 
 # ---------------------------------------------------------------- overview
 
 def _overview(ctx: _Context) -> Drawing:
-    if ctx.design.site.orientation == "vertical":
+    if ctx.design.site.orientation == "inverted" or ctx.design.hung:
+        sheet, h = _overview_hung(ctx)
+    elif ctx.design.site.orientation == "vertical":
         sheet, h = _overview_vertical(ctx)
     else:
         sheet, h = _overview_hanging(ctx)
@@ -449,6 +452,188 @@ def _overview_vertical(ctx: _Context) -> tuple[Layout, float]:
     return sheet, body_h
 
 
+def _tree(sheet: Layout, x_trunk: float, y_branch: float, x_branch_end: float, y_g: float) -> None:
+    """A tree trunk standing on the ground at y_g with a branch out to x_branch_end at y_branch."""
+    sheet.add(Rect(x_trunk - 7.0, y_branch - 14.0, 14.0, y_g - y_branch + 14.0, width=0.75,
+                   fill=SUPPORT_GREY))
+    sheet.add(Polyline(((x_trunk + 7.0, y_branch + 4.0), (x_branch_end, y_branch - 1.0),
+                        (x_branch_end, y_branch - 4.0), (x_trunk + 7.0, y_branch - 6.0)), closed=True,
+                       width=0.75, fill=SUPPORT_GREY))
+
+
+def _overview_hung(ctx: _Context) -> tuple[Layout, float]:
+    """A wire vertical hung on a rope (construction: hung) or any inverted antenna. Hung: a branch
+    (or a halyard pulley) with the halyard down to the top insulator and back to a cleat on the trunk;
+    the bottom insulator's tether to a ground stake. Upright: the radiator from the top insulator
+    down to the open top, the stub below with the short at the bottom, the coax down from the tap
+    through the choke. Inverted: the short at the top (from the halyard by a bridle, or on a mast's
+    stand-off insulator), the tap below it, the coax out sideways from the tap through the choke and
+    down, the stub's open top below, the radiator hanging from it to its far end insulator."""
+    d, s = ctx.design, ctx.solution
+    dims = s.dimensions
+    fmt = ctx.length
+    site = ctx.layout()
+    inverted = d.site.orientation == "inverted"
+    tap_text = f"tap {fmt(dims.tap)}"
+    tap_span = _tap_span(tap_text)
+    x_j, x_o = 230.0, 242.0
+    x_mid = (x_j + x_o) / 2
+    x_trunk = 46.0
+    hung = site is not None
+    y_branch = 34.0 if hung else 10.0
+    y_ins = y_branch + 22.0                   # the top insulator's upper end
+    stub_span, rad_span = 128.0, 96.0
+    if inverted:
+        y_short = y_ins + 16.0 + 12.0
+        y_tap = y_short + tap_span
+        y_top = y_short + stub_span          # the open top, at the bottom of the stub
+        y_far = y_top + rad_span
+        y_bottom = y_far
+    else:
+        y_rt = y_ins + 16.0                   # the radiator's top attachment point
+        y_top = y_rt + rad_span
+        y_short = y_top + stub_span
+        y_tap = y_short - tap_span
+        y_bottom = y_short + 7.0
+    y_g = y_bottom + 16.0 + (72.0 if inverted else 58.0)
+    body_h = y_g + 26.0
+    sheet = Layout(WIDTH, body_h)
+    sheet.add(*_ground(PAD, WIDTH - PAD, y_g))
+    x_top = x_mid if inverted else x_j       # where the halyard meets the antenna
+
+    # support: a branch and the halyard, or (inverted, not hung) a mast beside the short
+    if hung:
+        _tree(sheet, x_trunk, y_branch, x_top + 28.0, y_g)
+        sheet.add(Circle(x_top, y_branch + 2.5, 2.5, width=0.75))
+        sheet.add(Line(x_top, y_branch + 5.0, x_top, y_ins, width=ROPE, dash=ROPE_DASH))
+        sheet.add(_insulator((x_top, y_ins), (0.0, 1.0)))
+        # the halyard's other end back along the branch and down the trunk to a cleat
+        sheet.add(Polyline(((x_top - 2.5, y_branch + 2.5), (x_trunk + 10.0, y_branch + 10.0),
+                            (x_trunk + 10.0, y_g - 40.0)), width=ROPE, dash=ROPE_DASH))
+        sheet.add(Rect(x_trunk + 7.0, y_g - 42.0, 6.0, 4.0, width=0.6, fill=0.0))
+    else:
+        # the mast stands clear of the radiator, the stub held out on an arm with a stand-off insulator
+        x_m = x_o + 52.0
+        sheet.add(BreakMark(x_m, y_short - 24.0, x_m, y_g, at=0.6, width=3.0))
+        y_so = y_short + 15.0
+        sheet.add(Rect(x_o + 1.5, y_so - 2.5, 18.0, 5.0, width=0.6, fill=INSULATOR_GREY))
+        sheet.add(Line(x_o + 19.5, y_so, x_m, y_so, width=2.0))
+
+    # the stub: conductors broken between the tap and the open top, the short, the tap
+    if inverted:
+        y_from, y_to = y_short - 4.0, y_top
+        at = ((y_tap + y_top) / 2 - y_from) / (y_to - y_from)
+        if hung:     # a bridle from the top insulator to both conductors above the short
+            sheet.add(Line(x_mid, y_ins + 16.0, x_j, y_from, width=ROPE),
+                      Line(x_mid, y_ins + 16.0, x_o, y_from, width=ROPE))
+    else:
+        y_from, y_to = y_top, y_bottom
+        at = ((y_top + y_tap) / 2 - y_from) / (y_to - y_from)
+    for x in (x_j, x_o):
+        sheet.add(BreakMark(x, y_from, x, y_to, at=at, size=3.5, width=CONDUCTOR))
+    sheet.add(Line(x_j, y_short, x_o, y_short, width=2.4))
+    sheet.add(Line(x_j + 1.0, y_tap, x_mid, y_tap + 2.0, width=LEAD),
+              Line(x_o - 1.0, y_tap, x_mid, y_tap + 2.0, width=LEAD))
+    sheet.add(Circle(x_j, y_tap, 1.8, width=0, fill=0.0), Circle(x_o, y_tap, 1.8, width=0, fill=0.0))
+    sheet.add(Circle(x_j, y_top, 2.0, width=0, fill=0.0))
+
+    # the radiator: from the top insulator down to the open top, or from the open top down
+    if inverted:
+        sheet.add(BreakMark(x_j, y_top, x_j, y_far, at=0.5, width=CONDUCTOR))
+        sheet.add(_insulator((x_j, y_far), (0.0, 1.0)))
+    else:
+        sheet.add(BreakMark(x_j, y_rt, x_j, y_top, at=0.5, width=CONDUCTOR))
+    # the bottom: an insulator and the tether to a stake (hung), or the free far end (mast)
+    y_low_ins = y_far + 16.0 if inverted else y_bottom
+    x_stake = x_j - 58.0
+    if hung:
+        if not inverted:
+            sheet.add(Line(x_j, y_short, x_j, y_bottom, width=CONDUCTOR))
+            sheet.add(_insulator((x_j, y_bottom), (0.0, 1.0), length=12.0))
+            y_low_ins = y_bottom + 12.0
+        sheet.add(Line(x_j, y_low_ins, x_stake, y_g, width=ROPE, dash=ROPE_DASH))
+        sheet.add(_pole(x_stake, y_g - 9.0, y_g + 4.0, 3.0))
+
+    # the feed: the coax from the tap through the choke to the station on the right
+    station_x = x_o + (66.0 if hung else 72.0)
+    y_coax = y_g - 4.0
+    if inverted:
+        x_c = x_o + 30.0
+        y_choke = y_tap + 8.0
+        sheet.add(Polyline(((x_mid, y_tap + 2.0), (x_c, y_tap + 2.0), (x_c, y_choke)), width=COAX))
+        sheet.add(*_choke_symbol(s, x_c, y_choke, 26.0))
+        sheet.add(Polyline(((x_c, y_choke + 26.0), (x_c, y_coax), (station_x, y_coax)), width=COAX))
+        choke_at, coax_at = (x_c + 5.5, y_choke + 13.0), (x_c, (y_choke + 26.0 + y_coax) / 2)
+    else:
+        y_choke = y_bottom + 18.0
+        sheet.add(Line(x_mid, y_tap + 2.0, x_mid, y_short - 3.0, width=COAX))
+        sheet.add(Polyline(((x_mid, y_short + 3.0), (x_mid, y_choke)), width=COAX))
+        sheet.add(*_choke_symbol(s, x_mid, y_choke, 26.0))
+        sheet.add(Polyline(((x_mid, y_choke + 26.0), (x_mid, y_coax), (station_x, y_coax)), width=COAX))
+        choke_at, coax_at = (x_mid + 5.5, y_choke + 13.0), ((x_mid + station_x) / 2, y_coax)
+    sheet.add(*_station(station_x, y_g))
+
+    # dimensions: the tap beside the stub; the parts and the heights chained on the right
+    if inverted:
+        # measured from the short's centre line, as on the upright drawings (here downward)
+        sheet.add(Dimension(x_j, y_short, x_j, y_tap, tap_text, -34.0))
+    else:
+        sheet.add(_vdim(x_o, y_short, y_tap, tap_text, 34.0))
+    x_d = 392.0
+    if inverted:
+        marks = ((y_short, x_o), (y_top, x_o), (y_far, x_j))
+        chain = ((y_g, y_short, f"height {fmt(d.site.height_m)}", 36.0),
+                 (y_short, y_top, f"stub {fmt(dims.stub)}", 0.0),
+                 (y_top, y_far, f"radiator {fmt(dims.radiator)}", 0.0),
+                 (y_g, y_far, f"far end at {fmt(d.site.height_m - dims.stub - dims.radiator)}", 0.0))
+    else:
+        marks = ((y_rt, x_j), (y_top, x_o), (y_short, x_o))
+        chain = ((y_top, y_rt, f"radiator {fmt(dims.radiator)}", 0.0),
+                 (y_short, y_top, f"stub {fmt(dims.stub)}", 0.0),
+                 (y_g, y_short, f"height {fmt(d.site.height_m)}", 0.0))
+    for y, x_from in marks:
+        sheet.add(Line(x_from + 1.5, y, x_d + 2.0, y, width=THIN))
+    for y_a, y_b, text, extra in chain:
+        sheet.add(Dimension(x_d + extra, y_a, x_d + extra, y_b, text, 0.0))
+    if hung:
+        x_s = 470.0
+        sheet.add(Line(x_top + 30.0, y_branch, x_s + 2.0, y_branch, width=THIN))
+        sheet.add(Dimension(x_s, y_g, x_s, y_branch, f"branch at least {ctx.paced(site.support_height_m)}",
+                            0.0))
+
+    # callouts
+    if hung:
+        sheet.callout(x_top + 2.0, y_branch - 3.0, ["branch or halyard pulley"], angles=(20, 0, 40, 340))
+        sheet.callout(x_trunk + 10.0, y_g - 80.0,
+                      [f"halyard {ctx.paced(site.ropes[0].length_m)}", "to a cleat on the trunk"],
+                      angles=(0, 20, 340, 40), radii=(20, 30, 42))
+        sheet.callout(x_top, y_ins + 8.0, ["top insulator"], angles=(0, 20, 340, 160, 200))
+        sheet.callout((x_j + x_stake) / 2, (y_low_ins + y_g) / 2,
+                      [f"tether {ctx.paced(site.ropes[1].length_m)}", "to a ground stake"],
+                      angles=(200, 180, 225, 160))
+        sheet.callout(x_j, y_low_ins - 6.0, ["bottom insulator"], angles=(200, 180, 160, 225))
+    else:
+        sheet.callout(x_o + 5.0, y_short + 17.5, ["stand-off insulator"], angles=(330, 315, 345, 300),
+                      radii=(30, 42, 56, 72))
+        sheet.callout(x_o + 52.0, y_g - 24.0, ["mast"], angles=(20, 0, 40, 340), radii=(20, 30, 42, 56))
+        sheet.callout(x_o + 36.0, y_short + 15.0, ["arm"], angles=(30, 0, 60), radii=(20, 30, 42))
+        sheet.callout(x_j, y_far + 8.0, ["far end insulator"], angles=(200, 180, 160, 225))
+    sheet.callout(x_j, y_short, ["short"], angles=(200, 180, 225, 160))
+    sheet.callout(x_j, y_tap, ["tap"], angles=(160, 180, 135, 200) if not inverted else (200, 180, 225))
+    sheet.callout(x_o, y_top + 2.0, ["open top: this conductor", "ends here (RF voltage)"],
+                  angles=(330, 345, 315, 30, 0), radii=(62, 74, 90) if inverted else (20, 30, 42, 56))
+    if inverted:
+        far = d.site.height_m - dims.stub - dims.radiator
+        sheet.callout(x_j, y_far, ["far end: high RF voltage,", f"{fmt(far)} above ground"],
+                      angles=(200, 180, 160, 225, 250))
+    sheet.callout(*choke_at, ["choke at the tap"], angles=(0, 20, 340, 200))
+    sheet.callout(*coax_at, [f"coax {d.feed.coax}, {ctx.paced(d.feed.length_m)}",
+                             "down to the station" if inverted else "to the station"],
+                  angles=(0, 20, 340, 200, 160))
+    sheet.add(Text(PAD + 2.0, y_g + 16.0, "ground", LABEL))
+    return sheet, body_h
+
+
 # ---------------------------------------------------------------- radiator
 
 #: pitch of a drawn wire wrap (the zig-zag of a wire wound round a conductor or twisted back), points
@@ -476,6 +661,7 @@ def _radiator(ctx: _Context) -> Drawing:
     fmt = ctx.length
     rigid = s.parts.rigid_radiator
     vertical = d.site.orientation == "vertical"
+    inverted = d.site.orientation == "inverted"
     allowance = "allowance" if rigid else "wrap"
     body_h = 262.0
     sheet = Layout(WIDTH, body_h)
@@ -494,7 +680,8 @@ def _radiator(ctx: _Context) -> Drawing:
         sheet.add(Circle(x_a, y1, 1.8, width=0, fill=0.0))
         if not rigid:
             sheet.add(_wrap_mark(x_a + 2.0, y1, int(30.0 / WRAP_PITCH), "x", end=30.0))
-        sheet.callout(x_a - 18.0, y1 + 5.0, ["top end insulator" if vertical else "end insulator"],
+        sheet.callout(x_a - 18.0, y1 + 5.0, ["top end insulator" if vertical else
+                                             "bottom end insulator" if inverted else "end insulator"],
                       angles=(250, 270, 225, 290))
         sheet.callout(x_a, y1 - 2.0, ["attachment point"], angles=(110, 135, 90), radii=(30, 40, 52))
     # the stub's two conductors at its open top
@@ -546,6 +733,9 @@ def _radiator(ctx: _Context) -> Drawing:
     notes = ["Not to scale: the radiator is drawn shortened (break marks).", ctx.rounding_note()]
     if vertical:
         notes.insert(0, "Drawn lying down: the left end is the top of the vertical.")
+    elif inverted:
+        notes.insert(0, "Drawn lying down: the left end is the bottom of the upside-down antenna, "
+                        "the right end joins the stub above it.")
     return _finish(ctx, "Radiator: length and cut", sheet.items, body_h, notes)
 
 
@@ -613,9 +803,11 @@ def _stub(ctx: _Context) -> Drawing:
     sheet.add(Circle(x_j, y_top, 2.4, width=0, fill=0.0))
     if not s.parts.rigid_radiator:
         sheet.add(_wrap_mark(x_j, y_top + 2.0, 7, "y", amplitude=2.4))
-    if orientation == "vertical":
+    if orientation in ("vertical", "inverted"):
         sheet.add(Line(x_j, y_top, x_j, PAD + 8.0, width=CONDUCTOR + 0.3))
-        sheet.callout(x_j, (y_top + PAD + 8.0) / 2, ["radiator, straight up"], angles=(180, 200, 160))
+        sheet.callout(x_j, (y_top + PAD + 8.0) / 2, ["radiator, straight up"] if orientation == "vertical"
+                      else ["radiator (installed: hanging", "straight down from here)"],
+                      angles=(180, 200, 160))
     else:
         theta = 0.0 if orientation == "horizontal" else min(d.site.slope_rad, MAX_DRAWN_SLOPE)
         reach = 150.0
@@ -675,6 +867,10 @@ def _stub(ctx: _Context) -> Drawing:
     notes = ["Not to scale: the stub is drawn shortened (break marks).",
              "Stub: open top to the centre line of the short. Tap: centre line of the short to the "
              "tap point.", ctx.rounding_note()]
+    if orientation == "inverted":
+        notes.insert(0, "Drawn the right way up for the bench; installed, this antenna is upside down: "
+                        "the short at the top, the open top below, the radiator hanging from it. Lead "
+                        "the coax out sideways from the tap through the choke, then down (overview).")
     return _finish(ctx, "Stub: open top, short and tap", sheet.items, body_h, notes)
 
 
@@ -788,6 +984,10 @@ def _short_tap(ctx: _Context) -> Drawing:
                      ["Keep the leads short. Weatherproof the coax end", "with self-amalgamating tape."],
                      size=LABEL)
     notes = [scale_note, ctx.rounding_note()]
+    if ctx.design.site.orientation == "inverted":
+        notes.insert(0, "Drawn the right way up for the bench; installed, upside down: the short at the "
+                        "top, the open top and the radiator below. Lead the coax out sideways from "
+                        "the tap through the choke, then down (overview).")
     return _finish(ctx, "Short and tap: how they are made", sheet.items, body_h, notes)
 
 
@@ -956,7 +1156,8 @@ def _pattern(ctx: _Context) -> Drawing:
                               r.azimuth_gain_dbi, r.max_gain_dbi, r.takeoff_deg, r.azimuth_deg, free,
                               WIDTH, "Radiation pattern (predicted), gain in dBi")
     site = ctx.design.site
-    zero = ("the direction the radiator runs from the stub" if site.orientation != "vertical" else
+    zero = ("the direction the radiator runs from the stub"
+            if site.orientation not in ("vertical", "inverted") else
             "from the stub toward the conductor that carries the radiator")
     where = "in free space" if free else "over the site's ground (direct and ground-reflected wave)"
     notes = [f"Gain relative to the power delivered to the tap: the antenna's losses"

@@ -79,7 +79,8 @@ from buildsheet.physics.constants import C0
 from buildsheet.physics.conductors import wire_internal_impedance
 from buildsheet.physics.lines import Line, reflection
 
-ORIENTATIONS = ("horizontal", "sloper", "vertical")
+ORIENTATIONS = ("horizontal", "sloper", "vertical", "inverted")
+VERTICALS = ("vertical", "inverted")
 GROUND_KINDS = ("free-space", "perfect", "real")
 
 
@@ -179,8 +180,9 @@ class Antenna:
     set it above 1: the wire then behaves electrically shorter than the model of it predicts);
     end_resistance_scale: factor on the radiator arm's resistance at resonance (a fitted
     calibration; 1 = the model as published); orientation: 'horizontal' |
-    'sloper' | 'vertical'; height: horizontal/sloper the stub's open top above ground, vertical the
-    short, m; slope: radiator angle below horizontal, rad (sloper only); ground_kind: 'free-space' |
+    'sloper' | 'vertical' | 'inverted'; height: horizontal/sloper the stub's open top above ground,
+    vertical and inverted the short (inverted: the stub hangs from the short at the top, the radiator
+    hangs below the open top, so its far end is the lowest point), m; slope: radiator angle below horizontal, rad (sloper only); ground_kind: 'free-space' |
     'perfect' | 'real'; ground_eps_r, ground_sigma (S/m): the real ground."""
     stub_line: Line
     spacing: float
@@ -318,7 +320,7 @@ class _Prepared:
         pair = pairs.get((L, S))
         if pair is None:
             ant = self.ant
-            keys = (("image", L, S if ant.orientation == "vertical" else None), ("coupling", L, S))
+            keys = (("image", L, S if ant.orientation in VERTICALS else None), ("coupling", L, S))
             wanted = (ant.ground_kind != "free-space", ant.orientation != "horizontal")
             cache = self.__dict__.setdefault("_cache", {})
             todo = [w and key not in cache for key, w in zip(keys, wanted)]
@@ -351,7 +353,7 @@ class _Prepared:
         if coupling:
             c2 = p0 - np.array([self.ant.spacing / 2, 0.0, 0.0])
             nodes = 48 if S <= 30 * self.ant.spacing else 96      # convergence: radiator._GL
-            seconds.append((c2, np.array([0.0, 0.0, -1.0]), S, True, nodes))
+            seconds.append((c2, _stub_direction(self.ant), S, True, nodes))
         if not coupling:
             return [-self._rho_g(k) * rad.mutual_impedances(centre, t, L / 2, seconds, k)[0]]
         # the radiator as it is and perpendicular to the stub
@@ -448,11 +450,22 @@ class _Prepared:
 
 def _radiator_geometry(ant: Antenna, L: float, S: float):
     """Junction point and unit vector of the radiator (m), axes as the NEC harness (tests/necref.py):
-    stub in the x-z plane, radiator along +x (horizontal/sloper) or +z (vertical)."""
+    stub in the x-z plane, radiator along +x (horizontal/sloper), +z (vertical) or -z (inverted:
+    the whole antenna turned upside down about the short, which stays at `height`). Turning it over
+    changes nothing in free space (the coupling integral is symmetric under the turn); over ground
+    the image integral sees the radiator's centre at height - S - L/2 instead of height + S + L/2,
+    and the ground efficiency sees the radiator's far end as the lowest point."""
     if ant.orientation == "vertical":
         return np.array([0.0, 0.0, ant.height + S]), np.array([0.0, 0.0, 1.0])
+    if ant.orientation == "inverted":
+        return np.array([0.0, 0.0, ant.height - S]), np.array([0.0, 0.0, -1.0])
     psi = ant.slope if ant.orientation == "sloper" else 0.0
     return np.array([0.0, 0.0, ant.height]), np.array([np.cos(psi), 0.0, -np.sin(psi)])
+
+
+def _stub_direction(ant: Antenna) -> np.ndarray:
+    """Unit vector along the stub from its open top to the short: down, or up when inverted."""
+    return np.array([0.0, 0.0, 1.0 if ant.orientation == "inverted" else -1.0])
 
 
 def _quarter_wave(line: Line, f0: float) -> float:
@@ -736,7 +749,7 @@ def current_wires(prep: _Prepared, L: float, S: float, i_rad: complex) -> list:
     p0, t = _radiator_geometry(prep.ant, L, S)
     top = p0 - np.array([prep.ant.spacing / 2, 0.0, 0.0])
     return [pattern.open_line_wire(p0, t, L, i_rad, own_r.gamma, own_r.l_e),
-            pattern.open_line_wire(top, (0.0, 0.0, -1.0), S, -i_rad, own_c.gamma, own_c.l_e)]
+            pattern.open_line_wire(top, tuple(_stub_direction(prep.ant)), S, -i_rad, own_c.gamma, own_c.l_e)]
 
 
 def ground_efficiency(prep: _Prepared, L: float, S: float, i_rad: complex = 1.0) -> float:
