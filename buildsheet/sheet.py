@@ -44,6 +44,8 @@ from buildsheet.stock import conductor_name, conductor_size
 LOG_COLUMNS = ("#", "frequency", "SWR", "R (Ω)", "X (Ω)", "what was changed")
 #: smallest move worth making, m: what a tape in the sheet's units resolves (1/8 in; 2 mm)
 MIN_MOVE_M = {"imperial": 0.0254 / 8, "metric": 0.002}
+#: the trimming step the tuning procedure quotes the dip's shift for (`tube`, `twin-lead`), m
+TRIM_STEP_M = {"imperial": 0.0254 / 4, "metric": 0.01}
 #: SWR at the design frequency at which tuning may stop (common practice)
 STOP_SWR = 1.3
 #: the impedance error the tuning table starts from, ohm (see _error_step)
@@ -99,7 +101,8 @@ def dip_rule(s: Solution, u: str) -> tuple[float, bool]:
                      LINEAR_FRACTION * dims.radiator, least)
     df_short = _error_step(_nice(FREQUENCY_STEP * f0), sens["dip_hz_per_m_short"],
                            SHORT_DIP_LINEAR_FRACTION * dims.tap, least)
-    short_moves_dip = df_short >= SHORT_DIP_FRACTION * df
+    # a `tube` build's short is soldered or bolted: never a tuning move
+    short_moves_dip = df_short >= SHORT_DIP_FRACTION * df and s.parts.construction != "tube"
     return (min(df, df_short) if short_moves_dip else df), short_moves_dip
 
 
@@ -426,6 +429,13 @@ class _Context:
 
     def radiator_text(self) -> str:
         r, name = self.d.radiator, self.s.parts.radiator_name
+        if self.s.parts.construction == "twin-lead":
+            return (f"one conductor of the line ({r.label} {r.material}) in its own {r.insulation} "
+                    f"jacket, the other conductor cut at the gap and stripped off above it (velocity "
+                    f"factor {r.velocity_factor:.2f}, taken from a thin {r.insulation} jacket on wire)")
+        if self.s.parts.construction == "tube":
+            return (f"{conductor_name(r.diameter_m, self.u, r.material)}, bare: one long element with "
+                    "the stub conductor below it")
         if self.s.parts.rigid_radiator and r.insulation == "bare":
             return f"{conductor_name(r.diameter_m, self.u, r.material)}, bare"
         if r.insulation == "bare":
@@ -451,6 +461,9 @@ class _Context:
         if site.orientation == "sloper":
             return (f"sloper, the radiator {units.format_angle(site.slope_rad)} below horizontal; the "
                     f"stub's open top {h} above {self.ground()}")
+        if self.s.parts.construction == "twin-lead":
+            return (f"vertical; the short {h} above {self.ground()}, the line hung from its top on a "
+                    "halyard")
         return f"vertical; the short {h} above {self.ground()}, the stub and radiator standing above it"
 
     def layout(self):
@@ -510,6 +523,8 @@ class _Context:
         stock size a shop sells (stock.py) rather than by the bare diameter."""
         r = self.d.radiator
         label = r.label.lower()
+        if self.s.parts.construction == "tube" and item.material == f"{r.material} {self.s.parts.rigid_kind}":
+            return conductor_name(r.diameter_m, self.u, r.material)
         if (item.part == "radiator" and self.s.parts.rigid_radiator and "awg" not in label
                 and not label.startswith("#") and r.insulation == "bare"):
             return conductor_name(r.diameter_m, self.u, r.material)
@@ -731,6 +746,11 @@ class _Context:
             min_move=self.length(least),
             big_move=self.length(BIG_MOVE_FRACTION * dims.stub),
             sleeve=s.sleeve is not None,
+            style=s.parts.construction, radiator_as_cut=self.length(s.radiator_cut_m),
+            open_top="gap" if s.parts.construction == "twin-lead" else "open top",
+            trim=self.length(s.radiator_cut_m - dims.radiator - fc.radiator_margin_m),
+            trim_step=self.length(TRIM_STEP_M[self.u]),
+            trim_step_df=_span(abs(TRIM_STEP_M[self.u] * sens["dip_hz_per_m_radiator"])),
             sloper=d.site.orientation == "sloper",
             **self.station_values(),
             **self.as_built_values(),

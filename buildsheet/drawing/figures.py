@@ -549,6 +549,196 @@ def _radiator(ctx: _Context) -> Drawing:
     return _finish(ctx, "Radiator: length and cut", sheet.items, body_h, notes)
 
 
+# ---------------------------------------------------------------- construction styles
+
+def _piece(solution: Solution, part: str):
+    """The cut list's item `part` (solver.CutItem)."""
+    return next(i for i in solution.cut_list if i.part == part)
+
+
+def _chain(sheet: Layout, y: float, marks: list, offset: float) -> None:
+    """Dimensions along y between consecutive (x, label) marks; a label None leaves a gap."""
+    for (x0, text), (x1, _) in zip(marks, marks[1:]):
+        if text is not None:
+            sheet.add(Dimension(x0, y, x1, y, text, offset))
+
+
+def _tube(ctx: _Context) -> Drawing:
+    """`construction: tube`: the pieces as cut and the J-pole assembled (lying down, its top at the
+    left): ONE long element (radiator and stub conductor in one continuous pipe or rod), the short
+    stub conductor, the short and the mounting section. The printed lengths are the cut list's."""
+    s = ctx.solution
+    dims, parts = s.dimensions, s.parts
+    fmt = ctx.length
+    long_el = _piece(s, "long element")
+    short_el = _piece(s, "short stub conductor")
+    mount = _piece(s, "mounting section")
+    m_rad = s.first_cut.radiator_margin_m
+    top = s.radiator_cut_m - dims.radiator            # trimming allowance (and any tuning margin)
+    through = long_el.length_m - s.radiator_cut_m - dims.stub
+    pipe = 6.0
+    grey = 0.45
+    body_h = 372.0
+    sheet = Layout(WIDTH, body_h)
+
+    # -- as cut
+    sheet.add(Text(PAD + 2.0, 20.0, "As cut", 9.0, bold=True))
+    top_text = f"top {fmt(top)}"
+    x_a = 40.0
+    x_t = x_a + max(46.0, text_width(top_text) + 12.0)
+    x_open = x_t + 160.0
+    x_short = x_open + 134.0
+    x_end = x_short + (34.0 if through > 0 else 0.0)
+    y1 = 62.0
+    sheet.add(BreakMark(x_a, y1, x_open, y1, at=0.55, size=10.0, width=pipe))
+    sheet.add(BreakMark(x_open, y1, x_end, y1, at=0.45, size=10.0, width=pipe))
+    for x in (x_t, x_open, x_short):
+        sheet.add(Line(x, y1 - 7.0, x, y1 + 7.0, width=0.9))
+    marks = [(x_a, top_text), (x_t, f"radiator {fmt(dims.radiator)}"), (x_open, f"stub {fmt(dims.stub)}"),
+             (x_short, f"{fmt(through)}" if through > 0 else None)]
+    if through > 0:
+        marks.append((x_end, None))
+    _chain(sheet, y1, marks, 14.0)
+    sheet.add(Dimension(x_a, y1, x_end, y1, f"long element {fmt(long_el.length_m)}", -16.0))
+    y2 = 122.0
+    sheet.add(BreakMark(x_open, y2, x_end, y2, at=0.45, size=10.0, width=pipe))
+    sheet.add(Line(x_short, y2 - 7.0, x_short, y2 + 7.0, width=0.9))
+    sheet.add(Dimension(x_open, y2, x_end, y2, f"short stub conductor {fmt(short_el.length_m)}", -16.0))
+    y3 = 178.0
+    x_m = 250.0
+    if parts.fittings:
+        sec = _piece(s, "short section")
+        sheet.add(Line(x_a + 20.0, y3, x_a + 70.0, y3, width=pipe))
+        sheet.add(Dimension(x_a + 20.0, y3, x_a + 70.0, y3, f"short section {fmt(sec.length_m)}", -14.0,
+                            beside="end"))
+    else:
+        bar = _piece(s, "short bar")
+        sheet.add(Rect(x_a + 20.0, y3 - 4.0, 60.0, 8.0, width=0.75, fill=grey))
+        for x in (x_a + 34.0, x_a + 66.0):
+            sheet.add(Circle(x, y3, 2.2, width=0.6, fill=1.0))
+        sheet.add(Dimension(x_a + 20.0, y3, x_a + 80.0, y3, f"short bar {fmt(bar.length_m)}", -14.0,
+                            beside="end"))
+    sheet.add(BreakMark(x_m, y3, x_m + 150.0, y3, at=0.5, size=10.0, width=pipe))
+    sheet.add(Dimension(x_m, y3, x_m + 150.0, y3, f"mounting section {fmt(mount.length_m)}", -14.0))
+    sheet.callout(x_a + 6.0, y1 - 3.0, ["free top: trim here to tune"], angles=(90, 60, 120),
+                  radii=(20, 30))
+    sheet.callout((x_t + x_open) / 2 - 40.0, y1 + 3.0, ["ONE piece: radiator and stub conductor"],
+                  angles=(270, 300, 240), radii=(30, 42))
+
+    # -- assembled
+    y_l = 262.0
+    y_s = y_l + 34.0
+    sheet.add(Text(PAD + 2.0, 222.0, "Assembled", 9.0, bold=True))
+    sheet.add(BreakMark(x_a, y_l, x_open, y_l, at=0.55, size=10.0, width=pipe))
+    sheet.add(BreakMark(x_open, y_l, x_short, y_l, at=0.35, size=10.0, width=pipe))
+    sheet.add(BreakMark(x_open, y_s, x_short, y_s, at=0.35, size=10.0, width=pipe))
+    if parts.fittings:
+        sheet.add(Line(x_short, y_l, x_short, y_s, width=pipe))
+        sheet.add(Rect(x_short - 7.0, y_l - 7.0, 14.0, 14.0, width=0.9, fill=grey))       # tee
+        sheet.add(Rect(x_short - 7.0, y_s - 7.0, 14.0, 14.0, width=0.9, fill=grey))       # elbow
+        sheet.add(BreakMark(x_short + 7.0, y_l, x_short + 60.0, y_l, at=0.5, size=10.0, width=pipe))
+        x_mount_end = x_short + 60.0
+        sheet.callout(x_short + 4.0, y_l - 7.0, ["tee"], angles=(60, 45, 90), radii=(16, 24))
+        sheet.callout(x_short + 4.0, y_s + 7.0, ["elbow"], angles=(300, 315, 270), radii=(16, 24))
+    else:
+        for y in (y_l, y_s):
+            sheet.add(Line(x_short, y, x_short + through / max(through, 1e-9) * 10.0, y, width=pipe))
+        sheet.add(Rect(x_short - 4.0, y_l - 9.0, 8.0, y_s - y_l + 18.0, width=0.9, fill=grey))
+        sheet.add(BreakMark(x_short + 4.0, (y_l + y_s) / 2, x_short + 60.0, (y_l + y_s) / 2, at=0.5,
+                            size=10.0, width=pipe))
+        x_mount_end = x_short + 60.0
+        sheet.callout(x_short, y_s + 9.0, ["short bar, bolted"], angles=(300, 315, 270), radii=(16, 24))
+    sheet.callout(x_mount_end - 16.0, y_l + 3.0 if parts.fittings else (y_l + y_s) / 2 + 3.0,
+                  ["mounting section:", "mast clamps here"], angles=(270, 300, 240, 330), radii=(20, 30, 42, 56))
+    tap_d = 44.0
+    x_tap = x_short - tap_d
+    for y in (y_l, y_s):
+        sheet.add(Rect(x_tap - 3.0, y - 5.0, 6.0, 10.0, width=0.9, fill=1.0))
+    sheet.add(Dimension(x_tap, y_s, x_short, y_s, f"tap {fmt(dims.tap)}", -22.0, beside="start"))
+    sheet.add(Dimension(x_open, y_l, x_short, y_l, f"stub {fmt(dims.stub)}", 14.0))
+    sheet.add(Dimension(x_a, y_l, x_open, y_l, f"top to the open top, as cut {fmt(s.radiator_cut_m)}", 14.0))
+    sheet.add(Dimension(x_short + 26.0 + (34.0 if not parts.fittings else 0.0), y_l,
+                        x_short + 26.0 + (34.0 if not parts.fittings else 0.0), y_s,
+                        f"spacing {units.format_length(dims.spacing, ctx.units, 'size')}", -8.0))
+    sheet.callout(x_open, y_s, ["open top: the short conductor", "ends here (high RF voltage)"],
+                  angles=(225, 240, 210), radii=(20, 30, 42))
+    sheet.callout(x_tap, y_l - 5.0, ["tap clamps"], angles=(60, 90, 120), radii=(20, 30))
+    notes = ["Drawn lying down: the left end is the top of the vertical. Not to scale (break marks).",
+             "Lengths to the centre line of the short; " +
+             ("the tee and the elbow take up their own take-off: cut the pipes that much shorter, "
+              "measured on your fittings." if parts.fittings else
+              "the conductors pass through the short bar by the length shown."),
+             "Tuning: the tap and the long element's top; the short stays where it is."
+             + (f" The top includes a {fmt(m_rad)} tuning margin." if m_rad > 0 else ""),
+             ctx.rounding_note()]
+    return _finish(ctx, "Long element and pieces: as cut and assembled", sheet.items, body_h, notes)
+
+
+def _twin_lead(ctx: _Context) -> Drawing:
+    """`construction: twin-lead`: the one piece of line as marked and cut (lying down, its top at the
+    left): the tie allowance, the radiator (one conductor; the other cut at the gap and stripped off
+    above it), the stub from the gap to the short, the tail; the short link and the tap. The printed
+    lengths are the cut list's and the tuning procedure's first cut."""
+    s = ctx.solution
+    dims = s.dimensions
+    fc = s.first_cut
+    fmt = ctx.length
+    line = _piece(s, "line, one piece")
+    tie = s.wrap_allowance_m
+    rad = dims.radiator + fc.radiator_margin_m
+    stub = dims.stub + fc.stub_margin_m
+    tail = line.length_m - tie - rad - stub
+    body_h = 250.0
+    sheet = Layout(WIDTH, body_h)
+    sheet.add(Text(PAD + 2.0, 20.0, "One piece of line, as marked and cut", 9.0, bold=True))
+    tie_text = f"tie {fmt(tie)}"
+    x_a = 40.0
+    x_r = x_a + max(40.0, text_width(tie_text) + 12.0)
+    x_gap = x_r + 186.0
+    x_short = x_gap + 150.0
+    x_end = x_short + max(40.0, text_width(fmt(tail)) + 12.0)
+    y_r, y_o = 96.0, 106.0
+    # the web: between the conductors from the gap down; above it the radiator keeps its half
+    sheet.add(Hatch(x_gap, y_r, x_end - x_gap, y_o - y_r, grey=WEB_GREY))
+    sheet.add(Hatch(x_a, y_r, x_gap - x_a, 4.0, grey=WEB_GREY))
+    sheet.add(BreakMark(x_a, y_r, x_gap, y_r, at=0.55, size=9.0, width=CONDUCTOR + 0.3))
+    sheet.add(BreakMark(x_gap, y_r, x_end, y_r, at=0.35, size=9.0, width=CONDUCTOR + 0.3))
+    sheet.add(BreakMark(x_gap + 3.0, y_o, x_end, y_o, at=0.35, size=9.0, width=CONDUCTOR + 0.3))
+    sheet.add(Line(x_gap - 3.0, y_o - 4.0, x_gap + 1.0, y_o + 4.0, width=0.9))
+    sheet.add(Circle((x_a + x_r) / 2, y_r + 2.0, 2.4, width=0.6, fill=1.0))
+    for x in (x_r, x_gap, x_short):
+        sheet.add(Line(x, y_r - 8.0, x, y_r - 2.0, width=0.9))
+    sheet.add(Line(x_short, y_r, x_short, y_o, width=3.0))
+    tap_d = 44.0
+    x_tap = x_short - tap_d
+    for y in (y_r, y_o):
+        sheet.add(Rect(x_tap - 3.0, y - 4.0, 6.0, 8.0, width=0.9, fill=1.0))
+    sheet.add(Line(x_tap, y_o + 4.0, x_tap, y_o + 44.0, width=COAX))
+    _chain(sheet, y_r, [(x_a, tie_text), (x_r, f"radiator, first cut {fmt(rad)}"),
+                        (x_gap, f"stub, first cut {fmt(stub)}"), (x_short, fmt(tail)), (x_end, None)], 16.0)
+    sheet.add(Dimension(x_a, y_o, x_end, y_o, f"line, one piece {fmt(line.length_m)}", -62.0))
+    sheet.add(Dimension(x_tap, y_o, x_short, y_o, f"tap {fmt(dims.tap)}", -24.0, beside="start"))
+    sheet.callout((x_a + x_r) / 2, y_r + 2.0, ["tie hole: end insulator", "and halyard"],
+                  angles=(270, 240, 300), radii=(30, 42, 56))
+    sheet.callout(x_gap, y_o + 2.0, ["gap: the other conductor cut", "here and stripped off above"],
+                  angles=(250, 270, 230), radii=(42, 56, 72))
+    sheet.callout(x_short, y_r - 2.0, ["short: wire link,", "soldered"], angles=(60, 45, 75),
+                  radii=(24, 32, 42))
+    sheet.callout(x_tap, y_r - 4.0, ["tap: clips to find it,", "then soldered"], angles=(120, 135, 100),
+                  radii=(24, 32, 42))
+    sheet.callout(x_tap, y_o + 40.0, [f"coax {ctx.design.feed.coax}, through", "the choke to the station"],
+                  angles=(180, 200, 160), radii=(16, 24, 32))
+    notes = ["Drawn lying down: the left end is the top of the vertical. Not to scale (break marks).",
+             f"Solved: radiator {fmt(dims.radiator)} (top end to the gap), stub {fmt(dims.stub)} (gap "
+             "to the short's centre line); the first cut is long by the tuning margins (see the tuning "
+             "procedure): trim the top and move the short up to tune.",
+             ctx.rounding_note()]
+    return _finish(ctx, "The line: radiator, gap, stub and short in one piece", sheet.items, body_h, notes)
+
+
+STYLE_FIGURES = {"tube": _tube, "twin-lead": _twin_lead}
+
+
 # ---------------------------------------------------------------- stub
 
 def _web(sheet: Layout, ctx: _Context, x_j: float, x_o: float, spans, keep_clear) -> None:
@@ -974,4 +1164,6 @@ def figures(design: Design, solution: Solution, date: str) -> dict[str, Drawing]
     ctx = _Context(design, solution, date)
     builders = {"overview": _overview, "radiator": _radiator, "stub": _stub, "short-tap": _short_tap,
                 "choke": _choke, "swr": _swr, "smith": _smith, "pattern": _pattern}
+    # a construction style's own drawing of its pieces takes the radiator's place
+    builders["radiator"] = STYLE_FIGURES.get(solution.parts.construction, _radiator)
     return {key: builders[key](ctx) for key in FIGURES}
