@@ -747,6 +747,10 @@ class _Context:
             big_move=self.length(BIG_MOVE_FRACTION * dims.stub),
             sleeve=s.sleeve is not None,
             style=s.parts.construction, radiator_as_cut=self.length(s.radiator_cut_m),
+            shorten_radiator=("trim the long element's top" if s.parts.construction == "tube"
+                              else "shorten the radiator"),
+            lengthen_radiator=("lengthen the long element's top (a sliding sleeve)"
+                               if s.parts.construction == "tube" else "lengthen the radiator"),
             open_top="gap" if s.parts.construction == "twin-lead" else "open top",
             trim=self.length(s.radiator_cut_m - dims.radiator - fc.radiator_margin_m),
             trim_step=self.length(TRIM_STEP_M[self.u]),

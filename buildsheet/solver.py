@@ -989,17 +989,14 @@ def _tube_pieces(design: Design, d: Dimensions, wrap: float, ch, first: FirstCut
     items += [_tap_leads(design, d), *_feed_pieces(design, ch, parts, sleeve)]
     fits = st.conductor_diameter_m
     hardware = [
-        HardwareItem("tap clamps", 2, "hose clamps that can slide along the long element and the short "
-                     "stub conductor", fits_m=fits),
+        HardwareItem("tap clamps", 2, "hose clamps, sliding along both conductors", fits_m=fits),
     ]
     if parts.fittings:
         hardware += [
-            HardwareItem("copper tee", 1, "on the long element at the short; the mounting section "
-                         "below it", fits_m=fits),
-            HardwareItem("copper elbow, 90°", 1, "on the short stub conductor at the short", fits_m=fits),
-            HardwareItem("solder and flux", 1, "lead-free plumbing solder, for the tee and the elbow"),
-            HardwareItem("end caps", 2, "on the two open tops after the tuning (keep water out)",
-                         fits_m=fits),
+            HardwareItem("copper fittings: a tee and a 90° elbow", 2, "the short: the tee on the long "
+                         "element, the elbow on the short conductor", fits_m=fits),
+            HardwareItem("solder and flux", 1, "lead-free, for plumbing"),
+            HardwareItem("end caps", 2, "on both tops after the tuning"),
         ]
     else:
         hardware += [
@@ -1008,8 +1005,8 @@ def _tube_pieces(design: Design, d: Dimensions, wrap: float, ch, first: FirstCut
             HardwareItem("bolts for the mounting section", 2, "stainless, through the short bar's middle"),
         ]
     hardware += [
-        HardwareItem("mast clamps (U-bolts)", 2, "hold the mounting section to the mast: the short is "
-                     "at low RF voltage, so no insulator is needed there (common practice)"),
+        HardwareItem("mast clamps (U-bolts)", 2, "on the mounting section (low RF voltage at the short: "
+                     "common practice)"),
         *_feed_hardware(design, ch, sleeve),
     ]
     return tuple(items), tuple(hardware)
@@ -1039,7 +1036,7 @@ def _twin_lead_pieces(design: Design, d: Dimensions, wrap: float, ch, first: Fir
         *_feed_pieces(design, ch, parts, sleeve),
     ]
     top = design.site.height_m + d.stub + first.stub_margin_m + d.radiator + m_rad + wrap
-    items.append(CutItem("halyard", "UV-resistant polyester rope", 2 * top + TIE_OFF_M, 1, TIE_OFF_M,
+    items.append(CutItem("halyard rope", "UV-resistant polyester rope", 2 * top + TIE_OFF_M, 1, TIE_OFF_M,
                          "over a pulley or a limb above the top and back down to a cleat "
                          "(common practice)", coarse=True))
     hardware = [

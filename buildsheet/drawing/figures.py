@@ -405,11 +405,17 @@ def _overview_vertical(ctx: _Context) -> tuple[Layout, float]:
     sheet = Layout(WIDTH, body_h)
     sheet.add(*_ground(PAD, WIDTH - PAD, y_g))
 
-    # mast beside the stub, stand-off insulator below the short
+    # mast beside the stub, stand-off insulator below the short (a `tube`: the mounting section's
+    # mast clamps; a `twin-lead` hangs from its halyard, its tail tied down with a cord)
+    style = s.parts.construction
     x_m = x_o + 16.0
-    sheet.add(BreakMark(x_m, y_short + 4.0, x_m, y_g, at=0.55, width=3.0))
     y_so = y_short + 15.0
-    sheet.add(Rect(x_o + 1.5, y_so - 2.5, x_m - x_o - 3.0, 5.0, width=0.6, fill=INSULATOR_GREY))
+    if style == "twin-lead":
+        sheet.add(Line(x_o, y_end, x_m + 30.0, y_g, width=ROPE, dash=ROPE_DASH))
+    else:
+        sheet.add(BreakMark(x_m, y_short + 4.0, x_m, y_g, at=0.55, width=3.0))
+        sheet.add(Rect(x_o + 1.5, y_so - 2.5, x_m - x_o - 3.0, 5.0, width=0.6,
+                       fill=0.45 if style == "tube" else INSULATOR_GREY))
 
     # radiator straight up from the radiator-side conductor
     sheet.add(BreakMark(x_j, y_top, x_j, y_end_top, at=0.5, width=CONDUCTOR))
@@ -441,9 +447,14 @@ def _overview_vertical(ctx: _Context) -> tuple[Layout, float]:
                   angles=(330, 345, 315, 30, 0))
     sheet.callout(x_j, y_top - 30.0, ["the radiator continues", "from this conductor"],
                   angles=(200, 180, 225, 160))
-    sheet.callout(x_o + 5.0, y_so + 2.5, ["stand-off insulator"], angles=(330, 315, 345, 300),
-                  radii=(30, 42, 56, 72))
-    sheet.callout(x_m, y_g - 24.0, ["mast"], angles=(20, 0, 40, 340), radii=(20, 30, 42, 56))
+    if style == "twin-lead":
+        sheet.callout((x_o + x_m + 30.0) / 2, (y_end + y_g) / 2, ["cord: the tail tied down"],
+                      angles=(0, 330, 30), radii=(20, 30, 42, 56))
+    else:
+        sheet.callout(x_o + 5.0, y_so + 2.5, ["mounting section, mast clamps" if style == "tube"
+                                              else "stand-off insulator"], angles=(330, 315, 345, 300),
+                      radii=(30, 42, 56, 72))
+        sheet.callout(x_m, y_g - 24.0, ["mast"], angles=(20, 0, 40, 340), radii=(20, 30, 42, 56))
     _feed_callouts(sheet, ctx, a, y_choke, y_coax)
     sheet.add(Text(PAD + 2.0, y_g + 16.0, "ground", LABEL))
     return sheet, body_h
@@ -578,7 +589,7 @@ def _tube(ctx: _Context) -> Drawing:
     through = long_el.length_m - s.radiator_cut_m - dims.stub
     pipe = 6.0
     grey = 0.45
-    body_h = 372.0
+    body_h = 420.0
     sheet = Layout(WIDTH, body_h)
 
     # -- as cut
@@ -599,11 +610,11 @@ def _tube(ctx: _Context) -> Drawing:
     if through > 0:
         marks.append((x_end, None))
     _chain(sheet, y1, marks, 14.0)
-    sheet.add(Dimension(x_a, y1, x_end, y1, f"long element {fmt(long_el.length_m)}", -16.0))
+    sheet.add(Dimension(x_a, y1, x_end, y1, f"long element {fmt(long_el.length_m)}", -24.0))
     y2 = 122.0
     sheet.add(BreakMark(x_open, y2, x_end, y2, at=0.45, size=10.0, width=pipe))
     sheet.add(Line(x_short, y2 - 7.0, x_short, y2 + 7.0, width=0.9))
-    sheet.add(Dimension(x_open, y2, x_end, y2, f"short stub conductor {fmt(short_el.length_m)}", -16.0))
+    sheet.add(Dimension(x_open, y2, x_end, y2, f"short stub conductor {fmt(short_el.length_m)}", -24.0))
     y3 = 178.0
     x_m = 250.0
     if parts.fittings:
@@ -619,15 +630,15 @@ def _tube(ctx: _Context) -> Drawing:
         sheet.add(Dimension(x_a + 20.0, y3, x_a + 80.0, y3, f"short bar {fmt(bar.length_m)}", -14.0,
                             beside="end"))
     sheet.add(BreakMark(x_m, y3, x_m + 150.0, y3, at=0.5, size=10.0, width=pipe))
-    sheet.add(Dimension(x_m, y3, x_m + 150.0, y3, f"mounting section {fmt(mount.length_m)}", -14.0))
-    sheet.callout(x_a + 6.0, y1 - 3.0, ["free top: trim here to tune"], angles=(90, 60, 120),
-                  radii=(20, 30))
-    sheet.callout((x_t + x_open) / 2 - 40.0, y1 + 3.0, ["ONE piece: radiator and stub conductor"],
-                  angles=(270, 300, 240), radii=(30, 42))
+    sheet.add(Dimension(x_m, y3, x_m + 150.0, y3, f"mounting section {fmt(mount.length_m)}", -24.0))
+    sheet.callout(x_a + 4.0, y1 + 3.0, ["free top: trim here to tune"], angles=(250, 270, 235),
+                  radii=(44, 56, 72))
+    sheet.callout(x_open + 30.0, y1 + 3.0, ["ONE piece: radiator and stub conductor"],
+                  angles=(290, 270, 310), radii=(44, 56, 72))
 
     # -- assembled
     y_l = 262.0
-    y_s = y_l + 34.0
+    y_s = y_l + 70.0
     sheet.add(Text(PAD + 2.0, 222.0, "Assembled", 9.0, bold=True))
     sheet.add(BreakMark(x_a, y_l, x_open, y_l, at=0.55, size=10.0, width=pipe))
     sheet.add(BreakMark(x_open, y_l, x_short, y_l, at=0.35, size=10.0, width=pipe))
@@ -639,7 +650,7 @@ def _tube(ctx: _Context) -> Drawing:
         sheet.add(BreakMark(x_short + 7.0, y_l, x_short + 60.0, y_l, at=0.5, size=10.0, width=pipe))
         x_mount_end = x_short + 60.0
         sheet.callout(x_short + 4.0, y_l - 7.0, ["tee"], angles=(60, 45, 90), radii=(16, 24))
-        sheet.callout(x_short + 4.0, y_s + 7.0, ["elbow"], angles=(300, 315, 270), radii=(16, 24))
+        sheet.callout(x_short + 4.0, y_s + 7.0, ["elbow"], angles=(315, 300, 330), radii=(16, 24))
     else:
         for y in (y_l, y_s):
             sheet.add(Line(x_short, y, x_short + through / max(through, 1e-9) * 10.0, y, width=pipe))
@@ -649,20 +660,19 @@ def _tube(ctx: _Context) -> Drawing:
         x_mount_end = x_short + 60.0
         sheet.callout(x_short, y_s + 9.0, ["short bar, bolted"], angles=(300, 315, 270), radii=(16, 24))
     sheet.callout(x_mount_end - 16.0, y_l + 3.0 if parts.fittings else (y_l + y_s) / 2 + 3.0,
-                  ["mounting section:", "mast clamps here"], angles=(270, 300, 240, 330), radii=(20, 30, 42, 56))
-    tap_d = 44.0
+                  ["mounting section:", "mast clamps here"], angles=(300, 270, 330, 240), radii=(20, 30, 42, 56))
+    tap_d = 60.0
     x_tap = x_short - tap_d
     for y in (y_l, y_s):
         sheet.add(Rect(x_tap - 3.0, y - 5.0, 6.0, 10.0, width=0.9, fill=1.0))
-    sheet.add(Dimension(x_tap, y_s, x_short, y_s, f"tap {fmt(dims.tap)}", -22.0, beside="start"))
+    sheet.add(Dimension(x_tap, y_s, x_short, y_s, f"tap {fmt(dims.tap)}", -16.0, beside="start"))
     sheet.add(Dimension(x_open, y_l, x_short, y_l, f"stub {fmt(dims.stub)}", 14.0))
     sheet.add(Dimension(x_a, y_l, x_open, y_l, f"top to the open top, as cut {fmt(s.radiator_cut_m)}", 14.0))
-    sheet.add(Dimension(x_short + 26.0 + (34.0 if not parts.fittings else 0.0), y_l,
-                        x_short + 26.0 + (34.0 if not parts.fittings else 0.0), y_s,
-                        f"spacing {units.format_length(dims.spacing, ctx.units, 'size')}", -8.0))
+    sheet.add(Dimension(x_open + 20.0, y_l, x_open + 20.0, y_s,
+                        f"spacing {units.format_length(dims.spacing, ctx.units, 'size')}", 0.0))
     sheet.callout(x_open, y_s, ["open top: the short conductor", "ends here (high RF voltage)"],
                   angles=(225, 240, 210), radii=(20, 30, 42))
-    sheet.callout(x_tap, y_l - 5.0, ["tap clamps"], angles=(60, 90, 120), radii=(20, 30))
+    sheet.callout(x_tap + 3.0, y_s - 3.0, ["tap clamps"], angles=(45, 60, 30), radii=(20, 24, 32))
     notes = ["Drawn lying down: the left end is the top of the vertical. Not to scale (break marks).",
              "Lengths to the centre line of the short; " +
              ("the tee and the elbow take up their own take-off: cut the pipes that much shorter, "
@@ -688,7 +698,7 @@ def _twin_lead(ctx: _Context) -> Drawing:
     rad = dims.radiator + fc.radiator_margin_m
     stub = dims.stub + fc.stub_margin_m
     tail = line.length_m - tie - rad - stub
-    body_h = 250.0
+    body_h = 270.0
     sheet = Layout(WIDTH, body_h)
     sheet.add(Text(PAD + 2.0, 20.0, "One piece of line, as marked and cut", 9.0, bold=True))
     tie_text = f"tie {fmt(tie)}"
@@ -697,37 +707,37 @@ def _twin_lead(ctx: _Context) -> Drawing:
     x_gap = x_r + 186.0
     x_short = x_gap + 150.0
     x_end = x_short + max(40.0, text_width(fmt(tail)) + 12.0)
-    y_r, y_o = 96.0, 106.0
+    y_r, y_o = 110.0, 128.0
     # the web: between the conductors from the gap down; above it the radiator keeps its half
     sheet.add(Hatch(x_gap, y_r, x_end - x_gap, y_o - y_r, grey=WEB_GREY))
     sheet.add(Hatch(x_a, y_r, x_gap - x_a, 4.0, grey=WEB_GREY))
     sheet.add(BreakMark(x_a, y_r, x_gap, y_r, at=0.55, size=9.0, width=CONDUCTOR + 0.3))
-    sheet.add(BreakMark(x_gap, y_r, x_end, y_r, at=0.35, size=9.0, width=CONDUCTOR + 0.3))
-    sheet.add(BreakMark(x_gap + 3.0, y_o, x_end, y_o, at=0.35, size=9.0, width=CONDUCTOR + 0.3))
+    sheet.add(BreakMark(x_gap, y_r, x_end, y_r, at=0.2, size=9.0, width=CONDUCTOR + 0.3))
+    sheet.add(BreakMark(x_gap + 3.0, y_o, x_end, y_o, at=0.2, size=9.0, width=CONDUCTOR + 0.3))
     sheet.add(Line(x_gap - 3.0, y_o - 4.0, x_gap + 1.0, y_o + 4.0, width=0.9))
     sheet.add(Circle((x_a + x_r) / 2, y_r + 2.0, 2.4, width=0.6, fill=1.0))
     for x in (x_r, x_gap, x_short):
         sheet.add(Line(x, y_r - 8.0, x, y_r - 2.0, width=0.9))
     sheet.add(Line(x_short, y_r, x_short, y_o, width=3.0))
-    tap_d = 44.0
+    tap_d = 60.0
     x_tap = x_short - tap_d
     for y in (y_r, y_o):
         sheet.add(Rect(x_tap - 3.0, y - 4.0, 6.0, 8.0, width=0.9, fill=1.0))
-    sheet.add(Line(x_tap, y_o + 4.0, x_tap, y_o + 44.0, width=COAX))
+    sheet.add(Line(x_tap, y_o + 4.0, x_tap, y_o + 90.0, width=COAX))
     _chain(sheet, y_r, [(x_a, tie_text), (x_r, f"radiator, first cut {fmt(rad)}"),
                         (x_gap, f"stub, first cut {fmt(stub)}"), (x_short, fmt(tail)), (x_end, None)], 16.0)
-    sheet.add(Dimension(x_a, y_o, x_end, y_o, f"line, one piece {fmt(line.length_m)}", -62.0))
+    sheet.add(Dimension(x_a, y_r, x_end, y_r, f"line, one piece {fmt(line.length_m)}", 44.0))
     sheet.add(Dimension(x_tap, y_o, x_short, y_o, f"tap {fmt(dims.tap)}", -24.0, beside="start"))
     sheet.callout((x_a + x_r) / 2, y_r + 2.0, ["tie hole: end insulator", "and halyard"],
                   angles=(270, 240, 300), radii=(30, 42, 56))
     sheet.callout(x_gap, y_o + 2.0, ["gap: the other conductor cut", "here and stripped off above"],
                   angles=(250, 270, 230), radii=(42, 56, 72))
-    sheet.callout(x_short, y_r - 2.0, ["short: wire link,", "soldered"], angles=(60, 45, 75),
-                  radii=(24, 32, 42))
-    sheet.callout(x_tap, y_r - 4.0, ["tap: clips to find it,", "then soldered"], angles=(120, 135, 100),
-                  radii=(24, 32, 42))
-    sheet.callout(x_tap, y_o + 40.0, [f"coax {ctx.design.feed.coax}, through", "the choke to the station"],
-                  angles=(180, 200, 160), radii=(16, 24, 32))
+    sheet.callout(x_short, y_o + 2.0, ["short: wire link,", "soldered"], angles=(300, 315, 330, 285),
+                  radii=(24, 32, 42, 56))
+    sheet.callout(x_tap, y_o + 4.0, ["tap: clips to find it,", "then soldered"], angles=(210, 225, 240, 195),
+                  radii=(30, 42, 56, 72))
+    sheet.callout(x_tap, y_o + 80.0, [f"coax {ctx.design.feed.coax}, through", "the choke to the station"],
+                  angles=(0, 20, 340), radii=(16, 24, 32))
     notes = ["Drawn lying down: the left end is the top of the vertical. Not to scale (break marks).",
              f"Solved: radiator {fmt(dims.radiator)} (top end to the gap), stub {fmt(dims.stub)} (gap "
              "to the short's centre line); the first cut is long by the tuning margins (see the tuning "
@@ -801,7 +811,8 @@ def _stub(ctx: _Context) -> Drawing:
 
     # open top: the junction first, so that the callouts placed after it keep clear of it
     sheet.add(Circle(x_j, y_top, 2.4, width=0, fill=0.0))
-    if not s.parts.rigid_radiator:
+    style = s.parts.construction
+    if not s.parts.rigid_radiator and style != "twin-lead":
         sheet.add(_wrap_mark(x_j, y_top + 2.0, 7, "y", amplitude=2.4))
     if orientation == "vertical":
         sheet.add(Line(x_j, y_top, x_j, PAD + 8.0, width=CONDUCTOR + 0.3))
@@ -845,13 +856,16 @@ def _stub(ctx: _Context) -> Drawing:
 
     sheet.callout(x_o, y_top, ["open end: this conductor", "ends here (high RF voltage)"],
                   angles=(45, 30, 60), radii=(56, 72, 90, 110))
-    sheet.callout(x_j, y_top + 6.0, ["junction: the radiator", "on this conductor only"],
+    sheet.callout(x_j, y_top + 6.0, ["one piece: the long element", "goes on up as the radiator"]
+                  if style == "tube" else ["this conductor goes on up", "as the radiator (the gap)"]
+                  if style == "twin-lead" else ["junction: the radiator", "on this conductor only"],
                   angles=(225, 240, 200, 135), radii=(30, 42, 56, 72))
     sheet.place_group([_section(ctx, 104.0, cy) for cy in (y_b + 8.0, y_tap + 10.0, y_b - 40.0,
                                                             y_short + 40.0)], "the stub's section")
     short_text = ["short: bar or pipe across,", "clamped or soldered"] if s.parts.rigid_stub else ["short: wire across both", "conductors, soldered"]
     sheet.callout(x_j, y_short, short_text, angles=(200, 225, 180), radii=(30, 42, 56, 72))
-    sheet.callout(x_j - 4.0, y_tap, ["tap clamps: they slide", "along the stub to tune"],
+    sheet.callout(x_j - 4.0, y_tap, ["tap: clips to find it,", "then soldered"] if style == "twin-lead"
+                  else ["tap clamps: they slide", "along the stub to tune"],
                   angles=(160, 180, 135, 200), radii=(30, 42, 56, 72))
     sheet.callout(x_mid - 2.0, e_y, ["coax centre to the radiator", "side, braid to the other"],
                   angles=(150, 135, 165), radii=(56, 72, 90))
