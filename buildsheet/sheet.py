@@ -44,8 +44,16 @@ from buildsheet.stock import conductor_name, conductor_size
 LOG_COLUMNS = ("#", "frequency", "SWR", "R (Ω)", "X (Ω)", "what was changed")
 #: smallest move worth making, m: what a tape in the sheet's units resolves (1/8 in; 2 mm)
 MIN_MOVE_M = {"imperial": 0.0254 / 8, "metric": 0.002}
-#: the trimming step the tuning procedure quotes the dip's shift for (`tube`, `twin-lead`), m
-TRIM_STEP_M = {"imperial": 0.0254 / 4, "metric": 0.01}
+#: the trimming steps the tuning procedure may quote the dip's shift for (`tube`, `twin-lead`), m,
+#: largest first: the largest within 1 % of the radiator (trim_step_m)
+TRIM_STEPS_M = {"imperial": (0.0254 / 4, 0.0254 / 8), "metric": (0.01, 0.005, 0.002)}
+
+
+def trim_step_m(radiator_m: float, system: str) -> float:
+    """The trimming step the tuning procedure quotes: the largest of TRIM_STEPS_M within 1 % of the
+    radiator (a cut a builder makes in one go), else the smallest."""
+    steps = TRIM_STEPS_M[system]
+    return next((x for x in steps if x <= 0.01 * radiator_m), steps[-1])
 #: SWR at the design frequency at which tuning may stop (common practice)
 STOP_SWR = 1.3
 #: the impedance error the tuning table starts from, ohm (see _error_step)
@@ -753,8 +761,8 @@ class _Context:
                                if s.parts.construction == "tube" else "lengthen the radiator"),
             open_top="gap" if s.parts.construction == "twin-lead" else "open top",
             trim=self.length(s.radiator_cut_m - dims.radiator - fc.radiator_margin_m),
-            trim_step=self.length(TRIM_STEP_M[self.u]),
-            trim_step_df=_span(abs(TRIM_STEP_M[self.u] * sens["dip_hz_per_m_radiator"])),
+            trim_step=self.length(trim_step_m(dims.radiator, self.u)),
+            trim_step_df=_span(abs(trim_step_m(dims.radiator, self.u) * sens["dip_hz_per_m_radiator"])),
             sloper=d.site.orientation == "sloper",
             **self.station_values(),
             **self.as_built_values(),

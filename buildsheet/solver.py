@@ -67,6 +67,13 @@ FDTD_SPACING_WAVELENGTHS = 0.049
 FDTD_DESIGNS = (11, 5)
 FDTD_FIRST_CUT_SWR = (1.02, 1.15)
 FDTD_FIRST_CUT_SWR_HELD_OUT = (1.04, 1.15)
+#: `construction: twin-lead` against NEC-2, which has no dielectric: the 2 m demo's first cut meshed as
+#: bare wires with every length divided by the velocity factor the model took for it and the stub
+#: spaced for the line's Z0 in air (bench/twinlead_nec.py, bench/data/twinlead-nec.json; checked
+#: against the stored run by tests/test_styles.py): NEC-2 SWR at the design frequency and the dip's
+#: offset from it, fraction
+TWIN_LEAD_NEC_SWR = 1.35
+TWIN_LEAD_NEC_DIP = 0.005
 
 
 @dataclass(frozen=True)
@@ -610,6 +617,14 @@ def envelope_warnings(design: Design) -> tuple[str, ...]:
                        f"{FDTD_SPACING_RATIO[0]:g} diameters with a radiator at most "
                        f"{FDTD_RADIATOR_FRACTION:.2f} × the spacing thick: expect more tuning, and "
                        "keep the cut list's cutting allowance on the pieces until the tuning is done")
+    if design.construction == "twin-lead":
+        out.append(f"a radiator made of the line's own conductor in its jacket cannot be checked by "
+                   f"NEC-2, which has no dielectric; meshed as bare wires with the line's and the "
+                   f"jacket's velocity factors as effective ones (the same electrical lengths and Z0), "
+                   f"the 2 m demo's first cut reads SWR {TWIN_LEAD_NEC_SWR:.2f} at the design frequency "
+                   f"with the dip {TWIN_LEAD_NEC_DIP * 100:.1f} % high; the velocity factors themselves "
+                   "are the first cut's uncertainty, so the radiator and the stub are cut long by "
+                   "their spreads: trim the top and move the short up to tune")
     slope = math.degrees(design.site.slope_rad)
     if design.site.orientation == "sloper" and slope > ENVELOPE_SLOPE_DEG:
         out.append(f"a slope of {slope:.0f}° is steeper than the "
