@@ -44,6 +44,9 @@ from buildsheet.stock import conductor_name, conductor_size
 LOG_COLUMNS = ("#", "frequency", "SWR", "R (Ω)", "X (Ω)", "what was changed")
 #: smallest move worth making, m: what a tape in the sheet's units resolves (1/8 in; 2 mm)
 MIN_MOVE_M = {"imperial": 0.0254 / 8, "metric": 0.002}
+#: where a construction style's radiator ends at the stub (DESIGN.md §5's junction), as the summary
+#: names it
+JUNCTION = {"tube": "the stub's open top, on the long element", "twin-lead": "the gap in the other conductor"}
 #: the trimming steps the tuning procedure may quote the dip's shift for (`tube`, `twin-lead`), m,
 #: largest first: the largest within 1 % of the radiator (trim_step_m)
 TRIM_STEPS_M = {"imperial": (0.0254 / 4, 0.0254 / 8), "metric": (0.01, 0.005, 0.002)}
@@ -381,9 +384,11 @@ class _Context:
             )),
             KeyFigures((
                 KeyFigure("radiator", _e(self.length(dims.radiator)),
-                          f"{self.radiator_end()} to the junction at the stub's open top"),
+                          f"{self.radiator_end()} to " + JUNCTION.get(s.parts.construction,
+                                                                     "the junction at the stub's open top")),
                 KeyFigure("stub", _e(self.length(dims.stub)),
-                          "open top (the junction) to the centre line of the short"),
+                          ("the gap" if s.parts.construction == "twin-lead" else "open top (the junction)")
+                          + " to the centre line of the short"),
                 KeyFigure("tap", _e(self.length(dims.tap)),
                           "centre line of the short to the tap, measured along the stub"),
                 KeyFigure("spacing", _e(self.size(dims.spacing)),

@@ -618,13 +618,11 @@ def envelope_warnings(design: Design) -> tuple[str, ...]:
                        f"{FDTD_RADIATOR_FRACTION:.2f} × the spacing thick: expect more tuning, and "
                        "keep the cut list's cutting allowance on the pieces until the tuning is done")
     if design.construction == "twin-lead":
-        out.append(f"a radiator made of the line's own conductor in its jacket cannot be checked by "
-                   f"NEC-2, which has no dielectric; meshed as bare wires with the line's and the "
-                   f"jacket's velocity factors as effective ones (the same electrical lengths and Z0), "
-                   f"the 2 m demo's first cut reads SWR {TWIN_LEAD_NEC_SWR:.2f} at the design frequency "
-                   f"with the dip {TWIN_LEAD_NEC_DIP * 100:.1f} % high; the velocity factors themselves "
-                   "are the first cut's uncertainty, so the radiator and the stub are cut long by "
-                   "their spreads: trim the top and move the short up to tune")
+        out.append(f"the line's own conductor as the radiator cannot be checked by NEC-2 (no "
+                   f"dielectric); as bare wires of the same electrical lengths and Z0, the 2 m demo's "
+                   f"first cut reads SWR {TWIN_LEAD_NEC_SWR:.2f} at the design frequency, the dip "
+                   f"{TWIN_LEAD_NEC_DIP * 100:.1f} % high; the velocity factors' spreads stay the first "
+                   "cut's uncertainty (the tuning margins)")
     slope = math.degrees(design.site.slope_rad)
     if design.site.orientation == "sloper" and slope > ENVELOPE_SLOPE_DEG:
         out.append(f"a slope of {slope:.0f}° is steeper than the "

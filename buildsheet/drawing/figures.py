@@ -397,10 +397,10 @@ def _overview_vertical(ctx: _Context) -> tuple[Layout, float]:
     wire = not s.parts.rigid_radiator
     y_end_top = 62.0 if wire else 40.0
     tap_text = f"tap {fmt(dims.tap)}"
-    a = StubAnchors.hanging(200.0, 212.0, top=y_end_top + 116.0, stub_span=150.0,
+    a = StubAnchors.hanging(200.0, 212.0, top=y_end_top + 96.0, stub_span=130.0,
                             tap_span=_tap_span(tap_text), tail=22.0)
     x_j, x_o, x_mid, y_top, y_tap, y_short, y_end = a.x_j, a.x_o, a.mid, a.top, a.tap, a.short, a.end
-    y_g = y_end + 8.0 + 84.0
+    y_g = y_end + 8.0 + 66.0
     body_h = y_g + 26.0
     sheet = Layout(WIDTH, body_h)
     sheet.add(*_ground(PAD, WIDTH - PAD, y_g))
@@ -595,9 +595,9 @@ def _tube(ctx: _Context) -> Drawing:
     # -- as cut
     sheet.add(Text(PAD + 2.0, 20.0, "As cut", 9.0, bold=True))
     top_text = f"top {fmt(top)}"
-    x_a = 40.0
+    x_a = 24.0
     x_t = x_a + max(46.0, text_width(top_text) + 12.0)
-    x_open = x_t + 160.0
+    x_open = x_t + 150.0
     x_short = x_open + 134.0
     x_end = x_short + (34.0 if through > 0 else 0.0)
     y1 = 62.0
@@ -658,9 +658,9 @@ def _tube(ctx: _Context) -> Drawing:
         sheet.add(BreakMark(x_short + 4.0, (y_l + y_s) / 2, x_short + 60.0, (y_l + y_s) / 2, at=0.5,
                             size=10.0, width=pipe))
         x_mount_end = x_short + 60.0
-        sheet.callout(x_short, y_s + 9.0, ["short bar, bolted"], angles=(300, 315, 270), radii=(16, 24))
+        sheet.callout(x_short, y_s + 9.0, ["short bar, bolted"], angles=(240, 225, 255), radii=(24, 32))
     sheet.callout(x_mount_end - 16.0, y_l + 3.0 if parts.fittings else (y_l + y_s) / 2 + 3.0,
-                  ["mounting section:", "mast clamps here"], angles=(300, 270, 330, 240), radii=(20, 30, 42, 56))
+                  ["mounting section:", "mast clamps here"], angles=(315, 330, 300, 270), radii=(20, 30, 42, 56))
     tap_d = 60.0
     x_tap = x_short - tap_d
     for y in (y_l, y_s):
