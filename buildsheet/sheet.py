@@ -766,6 +766,7 @@ class _Context:
                                if s.parts.construction == "tube" else "lengthen the radiator"),
             open_top="gap" if s.parts.construction == "twin-lead" else "open top",
             trim=self.length(s.radiator_cut_m - dims.radiator - fc.radiator_margin_m),
+            trim_df=_span(abs((s.radiator_cut_m - dims.radiator) * sens["dip_hz_per_m_radiator"])),
             trim_step=self.length(trim_step_m(dims.radiator, self.u)),
             trim_step_df=_span(abs(trim_step_m(dims.radiator, self.u) * sens["dip_hz_per_m_radiator"])),
             sloper=d.site.orientation == "sloper",

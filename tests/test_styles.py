@@ -141,7 +141,8 @@ def test_twin_lead_cut_list_drawing_and_tuning_agree(built, name, system):
     assert f"Short: its centre line {stub} below the gap" in tuning
     assert "0.80 to 0.82" in tuning                                # the line's spread, on the sheet
     tap = units.format_length(d.tap, system)
-    assert label(drawing, "tap") == tap and f"the clamps {tap} above the centre line" in tuning
+    assert label(drawing, "tap") == tap and f"the clips {tap} above the centre line" in tuning
+    assert "let down on its halyard" in tuning and "trims its top" in tuning
     assert f"each {trim_text(s, system)}" in tuning
     # what NEC-2 can and cannot say about it, on the sheet
     assert "cannot be checked by NEC-2 (no dielectric)" in tuning and f"SWR {TWIN_LEAD_NEC_SWR:.2f}" in tuning
