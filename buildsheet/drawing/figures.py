@@ -965,9 +965,12 @@ def _short_tap(ctx: _Context) -> Drawing:
 
     sheet.add(_vdim(x_o, y_short, y_tap, f"tap {fmt(dims.tap)}", 44.0))
 
-    sheet.callout(x_j, y_a + 4.0, ["radiator-side conductor:", "the radiator joins it at the top"],
-                  angles=(180, 160, 200), radii=(20, 30, 42))
-    sheet.callout(x_o, y_a + 4.0, ["other conductor:", "ends open at the top"],
+    style = s.parts.construction
+    sheet.callout(x_j, y_a + 4.0, ["radiator-side conductor:", {
+        "tube": "the long element, the radiator above", "twin-lead": "it goes on up as the radiator"}.get(
+            style, "the radiator joins it at the top")], angles=(180, 160, 200), radii=(20, 30, 42))
+    sheet.callout(x_o, y_a + 4.0, ["other conductor:", "cut at the gap" if style == "twin-lead"
+                                   else "ends open at the top"],
                   angles=(0, 20, 340), radii=(60, 72, 90))
     if rigid:
         short_text = ["short: bar or pipe across,", "clamped or soldered"]
@@ -984,7 +987,8 @@ def _short_tap(ctx: _Context) -> Drawing:
                   radii=(42, 56, 72))
     sheet.callout((x_mid + x_o) / 2 + 4.0, (jacket_top - 4.0 + y_tap) / 2 + 1.0,
                   ["coax braid to the other conductor"], angles=(60, 45, 75, 30), radii=(56, 72, 90))
-    sheet.callout(x_j + cw / 2 + 3.0, y_tap - 6.0, ["tap clamp: slides", "along to tune"],
+    sheet.callout(x_j + cw / 2 + 3.0, y_tap - 6.0, ["tap clip: soldered", "once the match is made"]
+                  if style == "twin-lead" else ["tap clamp: slides", "along to tune"],
                   angles=(135, 150, 120, 200), radii=(30, 42, 56))
     sheet.callout(x_mid + 6.0, y_end - 4.0, ["coax passes behind the short,", "down to the choke"],
                   angles=(340, 0, 320), radii=(30, 42, 56))
