@@ -306,7 +306,7 @@ def build_sheet(design: Design, solution: Solution, date: str) -> Sheet:
         Section("details", "Details", (Figures(("radiator", "stub", "short-tap", "choke")),)),
         Section("performance", "Predicted performance", ctx.performance()),
         Section("tuning", "Tuning procedure", ctx.tuning(), new_page=True),
-        Section("log", "Measurement log", ctx.log(), new_page=True),
+        Section("log", "Measurement log", ctx.log()),   # beside the tuning's tail where it fits
         Section("cautions", "Safety cautions", ctx.cautions(), new_page=True),
         Section("as-built", "As-built record", ctx.as_built()),
     )
