@@ -444,8 +444,10 @@ class _Context:
         r, name = self.d.radiator, self.s.parts.radiator_name
         if self.s.parts.construction == "twin-lead":
             return (f"one conductor of the line ({r.label} {r.material}) in its own {r.insulation} "
-                    f"jacket, the other conductor cut at the gap and stripped off above it (velocity "
-                    f"factor {r.velocity_factor:.2f}, taken from a thin {r.insulation} jacket on wire)")
+                    f"jacket, the other conductor cut at the gap and stripped off above it, so that "
+                    f"the radiator runs alone, outside the line's field: velocity factor "
+                    f"{r.velocity_factor:.2f} taken, the catalogue's figure for a thin {r.insulation} "
+                    f"jacket on wire ({_source_tag(r.spread_source)})")
         if self.s.parts.construction == "tube":
             return (f"{conductor_name(r.diameter_m, self.u, r.material)}, bare: one long element with "
                     "the stub conductor below it")
