@@ -197,8 +197,9 @@ class Design:
     #: the `country` whose national band edges were asked for (None: the ITU table of the region);
     #: not part of the canonical form: the band edges it chose are
     country: str | None = None
-    #: how it is built (schema `construction`): 'wire' or 'hung'
-    construction: str = "wire"
+    #: `construction`: wire, tube, twin-lead or hung; None where the file does not say (pipe or rod
+    #: parts are then inferred from the conductors' diameters, as before the key existed)
+    construction: str | None = None
 
     @property
     def hung(self) -> bool:
@@ -216,7 +217,7 @@ class Design:
         data = dataclasses.asdict(self)
         for key in ("title", "output", "record", "path", "lines", "country"):
             data.pop(key)
-        if data["construction"] == "wire":     # the default: designs from before the key keep their ID
+        if data["construction"] is None:   # an older file without the key keeps its ID
             data.pop("construction")
         data["stub"].pop("source")  # where the catalogue's numbers come from is not the antenna
         for part in ("stub", "radiator"):  # nor the range the sources give for a velocity factor
@@ -631,7 +632,9 @@ class _Validator:
                     impedance_ohm=self.value("feed.impedance", f"{coax.z0_ohm:g} ohm"),
                     length_m=self.value("feed.length"), choke_form_m=self.value("feed.choke_form"))
 
-    def construction(self) -> str:
+    def construction(self) -> str | None:
+        if not self.has("construction"):
+            return None
         construction = self.value("construction")
         orientation = self.get("site.orientation")
         if construction == "hung" and orientation not in ("vertical", "inverted"):
@@ -752,6 +755,54 @@ class _Validator:
             raise self.fail("radiator.wire", f"diameter {mm(d.radiator.diameter_m)} is more than "
                             f"1/{fraction:g} of a wavelength at {units.format_frequency(d.frequency_hz)}; "
                             "the model is not proven for a thicker conductor (README, Limits)")
+        self.construction_fits(d)
+
+    def construction_fits(self, d: Design) -> None:
+        """`construction` against the parts and the site (schema rule construction_fits): what can
+        be built that way, one line naming what does not fit."""
+        style, r, st = d.construction, d.radiator, d.stub
+        if style in (None, "wire", "hung"):     # hung: checked in construction() and cross_checks
+            return
+        orientation = d.site.orientation
+        if style == "tube":
+            least = RULES["construction_fits"].value * 1e-3
+            if r.diameter_m < least:
+                raise self.fail("construction", f"`tube` is pipe or rod, but `radiator.wire` is "
+                                f"{mm(r.diameter_m)}: use {mm(least)} or thicker, or `construction: wire`")
+            if st.kind != "geometry":
+                raise self.fail("construction", f"`tube` needs a stub of the same pipe or rod, given by "
+                                f"its geometry (`stub.line: {{spacing, conductor}}`), not the line "
+                                f"'{st.name}'")
+            if abs(st.conductor_diameter_m - r.diameter_m) > 0.03 * r.diameter_m:
+                raise self.fail("construction", f"`tube` cuts the radiator and one stub conductor as "
+                                f"one continuous pipe or rod, but `radiator.wire` is {mm(r.diameter_m)} "
+                                f"and `stub.line.conductor` {mm(st.conductor_diameter_m)}: make them "
+                                "one size")
+            if orientation != "vertical":
+                raise self.fail("construction", f"`tube` stands vertical (the long element is one "
+                                f"straight pipe or rod), but `site.orientation` is {orientation}")
+            return
+        # twin-lead: the radiator is one conductor of the stub's own line, peeled off above the gap
+        if st.kind != "nominal":
+            raise self.fail("construction", "`twin-lead` needs a manufactured twin-lead or window "
+                            "line (`stub.line: twinlead-300`, `window-450`, ...); a line given by "
+                            "its geometry is open-wire line, which cannot carry the radiator")
+        if abs(st.conductor_diameter_m - r.diameter_m) > 0.05 * st.conductor_diameter_m:
+            raise self.fail("construction", f"`twin-lead` makes the radiator of the line's own "
+                            f"conductor ({mm(st.conductor_diameter_m)}), but `radiator.wire` is "
+                            f"{mm(r.diameter_m)}: give the line's conductor")
+        if r.material != st.conductor_material:
+            raise self.fail("construction", f"`twin-lead` makes the radiator of the line's own "
+                            f"conductor ({st.conductor_material}), but `radiator.material` is "
+                            f"{r.material}")
+        if r.insulation == "bare":
+            raise self.fail("construction", f"`twin-lead` makes the radiator of the line's conductor in "
+                            f"its jacket, but `radiator.insulation` is bare: give `{st.dielectric}` "
+                            "(the line's dielectric) or the jacket's `{velocity_factor: ...}`")
+        if orientation != "vertical":
+            raise self.fail("construction", f"`twin-lead` hangs vertical from its top (bent at the gap, "
+                            f"the peeled conductor would take the radiator's pull); for a "
+                            f"{orientation} build use `construction: wire` with this line as the stub")
 
 
 def _line(kind: str, name: str, spacing_m: float, conductor_m: float, material, dielectric: str,

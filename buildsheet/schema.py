@@ -189,6 +189,22 @@ TABLE: tuple = (
     Key("band.1", "frequency", lo=F_MIN_HZ * 0.9, hi=F_MAX_HZ * 1.1, show=units.format_frequency,
         readme=_g("MHz", 1e-6), why="10 % around the frequency range"),
 
+    Key("construction", "choice", ABSENT,
+        "inferred: `wire`, with pipe or rod parts where a conductor is 4 mm or thicker",
+        choices=("wire", "tube", "twin-lead", "hung"),
+        meaning="how it is built: `wire` (wire radiator on a two-wire line stub, on a mast or between "
+                "supports), `tube` (rigid pipe or rod: one long element is the radiator and one stub "
+                "conductor), `twin-lead` (one piece of twin-lead or window line: the radiator is one of "
+                "its conductors above a gap), `hung` (a wire vertical hung by a rope from a tree or a "
+                "halyard: rope and insulators, no mast hardware; `site.orientation` vertical or "
+                "inverted)"),
+    Rule("construction_fits", "`construction`",
+         "`tube`: radiator and stub conductors of one pipe or rod size, {value} mm or thicker, vertical; "
+         "`twin-lead`: a catalogue twin-lead or window line, the radiator its own conductor in its "
+         "jacket, vertical; `hung`: a wire radiator (thinner than {value} mm), vertical or inverted",
+         "what can be built that way: one continuous pipe is the radiator and a stub conductor; a "
+         "bent piece of twin-lead takes the radiator's pull on one peeled conductor", 4),
+
     Key("radiator", "mapping", unknown="is not a key of a design file"),
     Key("radiator.wire", default=REQUIRED, unit="gauge or length",
         why="finer wire cannot carry its own weight; thicker is not wire, pipe or rod",
@@ -247,11 +263,6 @@ TABLE: tuple = (
     Key("feed.choke_form", "length", "110 mm", lo=10e-3, hi=0.6, show=mm,
         why="something coax can be wound on",
         meaning="outer diameter of the form the choke's coax is wound on"),
-
-    Key("construction", "choice", "wire", choices=("wire", "hung"),
-        meaning="how it is built: `wire` (wire radiator, two-wire line stub, on a mast or between "
-                "supports), `hung` (a wire vertical hung by a rope from a tree or a halyard: rope and "
-                "insulators, no mast hardware; `site.orientation` vertical or inverted)"),
 
     Key("site", "mapping", unknown="is not a key of a design file"),
     Key("site.orientation", "choice", REQUIRED, choices=("horizontal", "sloper", "vertical", "inverted"),

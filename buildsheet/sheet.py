@@ -44,6 +44,19 @@ from buildsheet.stock import conductor_name, conductor_size
 LOG_COLUMNS = ("#", "frequency", "SWR", "R (Ω)", "X (Ω)", "what was changed")
 #: smallest move worth making, m: what a tape in the sheet's units resolves (1/8 in; 2 mm)
 MIN_MOVE_M = {"imperial": 0.0254 / 8, "metric": 0.002}
+#: where a construction style's radiator ends at the stub (DESIGN.md §5's junction), as the summary
+#: names it
+JUNCTION = {"tube": "the stub's open top, on the long element", "twin-lead": "the gap in the other conductor"}
+#: the trimming steps the tuning procedure may quote the dip's shift for (`tube`, `twin-lead`), m,
+#: largest first: the largest within 1 % of the radiator (trim_step_m)
+TRIM_STEPS_M = {"imperial": (0.0254 / 4, 0.0254 / 8), "metric": (0.01, 0.005, 0.002)}
+
+
+def trim_step_m(radiator_m: float, system: str) -> float:
+    """The trimming step the tuning procedure quotes: the largest of TRIM_STEPS_M within 1 % of the
+    radiator (a cut a builder makes in one go), else the smallest."""
+    steps = TRIM_STEPS_M[system]
+    return next((x for x in steps if x <= 0.01 * radiator_m), steps[-1])
 #: SWR at the design frequency at which tuning may stop (common practice)
 STOP_SWR = 1.3
 #: the impedance error the tuning table starts from, ohm (see _error_step)
@@ -99,7 +112,8 @@ def dip_rule(s: Solution, u: str) -> tuple[float, bool]:
                      LINEAR_FRACTION * dims.radiator, least)
     df_short = _error_step(_nice(FREQUENCY_STEP * f0), sens["dip_hz_per_m_short"],
                            SHORT_DIP_LINEAR_FRACTION * dims.tap, least)
-    short_moves_dip = df_short >= SHORT_DIP_FRACTION * df
+    # a `tube` build's short is soldered or bolted: never a tuning move
+    short_moves_dip = df_short >= SHORT_DIP_FRACTION * df and s.parts.construction != "tube"
     return (min(df, df_short) if short_moves_dip else df), short_moves_dip
 
 
@@ -292,7 +306,7 @@ def build_sheet(design: Design, solution: Solution, date: str) -> Sheet:
         Section("details", "Details", (Figures(("radiator", "stub", "short-tap", "choke")),)),
         Section("performance", "Predicted performance", ctx.performance()),
         Section("tuning", "Tuning procedure", ctx.tuning(), new_page=True),
-        Section("log", "Measurement log", ctx.log(), new_page=True),
+        Section("log", "Measurement log", ctx.log()),   # beside the tuning's tail where it fits
         Section("cautions", "Safety cautions", ctx.cautions(), new_page=True),
         Section("as-built", "As-built record", ctx.as_built()),
     )
@@ -370,9 +384,11 @@ class _Context:
             )),
             KeyFigures((
                 KeyFigure("radiator", _e(self.length(dims.radiator)),
-                          f"{self.radiator_end()} to the junction at the stub's open top"),
+                          f"{self.radiator_end()} to " + JUNCTION.get(s.parts.construction,
+                                                                     "the junction at the stub's open top")),
                 KeyFigure("stub", _e(self.length(dims.stub)),
-                          "open top (the junction) to the centre line of the short"),
+                          ("the gap" if s.parts.construction == "twin-lead" else "open top (the junction)")
+                          + " to the centre line of the short"),
                 KeyFigure("tap", _e(self.length(dims.tap)),
                           "centre line of the short to the tap, measured along the stub"),
                 KeyFigure("spacing", _e(self.size(dims.spacing)),
@@ -426,6 +442,15 @@ class _Context:
 
     def radiator_text(self) -> str:
         r, name = self.d.radiator, self.s.parts.radiator_name
+        if self.s.parts.construction == "twin-lead":
+            return (f"one conductor of the line ({r.label} {r.material}) in its own {r.insulation} "
+                    f"jacket, the other conductor cut at the gap and stripped off above it, so that "
+                    f"the radiator runs alone, outside the line's field: velocity factor "
+                    f"{r.velocity_factor:.2f} taken, the catalogue's figure for a thin {r.insulation} "
+                    f"jacket on wire ({_source_tag(r.spread_source)})")
+        if self.s.parts.construction == "tube":
+            return (f"{conductor_name(r.diameter_m, self.u, r.material)}, bare: one long element with "
+                    "the stub conductor below it")
         if self.s.parts.rigid_radiator and r.insulation == "bare":
             return f"{conductor_name(r.diameter_m, self.u, r.material)}, bare"
         if r.insulation == "bare":
@@ -457,6 +482,9 @@ class _Context:
             far = self.length(site.height_m - dims.stub - dims.radiator)
             return (f"inverted (upside down){rope}; the short {h} above {self.ground()} at the top, the "
                     f"stub below it and the radiator hanging below the stub, its far end {far} up")
+        if self.s.parts.construction == "twin-lead":
+            return (f"vertical; the short {h} above {self.ground()}, the line hung from its top on a "
+                    "halyard")
         return f"vertical{rope}; the short {h} above {self.ground()}, the stub and radiator standing above it"
 
     def layout(self):
@@ -516,6 +544,8 @@ class _Context:
         stock size a shop sells (stock.py) rather than by the bare diameter."""
         r = self.d.radiator
         label = r.label.lower()
+        if self.s.parts.construction == "tube" and item.material == f"{r.material} {self.s.parts.rigid_kind}":
+            return conductor_name(r.diameter_m, self.u, r.material)
         if (item.part == "radiator" and self.s.parts.rigid_radiator and "awg" not in label
                 and not label.startswith("#") and r.insulation == "bare"):
             return conductor_name(r.diameter_m, self.u, r.material)
@@ -740,6 +770,16 @@ class _Context:
             min_move=self.length(least),
             big_move=self.length(BIG_MOVE_FRACTION * dims.stub),
             sleeve=s.sleeve is not None,
+            style=s.parts.construction, radiator_as_cut=self.length(s.radiator_cut_m),
+            shorten_radiator=("trim the long element's top" if s.parts.construction == "tube"
+                              else "shorten the radiator"),
+            lengthen_radiator=("lengthen the long element's top (a sliding sleeve)"
+                               if s.parts.construction == "tube" else "lengthen the radiator"),
+            open_top="gap" if s.parts.construction == "twin-lead" else "open top",
+            trim=self.length(s.radiator_cut_m - dims.radiator - fc.radiator_margin_m),
+            trim_df=_span(abs((s.radiator_cut_m - dims.radiator) * sens["dip_hz_per_m_radiator"])),
+            trim_step=self.length(trim_step_m(dims.radiator, self.u)),
+            trim_step_df=_span(abs(trim_step_m(dims.radiator, self.u) * sens["dip_hz_per_m_radiator"])),
             sloper=d.site.orientation == "sloper",
             **self.station_values(),
             **self.as_built_values(),

@@ -23,6 +23,7 @@ from buildsheet.physics import radiation as radiation_physics
 from buildsheet.physics.coax import matched_loss_db, through_coax, total_loss_db
 from buildsheet.physics.lines import DB_PER_NEPER, Line, reflection, swr
 from buildsheet.schema import RULES, deg, metres
+from buildsheet.stock import rigid_kind
 
 FT = 0.3048
 SWEEP_POINTS = 241
@@ -30,8 +31,9 @@ SWEEP_MARGIN = 0.02
 #: gain of a half-wave radiator, dBi: the usual figure for exposure screening of a half-wave antenna
 #: (OET Bulletin 65 Supplement B uses it for dipoles; the ground reflection is the separate 2.56 factor)
 HALF_WAVE_GAIN_DBI = 2.15
-#: a conductor this thick or thicker is pipe or rod (rigid), thinner is wire
-RIGID_DIAMETER_M = 4e-3
+#: a conductor this thick or thicker is pipe or rod (rigid), thinner is wire (the schema's rule for
+#: `construction: tube`, in mm)
+RIGID_DIAMETER_M = RULES["construction_fits"].value * 1e-3
 
 #: The envelope the antenna model is proven in against NEC-2 (bench/nec_study.py `accept`, README
 #: "Limits"): stub spacing up to lambda/40 (beyond it, on seeds 5000-5079, the model refused 7
@@ -65,6 +67,13 @@ FDTD_SPACING_WAVELENGTHS = 0.049
 FDTD_DESIGNS = (11, 5)
 FDTD_FIRST_CUT_SWR = (1.02, 1.15)
 FDTD_FIRST_CUT_SWR_HELD_OUT = (1.04, 1.15)
+#: `construction: twin-lead` against NEC-2, which has no dielectric: the 2 m demo's first cut meshed as
+#: bare wires with every length divided by the velocity factor the model took for it and the stub
+#: spaced for the line's Z0 in air (bench/twinlead_nec.py, bench/data/twinlead-nec.json; checked
+#: against the stored run by tests/test_styles.py): NEC-2 SWR at the design frequency and the dip's
+#: offset from it, fraction
+TWIN_LEAD_NEC_SWR = 1.35
+TWIN_LEAD_NEC_DIP = 0.005
 
 
 @dataclass(frozen=True)
@@ -173,6 +182,13 @@ class Parts:
     choke_form_m: float
     lowest_point_m: float | None
     lowest_point: str
+    #: design.construction: 'tube' or 'twin-lead' where the file says so (their own cut lists,
+    #: drawings and tuning), else 'wire' (with pipe or rod parts inferred from the diameters)
+    construction: str = "wire"
+    #: for `tube`: 'tube' or 'rod' (stock.rigid_kind), and whether the short is of soldered copper
+    #: fittings (copper tube: a tee on the long element, an elbow on the short one) rather than a bar
+    rigid_kind: str = ""
+    fittings: bool = False
 
 
 @dataclass(frozen=True)
@@ -518,7 +534,9 @@ def _solve(design: Design) -> Solution:
     cut, hardware = _cut_list(design, dims, wrap, ch, first, parts, sl)
     return Solution(
         name=design.name, design_id=design.document_id, frequency_hz=f0, band_hz=tuple(design.band_hz),
-        dimensions=dims, radiator_cut_m=radiator + first.radiator_margin_m + 2 * wrap,
+        dimensions=dims, radiator_cut_m=radiator + first.radiator_margin_m + (
+            tube_trim_allowance(radiator, wrap) if parts.construction == "tube" else
+            wrap if parts.construction == "twin-lead" else 2 * wrap),   # one free end, or two
         wrap_allowance_m=wrap, stub_line=stub_data,
         cut_list=cut, hardware=hardware, feed_impedance=complex(z[i0]), feed_swr=float(swr_feed[i0]),
         feed_swr_transmitter=float(swr_tx[i0]),
@@ -554,9 +572,12 @@ def _parts(design: Design, dims: Dimensions, ch) -> Parts:
             far = site.height_m - dims.radiator * math.sin(site.slope_rad)
             if far < low:
                 low, what = far, "the radiator's far end"
+    kind = rigid_kind(r.diameter_m, r.material) if design.construction == "tube" else ""
     return Parts(rigid_radiator=is_rigid(r.diameter_m), rigid_stub=is_rigid(st.conductor_diameter_m),
                  line_name=line_name, radiator_name=radiator_name(r),
-                 choke_form_m=ch.coil_length_m + CHOKE_FORM_EXTRA_M, lowest_point_m=low, lowest_point=what)
+                 choke_form_m=ch.coil_length_m + CHOKE_FORM_EXTRA_M, lowest_point_m=low, lowest_point=what,
+                 construction=design.construction or "wire", rigid_kind=kind,
+                 fittings=kind == "tube" and r.material == "copper")
 
 
 def envelope_warnings(design: Design) -> tuple[str, ...]:
@@ -598,6 +619,12 @@ def envelope_warnings(design: Design) -> tuple[str, ...]:
                        f"{FDTD_SPACING_RATIO[0]:g} diameters with a radiator at most "
                        f"{FDTD_RADIATOR_FRACTION:.2f} × the spacing thick: expect more tuning, and "
                        "keep the cut list's cutting allowance on the pieces until the tuning is done")
+    if design.construction == "twin-lead":
+        out.append(f"the line's own conductor as the radiator cannot be checked by NEC-2 (no "
+                   f"dielectric); as bare wires of the same electrical lengths and Z0, the 2 m demo's "
+                   f"first cut reads SWR {TWIN_LEAD_NEC_SWR:.2f} at the design frequency, the dip "
+                   f"{TWIN_LEAD_NEC_DIP * 100:.1f} % high; the velocity factors' spreads stay the first "
+                   "cut's uncertainty (the tuning margins)")
     slope = math.degrees(design.site.slope_rad)
     if design.site.orientation == "sloper" and slope > ENVELOPE_SLOPE_DEG:
         out.append(f"a slope of {slope:.0f}° is steeper than the "
@@ -850,6 +877,8 @@ def _cut_list(design: Design, d: Dimensions, wrap: float, ch, first: FirstCut,
     and the stub line are cut long by the first cut's tuning margins as well (FirstCut). With a
     sleeve choke (physics.choke.SleeveChoke) the coil is not built: no coax in turns, no choke form,
     no cable ties; the sleeve's tube, bond and spacers instead."""
+    if parts.construction in STYLE_PIECES:
+        return STYLE_PIECES[parts.construction](design, d, wrap, ch, first, parts, sleeve)
     rigid_radiator, rigid_stub = parts.rigid_radiator, parts.rigid_stub
     lam = design.wavelength_m
     beyond_short = 0.02 if rigid_stub else min(0.10, 0.01 * lam)
@@ -858,9 +887,6 @@ def _cut_list(design: Design, d: Dimensions, wrap: float, ch, first: FirstCut,
     # its allowance follows the conductors' size, not the radiator's wrap
     conductor = design.stub.conductor_diameter_m
     bar_ends = 0.02 if rigid_stub else 2 * (3 * math.pi * 2 * conductor + 0.01)
-    coil_coax = 0.0 if sleeve is not None else ch.turns * math.pi * ch.mean_diameter_m
-    pigtail = 0.30 if lam > 3 else 0.10
-    coax_total = design.feed.length_m + coil_coax + pigtail
     m_rad, m_stub = first.radiator_margin_m, first.stub_margin_m
     items = [
         CutItem("radiator", parts.radiator_name, d.radiator + m_rad + 2 * wrap, 1, m_rad + 2 * wrap,
@@ -872,22 +898,9 @@ def _cut_list(design: Design, d: Dimensions, wrap: float, ch, first: FirstCut,
                 (" and the wrap at the open top" if junction else ""), margin_m=m_stub),
         CutItem("short bar", "bare copper wire" if not rigid_stub else design.stub.conductor_material + " bar",
                 d.spacing + bar_ends, 1, bar_ends, "across the stub at the short, soldered or clamped"),
-        CutItem("tap leads", "insulated stranded wire", d.spacing / 2 + (0.05 if lam > 3 else 0.02), 2,
-                0.05 if lam > 3 else 0.02, "coax centre to the radiator-side conductor, braid to the other"),
-        CutItem("feed coax", design.feed.coax, coax_total, 1, coil_coax + pigtail,
-                "run to the station, plus the choke turns and a pigtail at the tap" if sleeve is None
-                else "run to the station, plus a pigtail at the tap", coarse=True),
+        _tap_leads(design, d),
+        *_feed_pieces(design, ch, parts, sleeve),
     ]
-    if sleeve is None:
-        items.append(CutItem("choke form", "pipe of the choke form's outside diameter", parts.choke_form_m,
-                             1, CHOKE_FORM_EXTRA_M, "the feed coax is close-wound on it"))
-    else:
-        trim = 0.1 * sleeve.length_m
-        items.append(CutItem("choke sleeve", "copper or aluminium tube, inside diameter "
-                             f"{sleeve.sleeve_inner_diameter_m * 1e3:.1f} mm ({sleeve.sleeve_inner_diameter_m / 0.0254:.2f} in) or a little more",
-                             sleeve.length_m + trim, 1, trim,
-                             "slides over the feed coax at the tap; cut long, trim the open end to "
-                             "resonance"))
     site = site_layout(design.site.orientation, design.site.height_m, design.site.slope_rad, d.radiator,
                        lam, d.stub, design.hung)
     for rope in site.ropes if site else ():
@@ -896,19 +909,8 @@ def _cut_list(design: Design, d: Dimensions, wrap: float, ch, first: FirstCut,
     hardware = [
         HardwareItem("tap clamps", 2, "hose clamps or split-bolt clamps that can slide along the stub",
                      fits_m=design.stub.conductor_diameter_m if rigid_stub else None),
-        HardwareItem(f"coax connector, {_connector(design)}", 2,
-                     f"for {design.feed.coax}: one at the station, one at the choke"),
-        HardwareItem("self-amalgamating tape", 1, "roll, to weatherproof the tap and the connectors"),
+        *_feed_hardware(design, ch, sleeve),
     ]
-    if sleeve is None:
-        hardware.append(HardwareItem("cable ties, UV-resistant", max(8, 2 * ch.turns), "to hold the choke turns"))
-    else:
-        hardware += [
-            HardwareItem("hose clamp", 1, "bonds the sleeve's closed end to the coax braid, bared "
-                         "through a window in the jacket"),
-            HardwareItem("insulating spacers", 2, "plastic, drilled to the coax, to centre the sleeve at "
-                         "both ends"),
-        ]
     if design.hung:
         top, bottom = (("the radiator's far end", "below the short")
                        if design.site.orientation == "vertical" else
@@ -937,3 +939,169 @@ def _cut_list(design: Design, d: Dimensions, wrap: float, ch, first: FirstCut,
         hardware.append(HardwareItem("pipe tees or elbows for the short", 2, "or a drilled bar and bolts",
                                      fits_m=design.stub.conductor_diameter_m))
     return tuple(items), tuple(hardware)
+
+
+def _tap_leads(design: Design, d: Dimensions) -> CutItem:
+    extra = 0.05 if design.wavelength_m > 3 else 0.02
+    return CutItem("tap leads", "insulated stranded wire", d.spacing / 2 + extra, 2, extra,
+                   "coax centre to the radiator-side conductor, braid to the other")
+
+
+def _feed_pieces(design: Design, ch, parts: Parts, sleeve) -> list:
+    """The feed coax and the choke's form or sleeve: the same for every construction."""
+    coil_coax = 0.0 if sleeve is not None else ch.turns * math.pi * ch.mean_diameter_m
+    pigtail = 0.30 if design.wavelength_m > 3 else 0.10
+    items = [CutItem("feed coax", design.feed.coax, design.feed.length_m + coil_coax + pigtail, 1,
+                     coil_coax + pigtail,
+                     "run to the station, plus the choke turns and a pigtail at the tap" if sleeve is None
+                     else "run to the station, plus a pigtail at the tap", coarse=True)]
+    if sleeve is None:
+        items.append(CutItem("choke form", "pipe of the choke form's outside diameter", parts.choke_form_m,
+                             1, CHOKE_FORM_EXTRA_M, "the feed coax is close-wound on it"))
+    else:
+        trim = 0.1 * sleeve.length_m
+        items.append(CutItem("choke sleeve", "copper or aluminium tube, inside diameter "
+                             f"{sleeve.sleeve_inner_diameter_m * 1e3:.1f} mm ({sleeve.sleeve_inner_diameter_m / 0.0254:.2f} in) or a little more",
+                             sleeve.length_m + trim, 1, trim,
+                             "slides over the feed coax at the tap; cut long, trim the open end to "
+                             "resonance"))
+    return items
+
+
+def _feed_hardware(design: Design, ch, sleeve) -> list:
+    """Connectors, tape and the choke's ties or the sleeve's clamp and spacers: every construction."""
+    hardware = [
+        HardwareItem(f"coax connector, {_connector(design)}", 2,
+                     f"for {design.feed.coax}: one at the station, one at the choke"),
+        HardwareItem("self-amalgamating tape", 1, "roll, to weatherproof the tap and the connectors"),
+    ]
+    if sleeve is None:
+        hardware.append(HardwareItem("cable ties, UV-resistant", max(8, 2 * ch.turns), "to hold the choke turns"))
+    else:
+        hardware += [
+            HardwareItem("hose clamp", 1, "bonds the sleeve's closed end to the coax braid, bared "
+                         "through a window in the jacket"),
+            HardwareItem("insulating spacers", 2, "plastic, drilled to the coax, to centre the sleeve at "
+                         "both ends"),
+        ]
+    return hardware
+
+
+#: `tube`: the long element's top is cut this fraction of the radiator long, to be trimmed in tuning
+#: (common practice: pipe cannot be lengthened, so it is cut a little long)
+TUBE_TRIM_FRACTION = 0.02
+
+
+def tube_trim_allowance(radiator_m: float, cutting_m: float) -> float:
+    """The allowance at the top of a `tube` long element, m: TUBE_TRIM_FRACTION of the radiator,
+    or the cutting allowance where that is more."""
+    return max(cutting_m, TUBE_TRIM_FRACTION * radiator_m)
+
+
+#: `tube`: the mounting section below the short, m (common practice: enough to take two mast clamps)
+MOUNT_M = 0.30
+#: `tube` with a bar for the short: the conductors pass this far through the bar, and the bar runs
+#: this far beyond each hole, m (common practice)
+THROUGH_BAR_M = 0.02
+
+
+def _tube_pieces(design: Design, d: Dimensions, wrap: float, ch, first: FirstCut, parts: Parts,
+                 sleeve) -> tuple[tuple, tuple]:
+    """`construction: tube`, as a builder cuts a pipe or rod J-pole: ONE long element (the radiator
+    and its stub conductor, one continuous pipe or rod, from its free top to the short), the short
+    stub conductor, the short (copper tube: a short section between a tee on the long element and an
+    elbow on the short one; otherwise a drilled bar), a mounting section below the short. Lengths are
+    to the short's centre line; soldered fittings take up their own take-off, which the builder
+    measures on the fitting. Only the long element's top is cut long (the first cut's margin and a
+    cutting allowance): it is trimmed in tuning; the short is fixed."""
+    r, st = design.radiator, design.stub
+    m_rad = first.radiator_margin_m
+    trim = tube_trim_allowance(d.radiator, wrap)
+    name = f"{r.material} {parts.rigid_kind}"
+    if parts.fittings:
+        below, at_short = 0.0, "to the centre line of the tee at the short, less the tee's take-off"
+    else:
+        below, at_short = THROUGH_BAR_M, "to the short bar, plus the length through it"
+    items = [
+        CutItem("long element", name, m_rad + trim + d.radiator + d.stub + below, 1, m_rad + trim + below,
+                "radiator and its stub conductor in one piece, from the free top " + at_short +
+                "; trimming allowance at the top", margin_m=m_rad),
+        CutItem("short stub conductor", name, d.stub + below, 1, below,
+                "from the short up to the stub's open top" +
+                (", less the elbow's take-off" if parts.fittings else ", plus the length through the bar")),
+    ]
+    if parts.fittings:
+        items.append(CutItem("short section", name, d.spacing, 1, 0.0,
+                             "tee centre to elbow centre, less both fittings' take-off"))
+        items.append(CutItem("mounting section", name, MOUNT_M, 1, 0.0,
+                             "into the tee's lower socket, clamped to the mast"))
+    else:
+        items.append(CutItem("short bar", f"{st.conductor_material} flat bar", d.spacing + 2 * THROUGH_BAR_M,
+                             1, 2 * THROUGH_BAR_M, "drilled for both conductors at the spacing, "
+                             "centre to centre"))
+        items.append(CutItem("mounting section", f"{st.conductor_material} tube or flat bar", MOUNT_M, 1, 0.0,
+                             "bolted to the middle of the short bar, clamped to the mast"))
+    items += [_tap_leads(design, d), *_feed_pieces(design, ch, parts, sleeve)]
+    fits = st.conductor_diameter_m
+    hardware = [
+        HardwareItem("tap clamps", 2, "hose clamps, sliding along both conductors", fits_m=fits),
+    ]
+    if parts.fittings:
+        hardware += [
+            HardwareItem("copper fittings: a tee and a 90° elbow", 2, "the short: the tee on the long "
+                         "element, the elbow on the short conductor", fits_m=fits),
+            HardwareItem("solder and flux", 1, "lead-free, for plumbing"),
+            HardwareItem("end caps", 2, "on both tops after the tuning"),
+        ]
+    else:
+        hardware += [
+            HardwareItem("bolts or clamps for the short bar", 2, "one holding each conductor in its "
+                         "hole; clean bright metal at the contact", fits_m=fits),
+            HardwareItem("bolts for the mounting section", 2, "stainless, through the short bar's middle"),
+        ]
+    hardware += [
+        HardwareItem("mast clamps (U-bolts)", 2, "on the mounting section (low RF voltage at the short: "
+                     "common practice)"),
+        *_feed_hardware(design, ch, sleeve),
+    ]
+    return tuple(items), tuple(hardware)
+
+
+#: `twin-lead`: the short link reaches this far past each conductor, m (wrapped once and soldered)
+LINK_EXTRA_M = 0.01
+
+
+def _twin_lead_pieces(design: Design, d: Dimensions, wrap: float, ch, first: FirstCut, parts: Parts,
+                      sleeve) -> tuple[tuple, tuple]:
+    """`construction: twin-lead`, one piece of twin-lead or window line: from its top, the tie
+    allowance, the radiator (one conductor, the other cut at the gap and stripped off above it), the
+    stub (both conductors, from the gap down to the short) and a tail below the short. The radiator
+    and the stub are each cut long by their first-cut margins (the line's and the jacket's
+    velocity-factor spreads): the top is trimmed and the short moved up in tuning."""
+    m_rad, m_stub = first.radiator_margin_m, first.stub_margin_m
+    tail = min(0.10, 0.01 * design.wavelength_m)
+    allowance = wrap + m_rad + m_stub + tail
+    items = [
+        CutItem("line, one piece", parts.line_name, d.radiator + d.stub + allowance, 1, allowance,
+                "from the top: the tie allowance, the radiator to the gap, the stub from the gap to the "
+                "short, a tail below the short (see the construction drawing)", margin_m=m_rad + m_stub),
+        CutItem("short link", "bare copper wire", d.spacing + 2 * LINK_EXTRA_M, 1, 2 * LINK_EXTRA_M,
+                "soldered across both conductors at the short, the jacket bared there"),
+        _tap_leads(design, d),
+        *_feed_pieces(design, ch, parts, sleeve),
+    ]
+    top = design.site.height_m + d.stub + first.stub_margin_m + d.radiator + m_rad + wrap
+    items.append(CutItem("halyard rope", "UV-resistant polyester rope", 2 * top + TIE_OFF_M, 1, TIE_OFF_M,
+                         "over a pulley or a limb above the top and back down to a cleat "
+                         "(common practice)", coarse=True))
+    hardware = [
+        HardwareItem("end insulator", 1, "between the line's top (tied through a hole in the web) and "
+                     "the halyard"),
+        HardwareItem("crocodile clips", 2, "to try tap positions on bared spots before the tap is soldered"),
+        *_feed_hardware(design, ch, sleeve),
+        HardwareItem("cord", 1, "a few metres, to tie the line's tail down so it cannot swing or twist"),
+    ]
+    return tuple(items), tuple(hardware)
+
+
+STYLE_PIECES = {"tube": _tube_pieces, "twin-lead": _twin_lead_pieces}

@@ -30,3 +30,19 @@ def conductor_name(diameter_m: float, system: str, material: str) -> str:
     (5/8" OD)', '6 mm rod, aluminium'."""
     size = conductor_size(diameter_m, system, material)
     return size if material in size else f"{size}, {material}"
+
+
+#: below this a rigid conductor with no stock size is taken for rod, from it up for tube (common
+#: practice: rod is sold to about 3/8 in or 10 mm; thicker conductors are tube)
+ROD_BELOW_M = 0.012
+
+
+def rigid_kind(diameter_m: float, material: str) -> str:
+    """'tube' or 'rod': the stock size's kind where one of either system matches the diameter (m),
+    else by ROD_BELOW_M."""
+    c = catalog()
+    for system in ("imperial", "metric"):
+        stock = c.stock_size(diameter_m, system, material)
+        if stock is not None:
+            return stock.kind
+    return "rod" if diameter_m < ROD_BELOW_M else "tube"

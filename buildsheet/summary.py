@@ -49,8 +49,12 @@ def summary_text(design: Design, s: Solution) -> str:
         add(f"warning: {f.text}")
     add("")
     add("Key dimensions (" + units.length_rounding(u) + ")")
-    add(f"  radiator   {L(d.radiator):>14}   attachment point to attachment point")
-    add(f"  stub       {L(d.stub):>14}   open top to the centre of the short")
+    style = s.parts.construction
+    add(f"  radiator   {L(d.radiator):>14}   " + {"tube": "free top to the stub's open top",
+                                                  "twin-lead": "top end to the gap"}.get(
+        style, "attachment point to attachment point"))
+    add(f"  stub       {L(d.stub):>14}   {'the gap' if style == 'twin-lead' else 'open top'} to the "
+        "centre of the short")
     add(f"  tap        {L(d.tap):>14}   centre of the short to the tap")
     add(f"  spacing    {units.format_length(d.spacing, u, 'size'):>14}   centre to centre of the stub conductors")
     add("")
@@ -68,7 +72,8 @@ def summary_text(design: Design, s: Solution) -> str:
             + "; ".join(f"{what} +{L(m)}, may need {_off(span, L)} than solved"
                         for what, m, span in margins))
         parts = {"stub line": ("the short at the long end", "move the short up"),
-                 "radiator": ("the radiator hung long", "take up wire")}
+                 "radiator": ("the radiator hung long",
+                              "trim its top" if style == "twin-lead" else "take up wire")}
         start = " and ".join(parts[what][0] for what, _, _ in margins)
         then = " and ".join(parts[what][1] for what, _, _ in margins)
         add("  Why: the velocity factor of dielectric line and jacketed wire is only known to the spread "

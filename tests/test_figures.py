@@ -121,15 +121,19 @@ def svg_texts(drawing) -> list[str]:
 #: lengths not cut to the tape: coax and rope to the inch or cm, diameters and spacings finer
 #: (units.format_length's steps; issue 18)
 COARSE = ("coax", "rope", "span", "far end height", "far end out", "anchor", "anchor rope", "branch",
-          "halyard", "tether", "top", "bottom")
+          "halyard", "tether")
+#: the overview's heights of a hung antenna's ends are coarse too; on a `tube` drawing "top" is the
+#: trimming allowance, cut to the tape
+COARSE_OVERVIEW = ("top", "bottom")
 SIZE = ("spacing", "wire")
 
 
 STOCK_NAMES = sorted((s.name for s in catalog().stock), key=len, reverse=True)
 
 
-def step_of(name: str) -> str:
-    return "coarse" if name in COARSE else "size" if name in SIZE else "fine"
+def step_of(name: str, key: str = "") -> str:
+    coarse = name in COARSE or (key == "overview" and name in COARSE_OVERVIEW)
+    return "coarse" if coarse else "size" if name in SIZE else "fine"
 
 
 def expected_lengths(design, solution) -> dict[str, dict[str, float]]:
@@ -145,6 +149,7 @@ def expected_lengths(design, solution) -> dict[str, dict[str, float]]:
     stock = catalog().stock_size(design.radiator.diameter_m, design.output.units, design.radiator.material)
     if "awg" not in label and not label.startswith("#") and not (stock and stock.kind == "rod"):
         radiator["wire"] = design.radiator.diameter_m      # a rod of a stock size is named only
+    radiator = style_lengths(solution) or radiator
     overview = {"radiator": d.radiator, "stub": d.stub, "tap": d.tap,
                 "height": design.site.height_m, "coax": design.feed.length_m}
     site = site_layout(design.site.orientation, design.site.height_m, design.site.slope_rad, d.radiator,
@@ -178,6 +183,31 @@ def expected_lengths(design, solution) -> dict[str, dict[str, float]]:
     }
 
 
+def style_lengths(solution) -> dict | None:
+    """What a construction style's drawing of its pieces prints (in the radiator figure's place):
+    the cut list's pieces and the dimensions they are made of; None for `wire`."""
+    d, fc = solution.dimensions, solution.first_cut
+    piece = {i.part: i.length_m for i in solution.cut_list}
+    if solution.parts.construction == "tube":
+        top = solution.radiator_cut_m - d.radiator
+        out = {"radiator": d.radiator, "stub": d.stub, "tap": d.tap, "spacing": d.spacing, "top": top,
+               "long element": piece["long element"], "as cut": solution.radiator_cut_m,
+               "short stub conductor": piece["short stub conductor"],
+               "mounting section": piece["mounting section"]}
+        through = piece["long element"] - solution.radiator_cut_m - d.stub
+        if through > 0:
+            out["through the bar"] = through
+        out.update({k: piece[k] for k in ("short section", "short bar") if k in piece})
+        return out
+    if solution.parts.construction == "twin-lead":
+        rad, stub = d.radiator + fc.radiator_margin_m, d.stub + fc.stub_margin_m
+        line = piece["line, one piece"]
+        return {"tie": solution.wrap_allowance_m, "radiator, first cut": rad, "stub, first cut": stub,
+                "tail": line - solution.wrap_allowance_m - rad - stub, "line, one piece": line,
+                "tap": d.tap, "radiator": d.radiator, "stub": d.stub}
+    return None
+
+
 _NAMED = re.compile(r"^(radiator|stub|tap|height|spacing|cut length|wrap|allowance|tuning margin|coil|form|sleeve)"
                     r" (.+)$")
 
@@ -190,7 +220,7 @@ def check_printed_lengths(design, solution, drawings) -> None:
         texts = [functools.reduce(lambda t, name: t.replace(name, ""), STOCK_NAMES, t)
                  for t in svg_texts(drawings[key]) if t not in design.title]
         printed = [t for text in texts for t in lengths_in(text, system)]
-        steps = {name: step_of(name) for name in expected}
+        steps = {name: step_of(name, key) for name in expected}
         wanted = {units.format_length(v, system, steps[n]) for n, v in expected.items()}
         assert {p for p, _, _ in printed} == wanted, f"{key}: lengths printed differ from the Solution"
         for shown, value, _ in printed:
@@ -202,11 +232,13 @@ def check_printed_lengths(design, solution, drawings) -> None:
             if m and [p for p, _, _ in lengths_in(m[2], system)] == [m[2]]:
                 named.setdefault(m[1], set()).add(m[2])
         for name, values in named.items():
-            assert values == {units.format_length(expected[name], system, step_of(name))}, (key, name, values)
+            assert values == {units.format_length(expected[name], system, step_of(name, key))}, (key, name, values)
             (_, value, _), = lengths_in(next(iter(values)), system)
-            assert abs(value - expected[name]) <= HALF_STEP[system, step_of(name)] + 1e-9, (key, name)
+            assert abs(value - expected[name]) <= HALF_STEP[system, step_of(name, key)] + 1e-9, (key, name)
         required = {"overview": {"radiator", "stub", "tap", "height"},
-                    "radiator": {"radiator", "cut length"}, "stub": {"stub", "tap", "spacing"},
+                    "radiator": {"tube": {"radiator", "stub", "tap"}, "twin-lead": {"tap"}}.get(
+                        solution.parts.construction, {"radiator", "cut length"}),
+                    "stub": {"stub", "tap", "spacing"},
                     "short-tap": {"tap", "spacing"},
                     "choke": {"coil", "form"} if solution.sleeve is None else {"sleeve"}}.get(key, set())
         assert required <= set(named), f"{key}: missing {required - set(named)}"
@@ -297,7 +329,12 @@ def test_overview_shows_the_orientation():
             assert any("far end: high RF voltage" in t for t in texts)
         elif design.site.orientation == "vertical":
             assert rad.x1 == rad.x2 and rad.y2 < rad.y1          # straight up
-            assert any(("top insulator" if design.hung else "stand-off insulator") in t for t in texts)
+            # what holds it: a stand-off insulator on the mast; a `tube` build's mounting section in
+            # mast clamps; a `twin-lead` build hangs from its halyard, its tail tied down; a `hung`
+            # wire from its top insulator
+            held = {"tube": "mounting section, mast clamps", "twin-lead": "cord: the tail tied down",
+                    "hung": "top insulator"}
+            assert any(held.get(design.construction, "stand-off insulator") in t for t in texts)
         elif design.site.orientation == "horizontal":
             assert rad.y1 == rad.y2
             assert "end insulator" in texts

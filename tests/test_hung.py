@@ -125,11 +125,11 @@ def test_inverted_on_a_mast_keeps_mast_hardware_and_draws_the_mast():
 
 
 def test_construction_defaults_to_wire_and_keeps_old_document_ids():
-    """The `construction` key's default, wire, leaves a design's canonical form (and so its
-    document ID) as it was before the key existed; hung changes it."""
+    """A file without the `construction` key (wire, pipe or rod inferred as before) keeps its
+    canonical form (and so its document ID) as it was before the key existed; hung changes it."""
     text = (ROOT / "designs" / "oak-yard-20m.yaml").read_text()
     d = design_from_text(text)
-    assert d.construction == "wire" and "construction" not in d.canonical()
+    assert d.construction is None and not d.hung and "construction" not in d.canonical()
     hung = design_from_text(_variant("larch-hollow-12m"))
     wire = design_from_text(_variant("larch-hollow-12m", construction=None))
     assert hung.document_id != wire.document_id

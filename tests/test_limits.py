@@ -132,9 +132,21 @@ def _band_edges(accepted):
 def _wire_vs_wavelength(accepted):
     fraction = 1 / _number_in(accepted, r"1/(\d+) of a wavelength")
     d = fraction * _wavelength(433.5e6)
-    make = lambda d: _design("tower-70cm", {"radiator.wire": f"{d * 1e3:.10g} mm"})  # noqa: E731
+    # as a wire build: the limit is the radiator's alone (a `tube` build also asks for a stub of
+    # the same pipe)
+    make = lambda d: _design("tower-70cm", {"radiator.wire": f"{d * 1e3:.10g} mm",  # noqa: E731
+                                            "construction": "wire"})
     return [("wire just under the fraction of a wavelength", make(d * (1 - 1e-6)), None),
             ("wire above the fraction of a wavelength", make(d * (1 + 1e-3)), "radiator.wire")]
+
+
+def _construction_fits(accepted):
+    least = _number_in(accepted, r"(\S+) mm or thicker") * 1e-3
+    make = lambda d: _design("tower-70cm", {"radiator.wire": f"{d * 1e3:.10g} mm",  # noqa: E731
+                                            "stub.line": {"spacing": "25 mm", "conductor": f"{d * 1e3:.10g} mm",
+                                                          "material": "aluminium"}})
+    return [("tube at the thinnest pipe or rod", make(least), None),
+            ("tube thinner than pipe or rod", make(least * (1 - 1e-3)), "construction")]
 
 
 def _spacing_vs_conductor(accepted):
@@ -264,6 +276,7 @@ BUILDERS = {
     ("`band.0`, `band.1`", "1.62 MHz"): _band_edges,
     ("`radiator.wire`", "0.2 mm"): _simple("radiator.wire", "oak-yard-20m", lambda v: {"radiator.wire": v}),
     ("`radiator.wire`", "at most 1/60"): _wire_vs_wavelength,
+    ("`construction`", "`tube`"): _construction_fits,
     ("`radiator.insulation.velocity_factor`", "0.8 to 1"): _simple(
         "radiator.insulation.velocity_factor", "oak-yard-20m",
         lambda v: {"radiator.insulation": {"velocity_factor": v}}),

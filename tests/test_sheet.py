@@ -143,7 +143,7 @@ def test_tuning_moves_do_what_they_say_in_the_model(solved, name):
 
     (low_key, low), = [(k, v) for k, v in rows.items() if k.startswith("lowest SWR") and " below " in k]
     df = units.parse_quantity(re.search(r"lowest SWR (.+?) below", low_key).group(1), "frequency")
-    dl = move(low) * (-1 if low.startswith("shorten") else 1)
+    dl = move(low) * (-1 if low.startswith(("shorten", "trim")) else 1)
     zf = d.feed.impedance_ohm
     dip0 = _dip(ant, dims.radiator, dims.stub, dims.tap, f0, zf)
     shift = _dip(ant, dims.radiator + dl, dims.stub, dims.tap, f0, zf) - dip0
@@ -163,6 +163,10 @@ def test_tuning_moves_do_what_they_say_in_the_model(solved, name):
     within(z(dims.radiator, dims.stub, dims.tap + dt).real - z_now.real, -dr, dt,
            s.sensitivity["ohm_per_m_tap"])
 
+    if s.parts.construction == "tube":
+        # the short is soldered or bolted on a pipe or rod build: no row moves it
+        assert not any("short" in v for v in rows.values()), rows
+        return
     (x_key, x_row), = [(k, v) for k, v in rows.items() if k.startswith("X = +")]
     dx = units.parse_quantity(x_key.split("+")[1].split(" at ")[0], "impedance")
     ds = move(x_row) * (1 if "short up" in x_row else -1)

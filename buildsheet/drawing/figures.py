@@ -400,19 +400,25 @@ def _overview_vertical(ctx: _Context) -> tuple[Layout, float]:
     wire = not s.parts.rigid_radiator
     y_end_top = 62.0 if wire else 40.0
     tap_text = f"tap {fmt(dims.tap)}"
-    a = StubAnchors.hanging(200.0, 212.0, top=y_end_top + 116.0, stub_span=150.0,
+    a = StubAnchors.hanging(200.0, 212.0, top=y_end_top + 96.0, stub_span=130.0,
                             tap_span=_tap_span(tap_text), tail=22.0)
     x_j, x_o, x_mid, y_top, y_tap, y_short, y_end = a.x_j, a.x_o, a.mid, a.top, a.tap, a.short, a.end
-    y_g = y_end + 8.0 + 84.0
+    y_g = y_end + 8.0 + 66.0
     body_h = y_g + 26.0
     sheet = Layout(WIDTH, body_h)
     sheet.add(*_ground(PAD, WIDTH - PAD, y_g))
 
-    # mast beside the stub, stand-off insulator below the short
+    # mast beside the stub, stand-off insulator below the short (a `tube`: the mounting section's
+    # mast clamps; a `twin-lead` hangs from its halyard, its tail tied down with a cord)
+    style = s.parts.construction
     x_m = x_o + 16.0
-    sheet.add(BreakMark(x_m, y_short + 4.0, x_m, y_g, at=0.55, width=3.0))
     y_so = y_short + 15.0
-    sheet.add(Rect(x_o + 1.5, y_so - 2.5, x_m - x_o - 3.0, 5.0, width=0.6, fill=INSULATOR_GREY))
+    if style == "twin-lead":
+        sheet.add(Line(x_o, y_end, x_m + 30.0, y_g, width=ROPE, dash=ROPE_DASH))
+    else:
+        sheet.add(BreakMark(x_m, y_short + 4.0, x_m, y_g, at=0.55, width=3.0))
+        sheet.add(Rect(x_o + 1.5, y_so - 2.5, x_m - x_o - 3.0, 5.0, width=0.6,
+                       fill=0.45 if style == "tube" else INSULATOR_GREY))
 
     # radiator straight up from the radiator-side conductor
     sheet.add(BreakMark(x_j, y_top, x_j, y_end_top, at=0.5, width=CONDUCTOR))
@@ -444,9 +450,14 @@ def _overview_vertical(ctx: _Context) -> tuple[Layout, float]:
                   angles=(330, 345, 315, 30, 0))
     sheet.callout(x_j, y_top - 30.0, ["the radiator continues", "from this conductor"],
                   angles=(200, 180, 225, 160))
-    sheet.callout(x_o + 5.0, y_so + 2.5, ["stand-off insulator"], angles=(330, 315, 345, 300),
-                  radii=(30, 42, 56, 72))
-    sheet.callout(x_m, y_g - 24.0, ["mast"], angles=(20, 0, 40, 340), radii=(20, 30, 42, 56))
+    if style == "twin-lead":
+        sheet.callout((x_o + x_m + 30.0) / 2, (y_end + y_g) / 2, ["cord: the tail tied down"],
+                      angles=(0, 330, 30), radii=(20, 30, 42, 56))
+    else:
+        sheet.callout(x_o + 5.0, y_so + 2.5, ["mounting section, mast clamps" if style == "tube"
+                                              else "stand-off insulator"], angles=(330, 315, 345, 300),
+                      radii=(30, 42, 56, 72))
+        sheet.callout(x_m, y_g - 24.0, ["mast"], angles=(20, 0, 40, 340), radii=(20, 30, 42, 56))
     _feed_callouts(sheet, ctx, a, y_choke, y_coax)
     sheet.add(Text(PAD + 2.0, y_g + 16.0, "ground", LABEL))
     return sheet, body_h
@@ -739,6 +750,195 @@ def _radiator(ctx: _Context) -> Drawing:
     return _finish(ctx, "Radiator: length and cut", sheet.items, body_h, notes)
 
 
+# ---------------------------------------------------------------- construction styles
+
+def _piece(solution: Solution, part: str):
+    """The cut list's item `part` (solver.CutItem)."""
+    return next(i for i in solution.cut_list if i.part == part)
+
+
+def _chain(sheet: Layout, y: float, marks: list, offset: float) -> None:
+    """Dimensions along y between consecutive (x, label) marks; a label None leaves a gap."""
+    for (x0, text), (x1, _) in zip(marks, marks[1:]):
+        if text is not None:
+            sheet.add(Dimension(x0, y, x1, y, text, offset))
+
+
+def _tube(ctx: _Context) -> Drawing:
+    """`construction: tube`: the pieces as cut and the J-pole assembled (lying down, its top at the
+    left): ONE long element (radiator and stub conductor in one continuous pipe or rod), the short
+    stub conductor, the short and the mounting section. The printed lengths are the cut list's."""
+    s = ctx.solution
+    dims, parts = s.dimensions, s.parts
+    fmt = ctx.length
+    long_el = _piece(s, "long element")
+    short_el = _piece(s, "short stub conductor")
+    mount = _piece(s, "mounting section")
+    m_rad = s.first_cut.radiator_margin_m
+    top = s.radiator_cut_m - dims.radiator            # trimming allowance (and any tuning margin)
+    through = long_el.length_m - s.radiator_cut_m - dims.stub
+    pipe = 6.0
+    grey = 0.45
+    body_h = 420.0
+    sheet = Layout(WIDTH, body_h)
+
+    # -- as cut
+    sheet.add(Text(PAD + 2.0, 20.0, "As cut", 9.0, bold=True))
+    top_text = f"top {fmt(top)}"
+    x_a = 24.0
+    x_t = x_a + max(46.0, text_width(top_text) + 12.0)
+    x_open = x_t + 150.0
+    x_short = x_open + 134.0
+    x_end = x_short + (34.0 if through > 0 else 0.0)
+    y1 = 62.0
+    sheet.add(BreakMark(x_a, y1, x_open, y1, at=0.55, size=10.0, width=pipe))
+    sheet.add(BreakMark(x_open, y1, x_end, y1, at=0.45, size=10.0, width=pipe))
+    for x in (x_t, x_open, x_short):
+        sheet.add(Line(x, y1 - 7.0, x, y1 + 7.0, width=0.9))
+    marks = [(x_a, top_text), (x_t, f"radiator {fmt(dims.radiator)}"), (x_open, f"stub {fmt(dims.stub)}"),
+             (x_short, f"{fmt(through)}" if through > 0 else None)]
+    if through > 0:
+        marks.append((x_end, None))
+    _chain(sheet, y1, marks, 14.0)
+    sheet.add(Dimension(x_a, y1, x_end, y1, f"long element {fmt(long_el.length_m)}", -24.0))
+    y2 = 122.0
+    sheet.add(BreakMark(x_open, y2, x_end, y2, at=0.45, size=10.0, width=pipe))
+    sheet.add(Line(x_short, y2 - 7.0, x_short, y2 + 7.0, width=0.9))
+    sheet.add(Dimension(x_open, y2, x_end, y2, f"short stub conductor {fmt(short_el.length_m)}", -24.0))
+    y3 = 178.0
+    x_m = 250.0
+    if parts.fittings:
+        sec = _piece(s, "short section")
+        sheet.add(Line(x_a + 20.0, y3, x_a + 70.0, y3, width=pipe))
+        sheet.add(Dimension(x_a + 20.0, y3, x_a + 70.0, y3, f"short section {fmt(sec.length_m)}", -14.0,
+                            beside="end"))
+    else:
+        bar = _piece(s, "short bar")
+        sheet.add(Rect(x_a + 20.0, y3 - 4.0, 60.0, 8.0, width=0.75, fill=grey))
+        for x in (x_a + 34.0, x_a + 66.0):
+            sheet.add(Circle(x, y3, 2.2, width=0.6, fill=1.0))
+        sheet.add(Dimension(x_a + 20.0, y3, x_a + 80.0, y3, f"short bar {fmt(bar.length_m)}", -14.0,
+                            beside="end"))
+    sheet.add(BreakMark(x_m, y3, x_m + 150.0, y3, at=0.5, size=10.0, width=pipe))
+    sheet.add(Dimension(x_m, y3, x_m + 150.0, y3, f"mounting section {fmt(mount.length_m)}", -24.0))
+    sheet.callout(x_a + 4.0, y1 + 3.0, ["free top: trim here to tune"], angles=(250, 270, 235),
+                  radii=(44, 56, 72))
+    sheet.callout(x_open + 30.0, y1 + 3.0, ["ONE piece: radiator and stub conductor"],
+                  angles=(290, 270, 310), radii=(44, 56, 72))
+
+    # -- assembled
+    y_l = 262.0
+    y_s = y_l + 70.0
+    sheet.add(Text(PAD + 2.0, 222.0, "Assembled", 9.0, bold=True))
+    sheet.add(BreakMark(x_a, y_l, x_open, y_l, at=0.55, size=10.0, width=pipe))
+    sheet.add(BreakMark(x_open, y_l, x_short, y_l, at=0.35, size=10.0, width=pipe))
+    sheet.add(BreakMark(x_open, y_s, x_short, y_s, at=0.35, size=10.0, width=pipe))
+    if parts.fittings:
+        sheet.add(Line(x_short, y_l, x_short, y_s, width=pipe))
+        sheet.add(Rect(x_short - 7.0, y_l - 7.0, 14.0, 14.0, width=0.9, fill=grey))       # tee
+        sheet.add(Rect(x_short - 7.0, y_s - 7.0, 14.0, 14.0, width=0.9, fill=grey))       # elbow
+        sheet.add(BreakMark(x_short + 7.0, y_l, x_short + 60.0, y_l, at=0.5, size=10.0, width=pipe))
+        x_mount_end = x_short + 60.0
+        sheet.callout(x_short + 4.0, y_l - 7.0, ["tee"], angles=(60, 45, 90), radii=(16, 24))
+        sheet.callout(x_short + 4.0, y_s + 7.0, ["elbow"], angles=(315, 300, 330), radii=(16, 24))
+    else:
+        for y in (y_l, y_s):
+            sheet.add(Line(x_short, y, x_short + through / max(through, 1e-9) * 10.0, y, width=pipe))
+        sheet.add(Rect(x_short - 4.0, y_l - 9.0, 8.0, y_s - y_l + 18.0, width=0.9, fill=grey))
+        sheet.add(BreakMark(x_short + 4.0, (y_l + y_s) / 2, x_short + 60.0, (y_l + y_s) / 2, at=0.5,
+                            size=10.0, width=pipe))
+        x_mount_end = x_short + 60.0
+        sheet.callout(x_short, y_s + 9.0, ["short bar, bolted"], angles=(240, 225, 255), radii=(24, 32))
+    sheet.callout(x_mount_end - 16.0, y_l + 3.0 if parts.fittings else (y_l + y_s) / 2 + 3.0,
+                  ["mounting section:", "mast clamps here"], angles=(315, 330, 300, 270), radii=(20, 30, 42, 56))
+    tap_d = 60.0
+    x_tap = x_short - tap_d
+    for y in (y_l, y_s):
+        sheet.add(Rect(x_tap - 3.0, y - 5.0, 6.0, 10.0, width=0.9, fill=1.0))
+    sheet.add(Dimension(x_tap, y_s, x_short, y_s, f"tap {fmt(dims.tap)}", -16.0, beside="start"))
+    sheet.add(Dimension(x_open, y_l, x_short, y_l, f"stub {fmt(dims.stub)}", 14.0))
+    sheet.add(Dimension(x_a, y_l, x_open, y_l, f"top to the open top, as cut {fmt(s.radiator_cut_m)}", 14.0))
+    sheet.add(Dimension(x_open + 20.0, y_l, x_open + 20.0, y_s,
+                        f"spacing {units.format_length(dims.spacing, ctx.units, 'size')}", 0.0))
+    sheet.callout(x_open, y_s, ["open top: the short conductor", "ends here (high RF voltage)"],
+                  angles=(225, 240, 210), radii=(20, 30, 42))
+    sheet.callout(x_tap + 3.0, y_s - 3.0, ["tap clamps"], angles=(45, 60, 30), radii=(20, 24, 32))
+    notes = ["Drawn lying down: the left end is the top of the vertical. Not to scale (break marks).",
+             "Lengths to the centre line of the short; " +
+             ("the tee and the elbow take up their own take-off: cut the pipes that much shorter, "
+              "measured on your fittings." if parts.fittings else
+              "the conductors pass through the short bar by the length shown."),
+             "Tuning: the tap and the long element's top; the short stays where it is."
+             + (f" The top includes a {fmt(m_rad)} tuning margin." if m_rad > 0 else ""),
+             ctx.rounding_note()]
+    return _finish(ctx, "Long element and pieces: as cut and assembled", sheet.items, body_h, notes)
+
+
+def _twin_lead(ctx: _Context) -> Drawing:
+    """`construction: twin-lead`: the one piece of line as marked and cut (lying down, its top at the
+    left): the tie allowance, the radiator (one conductor; the other cut at the gap and stripped off
+    above it), the stub from the gap to the short, the tail; the short link and the tap. The printed
+    lengths are the cut list's and the tuning procedure's first cut."""
+    s = ctx.solution
+    dims = s.dimensions
+    fc = s.first_cut
+    fmt = ctx.length
+    line = _piece(s, "line, one piece")
+    tie = s.wrap_allowance_m
+    rad = dims.radiator + fc.radiator_margin_m
+    stub = dims.stub + fc.stub_margin_m
+    tail = line.length_m - tie - rad - stub
+    body_h = 270.0
+    sheet = Layout(WIDTH, body_h)
+    sheet.add(Text(PAD + 2.0, 20.0, "One piece of line, as marked and cut", 9.0, bold=True))
+    tie_text = f"tie {fmt(tie)}"
+    x_a = 40.0
+    x_r = x_a + max(40.0, text_width(tie_text) + 12.0)
+    x_gap = x_r + 186.0
+    x_short = x_gap + 150.0
+    x_end = x_short + max(40.0, text_width(fmt(tail)) + 12.0)
+    y_r, y_o = 110.0, 128.0
+    # the web: between the conductors from the gap down; above it the radiator keeps its half
+    sheet.add(Hatch(x_gap, y_r, x_end - x_gap, y_o - y_r, grey=WEB_GREY))
+    sheet.add(Hatch(x_a, y_r, x_gap - x_a, 4.0, grey=WEB_GREY))
+    sheet.add(BreakMark(x_a, y_r, x_gap, y_r, at=0.55, size=9.0, width=CONDUCTOR + 0.3))
+    sheet.add(BreakMark(x_gap, y_r, x_end, y_r, at=0.2, size=9.0, width=CONDUCTOR + 0.3))
+    sheet.add(BreakMark(x_gap + 3.0, y_o, x_end, y_o, at=0.2, size=9.0, width=CONDUCTOR + 0.3))
+    sheet.add(Line(x_gap - 3.0, y_o - 4.0, x_gap + 1.0, y_o + 4.0, width=0.9))
+    sheet.add(Circle((x_a + x_r) / 2, y_r + 2.0, 2.4, width=0.6, fill=1.0))
+    for x in (x_r, x_gap, x_short):
+        sheet.add(Line(x, y_r - 8.0, x, y_r - 2.0, width=0.9))
+    sheet.add(Line(x_short, y_r, x_short, y_o, width=3.0))
+    tap_d = 60.0
+    x_tap = x_short - tap_d
+    for y in (y_r, y_o):
+        sheet.add(Rect(x_tap - 3.0, y - 4.0, 6.0, 8.0, width=0.9, fill=1.0))
+    sheet.add(Line(x_tap, y_o + 4.0, x_tap, y_o + 90.0, width=COAX))
+    _chain(sheet, y_r, [(x_a, tie_text), (x_r, f"radiator, first cut {fmt(rad)}"),
+                        (x_gap, f"stub, first cut {fmt(stub)}"), (x_short, fmt(tail)), (x_end, None)], 16.0)
+    sheet.add(Dimension(x_a, y_r, x_end, y_r, f"line, one piece {fmt(line.length_m)}", 44.0))
+    sheet.add(Dimension(x_tap, y_o, x_short, y_o, f"tap {fmt(dims.tap)}", -24.0, beside="start"))
+    sheet.callout((x_a + x_r) / 2, y_r + 2.0, ["tie hole: end insulator", "and halyard"],
+                  angles=(270, 240, 300), radii=(30, 42, 56))
+    sheet.callout(x_gap, y_o + 2.0, ["gap: the other conductor cut", "here and stripped off above"],
+                  angles=(250, 270, 230), radii=(42, 56, 72))
+    sheet.callout(x_short, y_o + 2.0, ["short: wire link,", "soldered"], angles=(300, 315, 330, 285),
+                  radii=(24, 32, 42, 56))
+    sheet.callout(x_tap, y_o + 4.0, ["tap: clips to find it,", "then soldered"], angles=(210, 225, 240, 195),
+                  radii=(30, 42, 56, 72))
+    sheet.callout(x_tap, y_o + 80.0, [f"coax {ctx.design.feed.coax}, through", "the choke to the station"],
+                  angles=(0, 20, 340), radii=(16, 24, 32))
+    notes = ["Drawn lying down: the left end is the top of the vertical. Not to scale (break marks).",
+             f"Solved: radiator {fmt(dims.radiator)} (top end to the gap), stub {fmt(dims.stub)} (gap "
+             "to the short's centre line); the first cut is long by the tuning margins (see the tuning "
+             "procedure): trim the top and move the short up to tune.",
+             ctx.rounding_note()]
+    return _finish(ctx, "The line: radiator, gap, stub and short in one piece", sheet.items, body_h, notes)
+
+
+STYLE_FIGURES = {"tube": _tube, "twin-lead": _twin_lead}
+
+
 # ---------------------------------------------------------------- stub
 
 def _web(sheet: Layout, ctx: _Context, x_j: float, x_o: float, spans, keep_clear) -> None:
@@ -801,7 +1001,8 @@ def _stub(ctx: _Context) -> Drawing:
 
     # open top: the junction first, so that the callouts placed after it keep clear of it
     sheet.add(Circle(x_j, y_top, 2.4, width=0, fill=0.0))
-    if not s.parts.rigid_radiator:
+    style = s.parts.construction
+    if not s.parts.rigid_radiator and style != "twin-lead":
         sheet.add(_wrap_mark(x_j, y_top + 2.0, 7, "y", amplitude=2.4))
     if orientation in ("vertical", "inverted"):
         sheet.add(Line(x_j, y_top, x_j, PAD + 8.0, width=CONDUCTOR + 0.3))
@@ -847,13 +1048,16 @@ def _stub(ctx: _Context) -> Drawing:
 
     sheet.callout(x_o, y_top, ["open end: this conductor", "ends here (high RF voltage)"],
                   angles=(45, 30, 60), radii=(56, 72, 90, 110))
-    sheet.callout(x_j, y_top + 6.0, ["junction: the radiator", "on this conductor only"],
+    sheet.callout(x_j, y_top + 6.0, ["one piece: the long element", "goes on up as the radiator"]
+                  if style == "tube" else ["this conductor goes on up", "as the radiator (the gap)"]
+                  if style == "twin-lead" else ["junction: the radiator", "on this conductor only"],
                   angles=(225, 240, 200, 135), radii=(30, 42, 56, 72))
     sheet.place_group([_section(ctx, 104.0, cy) for cy in (y_b + 8.0, y_tap + 10.0, y_b - 40.0,
                                                             y_short + 40.0)], "the stub's section")
     short_text = ["short: bar or pipe across,", "clamped or soldered"] if s.parts.rigid_stub else ["short: wire across both", "conductors, soldered"]
     sheet.callout(x_j, y_short, short_text, angles=(200, 225, 180), radii=(30, 42, 56, 72))
-    sheet.callout(x_j - 4.0, y_tap, ["tap clamps: they slide", "along the stub to tune"],
+    sheet.callout(x_j - 4.0, y_tap, ["tap: clips to find it,", "then soldered"] if style == "twin-lead"
+                  else ["tap clamps: they slide", "along the stub to tune"],
                   angles=(160, 180, 135, 200), radii=(30, 42, 56, 72))
     sheet.callout(x_mid - 2.0, e_y, ["coax centre to the radiator", "side, braid to the other"],
                   angles=(150, 135, 165), radii=(56, 72, 90))
@@ -957,9 +1161,12 @@ def _short_tap(ctx: _Context) -> Drawing:
 
     sheet.add(_vdim(x_o, y_short, y_tap, f"tap {fmt(dims.tap)}", 44.0))
 
-    sheet.callout(x_j, y_a + 4.0, ["radiator-side conductor:", "the radiator joins it at the top"],
-                  angles=(180, 160, 200), radii=(20, 30, 42))
-    sheet.callout(x_o, y_a + 4.0, ["other conductor:", "ends open at the top"],
+    style = s.parts.construction
+    sheet.callout(x_j, y_a + 4.0, ["radiator-side conductor:", {
+        "tube": "the long element, the radiator above", "twin-lead": "it goes on up as the radiator"}.get(
+            style, "the radiator joins it at the top")], angles=(180, 160, 200), radii=(20, 30, 42))
+    sheet.callout(x_o, y_a + 4.0, ["other conductor:", "cut at the gap" if style == "twin-lead"
+                                   else "ends open at the top"],
                   angles=(0, 20, 340), radii=(60, 72, 90))
     if rigid:
         short_text = ["short: bar or pipe across,", "clamped or soldered"]
@@ -976,7 +1183,8 @@ def _short_tap(ctx: _Context) -> Drawing:
                   radii=(42, 56, 72))
     sheet.callout((x_mid + x_o) / 2 + 4.0, (jacket_top - 4.0 + y_tap) / 2 + 1.0,
                   ["coax braid to the other conductor"], angles=(60, 45, 75, 30), radii=(56, 72, 90))
-    sheet.callout(x_j + cw / 2 + 3.0, y_tap - 6.0, ["tap clamp: slides", "along to tune"],
+    sheet.callout(x_j + cw / 2 + 3.0, y_tap - 6.0, ["tap clip: soldered", "once the match is made"]
+                  if style == "twin-lead" else ["tap clamp: slides", "along to tune"],
                   angles=(135, 150, 120, 200), radii=(30, 42, 56))
     sheet.callout(x_mid + 6.0, y_end - 4.0, ["coax passes behind the short,", "down to the choke"],
                   angles=(340, 0, 320), radii=(30, 42, 56))
@@ -1175,4 +1383,6 @@ def figures(design: Design, solution: Solution, date: str) -> dict[str, Drawing]
     ctx = _Context(design, solution, date)
     builders = {"overview": _overview, "radiator": _radiator, "stub": _stub, "short-tap": _short_tap,
                 "choke": _choke, "swr": _swr, "smith": _smith, "pattern": _pattern}
+    # a construction style's own drawing of its pieces takes the radiator's place
+    builders["radiator"] = STYLE_FIGURES.get(solution.parts.construction, _radiator)
     return {key: builders[key](ctx) for key in FIGURES}
