@@ -468,7 +468,7 @@ class _Context:
             return "no ground (free space)"
         return f"{site.ground} ground"
 
-    def hung(self) -> str:
+    def mounting(self) -> str:
         site = self.d.site
         h = self.length(site.height_m)
         if site.orientation == "horizontal":
@@ -508,7 +508,7 @@ class _Context:
         d, s = self.d, self.s
         return (
             Facts((
-                ("hung", _e(self.hung())),
+                ("mounting", _e(self.mounting())),
                 *((("site", _e(describe(site, lambda m: self.length(m, coarse=True)))),)
                   if (site := self.layout()) else ()),
                 ("radiator", _e(self.radiator_text())),
