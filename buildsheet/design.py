@@ -164,6 +164,12 @@ def latest_as_built(record: tuple) -> RecordEntry | None:
 
 
 @dataclass(frozen=True)
+class Stack:
+    """The stacked version: phasing 'stub' (a shorted quarter wave of the stub's line)."""
+    phasing: str = "stub"
+
+
+@dataclass(frozen=True)
 class Design:
     schema: int
     name: str
@@ -186,6 +192,8 @@ class Design:
     #: the `country` whose national band edges were asked for (None: the ITU table of the region);
     #: not part of the canonical form: the band edges it chose are
     country: str | None = None
+    #: the stacked version (`stack:`), or None: a single half-wave
+    stack: "Stack | None" = None
 
     @property
     def wavelength_m(self) -> float:
@@ -198,6 +206,8 @@ class Design:
         data = dataclasses.asdict(self)
         for key in ("title", "output", "record", "path", "lines", "country"):
             data.pop(key)
+        if data["stack"] is None:   # a single half-wave: the document IDs of before `stack:`
+            data.pop("stack")
         data["stub"].pop("source")  # where the catalogue's numbers come from is not the antenna
         for part in ("stub", "radiator"):  # nor the range the sources give for a velocity factor
             data[part].pop("velocity_factor_spread")
@@ -457,11 +467,24 @@ class _Validator:
                         stub=self.stub_line(), feed=self.feed(), site=self.site(), power=self.power(),
                         output=Output(units=self.value("output.units"), paper=self.value("output.paper")),
                         calibration=self.calibration(), record=self.record(), path=self.path,
-                        country=country,
+                        country=country, stack=self.stack(),
                         lines={key: self.doc.line_of(self._path(key)) for key in schema.KEYS
                                if ".N." not in key and self.has(key)})
         self.cross_checks(design)
         return design
+
+    def stack(self) -> "Stack | None":
+        """The `stack` key: the stacked version, or None."""
+        if not self.has("stack"):
+            return None
+        phasing = self.value("stack.phasing")
+        if phasing == "coil":
+            raise self.fail("stack.phasing", "`coil` is not modelled and proven yet; use `stub` "
+                            "(a shorted quarter wave of the stub's line)")
+        if self.get("site.orientation") == "sloper":
+            raise self.fail("stack", "a stacked sloper is not modelled; stack a horizontal or a "
+                            "vertical")
+        return Stack(phasing=phasing)
 
     def country(self, region: int) -> str | None:
         """The `country` key: a code with national band edges in the catalogue (catalog.countries),

@@ -53,6 +53,12 @@ def summary_text(design: Design, s: Solution) -> str:
     add(f"  stub       {L(d.stub):>14}   open top to the centre of the short")
     add(f"  tap        {L(d.tap):>14}   centre of the short to the tap")
     add(f"  spacing    {units.format_length(d.spacing, u, 'size'):>14}   centre to centre of the stub conductors")
+    k = s.stack
+    if k is not None:
+        add(f"  element    {L(k.element_m):>14}   upper element, attachment point to attachment point")
+        add(f"  phasing    {L(k.phasing_m):>14}   phasing stub, open end (the gap) to the centre of its short")
+        add(f"  gap        {units.format_length(k.phasing_spacing_m, u, 'size'):>14}   radiator's end to the "
+            "element's start (the phasing stub's spacing)")
     add("")
     add("Cut list")
     for item in s.cut_list:
@@ -98,6 +104,14 @@ def summary_text(design: Design, s: Solution) -> str:
     add(f"  efficiency (radiated / delivered to the tap): {units.format_percent(s.efficiency)}")
     if s.radiation is not None:
         add(radiation_line(s.radiation))
+    if k is not None:
+        add(f"  stacked: {k.gain_over_single_db:+.1f} dB over the single half-wave of the same design "
+            f"({k.single_max_gain_dbi:.1f} dBi); 2:1 band of the single: {_band(k.single_band_swr2_hz)}")
+        add(f"  phasing stub: {units.format_voltage(k.voltage_phasing_open_v_rms)} rms, "
+            f"{units.format_voltage(k.voltage_phasing_open_v_peak)} peak across its open end; "
+            f"{units.format_current(k.current_phasing_short_a_rms)} rms through its short; far end of the "
+            f"element: {units.format_voltage(k.voltage_element_end_v_rms)} rms; element current "
+            f"{k.element_current_ratio:.2f} x the radiator's, {k.element_phase_deg:+.0f}\u00b0")
     c = s.choke
     coil = (f"  choke: {c.turns} turn{'s' if c.turns != 1 else ''} of {design.feed.coax} on a "
             f"{L(c.form_diameter_m)} form, coil {L(c.coil_length_m)} long, {c.inductance_h * 1e6:.2f} uH")
@@ -130,7 +144,8 @@ def summary_text(design: Design, s: Solution) -> str:
     for a in s.assumptions:
         add(f"  assumed: {a}.")
     add("")
-    add("Cautions: keep the antenna and its fall zone well clear of power lines; the open end of the stub "
-        "and the far end of the radiator carry high RF voltage; follow local codes, your regulator and "
-        "licensed practice.")
+    add("Cautions: keep the antenna and its fall zone well clear of power lines; the open end of the stub"
+        + (" and the far end of the radiator carry" if k is None else
+           ", the phasing stub's open end and the far ends of both elements carry")
+        + " high RF voltage; follow local codes, your regulator and licensed practice.")
     return "\n".join(rows) + "\n"

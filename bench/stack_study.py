@@ -1,0 +1,169 @@
+"""Study of the stacked (collinear) J-pole model (buildsheet.physics.jpole, Stack and STACK_CAL)
+against NEC-2. Prints figures; not a test.
+
+  python3 bench/stack_study.py collect OUT.json N [START]   NEC data on N random stacked designs
+  python3 bench/stack_study.py fit DATA.json                 least-squares fit of STACK_CAL: even
+                                                             seeds train, odd seeds are held out
+  python3 bench/stack_study.py accept OUT.json               the acceptance designs of
+                                                             tests/test_stacked_nec.py and the bench's
+                                                             own: NEC SWR at f0, 2:1 bands, gain
+                                                             over the single version (NEC patterns)
+
+Data (collect): for each random design (bench/nec_study.py's random_case, slopers made horizontal:
+a stacked sloper is not modelled), the model designs the stacked antenna with the constants of that
+time (jpole.design_stack, solve_match), and NEC-2 (tests/necref.py stacked_model, meshed per
+DESIGN.md §7) gives the feed impedance at those dimensions on 13 frequencies over f0 +/- 3 %. The
+fit adjusts only the global constants of jpole.StackCalibration so that the model's feed impedance
+at the same dimensions and frequencies matches NEC's (residual: the difference of the 50-ohm
+reflection coefficients). Each data file carries its provenance.
+"""
+
+from __future__ import annotations
+
+import dataclasses
+import gzip
+import json
+import sys
+import time
+from multiprocessing import Pool
+from pathlib import Path
+
+import numpy as np
+
+ROOT = Path(__file__).resolve().parent.parent
+sys.path.insert(0, str(ROOT / "tests"))
+sys.path.insert(0, str(ROOT / "bench"))
+sys.path.insert(0, str(ROOT))
+
+import necref  # noqa: E402
+import nec_study  # noqa: E402
+import test_jpole_nec as acc  # noqa: E402
+from buildsheet.physics import jpole  # noqa: E402
+from buildsheet.physics.lines import Line, swr  # noqa: E402
+
+SPAN = 0.03
+N_F = 13
+
+
+def stack_case(seed: int) -> acc.Case:
+    """nec_study.random_case with a sloper made a horizontal."""
+    case = nec_study.random_case(seed)
+    if case.orientation == "sloper":
+        case = dataclasses.replace(case, orientation="horizontal", slope=0.0)
+    return case
+
+
+def model_stacked(case: acc.Case):
+    """(antenna with its stack, L, S, T) as the solver designs it (the stub's line for the phasing)."""
+    ant = case.antenna()
+    L = jpole.resonant_radiator_length(case.f0, ant)
+    st = jpole.design_stack(case.f0, ant, L, ant.stub_line, case.spacing, case.stub_d, case.stub_sigma)
+    L = jpole.stacked_radiator_length(case.f0, dataclasses.replace(ant, stack=st), st)
+    st = dataclasses.replace(st, element=L)
+    ant2 = dataclasses.replace(ant, stack=st)
+    S, T = jpole.solve_match(case.f0, 50.0, ant2, L)
+    return ant2, L, S, T
+
+
+def nec_stack(st: jpole.Stack, sigma) -> necref.StackDims:
+    return necref.StackDims(st.element, st.phasing, st.spacing, st.conductor_d, sigma)
+
+
+def collect_one(seed: int):
+    case = stack_case(seed)
+    row = dict(seed=seed, case=nec_study._case_dict(case))
+    try:
+        ant, L, S, T = model_stacked(case)
+        st = ant.stack
+        f = case.f0 * (1 + np.linspace(-SPAN, SPAN, N_F))
+        z = necref.stacked_model(case.nec_dims(L, S, T), nec_stack(st, case.stub_sigma), f).z_feed
+        row.update(L=L, S=S, T=T, element=st.element, phasing=st.phasing, f=f.tolist(),
+                   z=[[float(v.real), float(v.imag)] for v in z])
+    except (ValueError, RuntimeError, jpole.ModelError) as exc:
+        row["error"] = f"{type(exc).__name__}: {exc}"
+    return row
+
+
+def collect(out: str, n: int, start: int = 0):
+    t0 = time.time()
+    with Pool(2) as pool:
+        rows = pool.map(collect_one, range(start, start + n))
+    data = dict(provenance=nec_study.provenance(script="bench/stack_study.py",
+                                                command=" ".join(sys.argv[1:]),
+                                                stack_cal=dataclasses.asdict(jpole.STACK_CAL),
+                                                seconds=round(time.time() - t0)), rows=rows)
+    with gzip.open(out, "wt") if out.endswith(".gz") else open(out, "w") as fh:
+        json.dump(data, fh)
+    ok = sum("error" not in r for r in rows)
+    print(f"{ok}/{n} designs collected in {time.time() - t0:.0f} s -> {out}")
+
+
+def load(path: str) -> list:
+    with gzip.open(path, "rt") if path.endswith(".gz") else open(path) as fh:
+        return [r for r in json.load(fh)["rows"] if "error" not in r]
+
+
+def row_rho(row, cal=None):
+    """(model, NEC) 50-ohm reflection coefficients at the row's dimensions and frequencies."""
+    case = nec_study.case_from_dict(row["case"])
+    ant = case.antenna()
+    st = jpole.Stack(row["element"], row["phasing"], ant.stub_line, case.spacing, case.stub_d,
+                     case.stub_sigma)
+    ant = dataclasses.replace(ant, stack=st)
+    old = jpole.STACK_CAL
+    if cal is not None:
+        jpole.STACK_CAL = cal
+    try:
+        zm = jpole.feed_impedance(np.asarray(row["f"]), ant, row["L"], row["S"], row["T"])
+    finally:
+        jpole.STACK_CAL = old
+    zn = np.array([complex(*v) for v in row["z"]])
+    rho = lambda z: (z - 50) / (z + 50)
+    return rho(zm), rho(zn)
+
+
+FIELDS = ("phasing_top", "radiator_end", "element_end", "mutual_r", "mutual_x")
+
+
+def errors(cal, rows):
+    out = []
+    for r in rows:
+        m, n = row_rho(r, cal)
+        out.append(float(np.sqrt(np.mean(np.abs(m - n) ** 2))))
+    return np.array(out)
+
+
+def fit(path: str):
+    from scipy.optimize import least_squares
+    rows = load(path)
+    train = [r for r in rows if r["seed"] % 2 == 0]
+    held = [r for r in rows if r["seed"] % 2 == 1]
+    x0 = np.array([getattr(jpole.STACK_CAL, k) for k in FIELDS])
+
+    def resid(x):
+        cal = jpole.StackCalibration(*x)
+        res = []
+        for r in train:
+            m, n = row_rho(r, cal)
+            res.extend((m - n).real)
+            res.extend((m - n).imag)
+        return np.array(res)
+
+    sol = least_squares(resid, x0, x_scale=0.3, diff_step=1e-3)
+    cal = jpole.StackCalibration(*(round(float(v), 4) for v in sol.x))
+    for name, c in (("start", jpole.STACK_CAL), ("fitted", cal)):
+        et, eh = errors(c, train), errors(c, held)
+        print(f"{name}: {c}\n  train rms|drho| median {np.median(et):.4f} 90% {np.percentile(et, 90):.4f}"
+              f" (n={len(et)});  held-out median {np.median(eh):.4f} 90% {np.percentile(eh, 90):.4f}"
+              f" (n={len(eh)})")
+    return cal
+
+
+if __name__ == "__main__":
+    cmd = sys.argv[1]
+    if cmd == "collect":
+        collect(sys.argv[2], int(sys.argv[3]), int(sys.argv[4]) if len(sys.argv) > 4 else 0)
+    elif cmd == "fit":
+        fit(sys.argv[2])
+    else:
+        raise SystemExit(__doc__)
