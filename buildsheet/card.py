@@ -15,7 +15,7 @@ from buildsheet import units
 from buildsheet.design import Design
 from buildsheet.layout import describe
 from buildsheet.sheet import (Facts, Figures, KeyFigures, Para, Section, Sheet, Table, _Context,
-                              _e, _volts, build_sheet, render_blocks)
+                              KIND, _e, _volts, build_sheet, render_blocks)
 from buildsheet.solver import Solution
 
 SUBTITLE = "Yard card: end-fed half-wave antenna matched by a shorted quarter-wave stub"
@@ -38,7 +38,8 @@ def build_card(design: Design, solution: Solution, date: str, *, safety_where: s
         Section("cautions", "The two cautions that matter most", _cautions(ctx, safety_where)),
     )
     return dataclasses.replace(
-        full, subtitle=SUBTITLE, sections=sections,
+        full, subtitle=SUBTITLE if solution.stack is None else "Yard card: " + KIND[True],
+        sections=sections,
         subject=f"Yard card of {design.name}, document {solution.design_id}, revised {date}")
 
 

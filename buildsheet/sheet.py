@@ -281,6 +281,11 @@ def _direction(move_m: float) -> str:
 # ----------------------------------------------------------------------------------------------
 # The sheet
 
+#: what the antenna is, for the subtitles: single (False) and stacked (True)
+KIND = {False: "end-fed half-wave antenna matched by a shorted quarter-wave stub",
+        True: "two stacked half-waves fed in phase, matched by a quarter-wave stub"}
+
+
 def build_sheet(design: Design, solution: Solution, date: str) -> Sheet:
     """The build sheet of `design` solved as `solution`, dated `date` (YYYY-MM-DD, the revision date).
     Design strings are printable in Vera: design.py refuses any character the font lacks."""
@@ -299,10 +304,12 @@ def build_sheet(design: Design, solution: Solution, date: str) -> Sheet:
     return Sheet(
         title=design.title, name=design.name, document_id=solution.design_id, date=date,
         paper=design.output.paper, units=design.output.units,
-        subtitle="Build sheet: end-fed half-wave antenna matched by a shorted quarter-wave stub",
+        subtitle="Build sheet: " + KIND[solution.stack is not None],
         furniture=(design.name, f"document {solution.design_id}", f"revised {date}"),
         page_label="page {page} of {pages}",
-        footer="Caution: high RF voltage at the stub's open end and the radiator's far end. Never touch "
+        footer="Caution: high RF voltage at the stub's open end" + (
+            " and the radiator's far end" if solution.stack is None else
+            ", the phasing stub's open end and the elements' far ends") + ". Never touch "
                "the antenna while transmitting; keep it clear of power lines. See the safety cautions.",
         subject=f"Build sheet of {design.name}, document {solution.design_id}, revised {date}",
         sections=sections,
@@ -377,6 +384,7 @@ class _Context:
                           "centre line of the short to the tap, measured along the stub"),
                 KeyFigure("spacing", _e(self.size(dims.spacing)),
                           "centre to centre of the stub conductors"),
+                *self.stack_figures(),
             )),
             Para(_e(f"Dimensions as built, {rounding}; the pieces are cut longer (see the cut list)."
                     + self.margin_summary()), "note"),
@@ -386,6 +394,17 @@ class _Context:
                        + "; ".join(dict.fromkeys(f.part for f in s.findings)) + "."), "caution"),)
               if s.findings else ()),
         )
+
+    def stack_figures(self) -> tuple:
+        """The stacked version's key dimensions: the upper element and the phasing stub."""
+        k = self.s.stack
+        if k is None:
+            return ()
+        return (KeyFigure("element", _e(self.length(k.element_m)),
+                          "the upper element, as the radiator: end to end"),
+                KeyFigure("phasing stub", _e(self.length(k.phasing_m)),
+                          f"its open end (the {self.size(k.phasing_spacing_m)} gap between the radiator "
+                          "and the element) to the centre line of its short"))
 
     def band_table(self) -> str:
         """Which table the band edges come from: a country's national table (catalog
@@ -554,6 +573,13 @@ class _Context:
                 ("radiator's far end", _e(f"{_volts(s.voltage_far_end_v_rms)} rms, "
                                           f"{_volts(s.voltage_far_end_v_peak)} peak")),
                 ("current in the short", _e(f"{_amps(s.current_short_a_rms)} rms")),
+                *((("phasing stub's open end", _e(f"{_volts(s.stack.voltage_phasing_open_v_rms)} rms, "
+                                                  f"{_volts(s.stack.voltage_phasing_open_v_peak)} peak, "
+                                                  "across the gap")),
+                   ("element's far end", _e(f"{_volts(s.stack.voltage_element_end_v_rms)} rms")),
+                   ("current in the phasing short",
+                    _e(f"{_amps(s.stack.current_phasing_short_a_rms)} rms")))
+                  if s.stack is not None else ()),
             )),
             *self.findings_at("voltages", "current", "reach"),
             Heading("Efficiency"),
@@ -654,6 +680,13 @@ class _Context:
                                     f"the antenna's{'' if free else ' and the ground'} losses included)")),
                 ("elevation of the maximum" if free else "take-off angle",
                  _e(f"{r.takeoff_deg:.0f}° above the horizon, toward azimuth {r.azimuth_deg:.0f}°")),
+                *((("over the single half-wave",
+                    _e(f"{k.gain_over_single_db:+.1f} dB: the same design without the upper element "
+                       f"gives {k.single_max_gain_dbi:.1f} dBi and a 2:1 band of "
+                       f"{_band(k.single_band_swr2_hz)}")),
+                   ("element current", _e(f"{k.element_current_ratio:.2f} × the radiator's, "
+                                          f"{k.element_phase_deg:+.0f}° from it (in phase: 0°)")))
+                  if (k := self.s.stack) is not None else ()),
             )),
         )
 
@@ -696,7 +729,11 @@ class _Context:
         tolerance = dip_tolerance_hz(s)
         rigid = s.parts.rigid_radiator
         fc = s.first_cut
+        k = s.stack
         return dict(
+            stack=k is not None, element=self.length(k.element_m) if k else "",
+            phasing=self.length(k.phasing_m) if k else "",
+            gap=self.size(k.phasing_spacing_m) if k else "",
             stub_margin=self.length(fc.stub_margin_m), has_stub_margin=self.shown(fc.stub_margin_m),
             radiator_margin=self.length(fc.radiator_margin_m),
             has_radiator_margin=self.shown(fc.radiator_margin_m),
@@ -876,6 +913,10 @@ class _Context:
             v_far_rms=_volts(s.voltage_far_end_v_rms),
             v_far_pk=_volts(s.voltage_far_end_v_peak),
             i_short=_amps(s.current_short_a_rms),
+            stack=s.stack is not None,
+            v_phasing_rms=_volts(s.stack.voltage_phasing_open_v_rms) if s.stack else "",
+            v_phasing_pk=_volts(s.stack.voltage_phasing_open_v_peak) if s.stack else "",
+            v_element_rms=_volts(s.stack.voltage_element_end_v_rms) if s.stack else "",
             low_point=self.length(low_point) if low_point is not None else "", low_point_what=low_what,
             d_general=self.distance(e.distance_general_m),
             d_controlled=self.distance(e.distance_controlled_m),

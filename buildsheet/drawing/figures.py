@@ -396,6 +396,12 @@ def _overview_vertical(ctx: _Context) -> tuple[Layout, float]:
     fmt = ctx.length
     wire = not s.parts.rigid_radiator
     y_end_top = 62.0 if wire else 40.0
+    k = s.stack
+    if k is not None:
+        # stacked: the upper element on top, the gap and the phasing stub out to the left below it
+        y_el_top, gap = y_end_top, 8.0
+        y_el_bot = y_el_top + 96.0
+        y_end_top = y_el_bot + gap
     tap_text = f"tap {fmt(dims.tap)}"
     a = StubAnchors.hanging(200.0, 212.0, top=y_end_top + 116.0, stub_span=150.0,
                             tap_span=_tap_span(tap_text), tail=22.0)
@@ -413,9 +419,19 @@ def _overview_vertical(ctx: _Context) -> tuple[Layout, float]:
 
     # radiator straight up from the radiator-side conductor
     sheet.add(BreakMark(x_j, y_top, x_j, y_end_top, at=0.5, width=CONDUCTOR))
+    y_free = y_end_top          # the top end of the whole antenna
+    if k is not None:
+        y_free = y_el_top
+        sheet.add(BreakMark(x_j, y_el_bot, x_j, y_el_top, at=0.5, width=CONDUCTOR))
+        x_p = x_j - 118.0
+        for y in (y_end_top, y_el_bot):
+            sheet.add(BreakMark(x_j, y, x_p, y, at=0.5, size=3.5, width=CONDUCTOR))
+        sheet.add(Line(x_p, y_el_bot, x_p, y_end_top, width=2.4))
+        sheet.add(Rect(x_j - 2.5, y_el_bot + 1.0, 5.0, gap - 2.0, width=0.6, fill=INSULATOR_GREY))
+        sheet.add(Dimension(x_p, y_el_bot, x_j, y_el_bot, f"phasing stub {fmt(k.phasing_m)}", 10.0))
     if wire:
-        sheet.add(_insulator((x_j, y_end_top), (0.0, -1.0)))
-        sheet.add(Line(x_j, y_end_top - 16.0, x_j, PAD + 4.0, width=ROPE, dash=ROPE_DASH))
+        sheet.add(_insulator((x_j, y_free), (0.0, -1.0)))
+        sheet.add(Line(x_j, y_free - 16.0, x_j, PAD + 4.0, width=ROPE, dash=ROPE_DASH))
     station_x = 70.0
     y_coax = y_g - 4.0
     y_choke = _stub_and_feed(sheet, ctx, a, ((x_mid, y_coax), (station_x + 46.0, y_coax)))
@@ -425,18 +441,28 @@ def _overview_vertical(ctx: _Context) -> tuple[Layout, float]:
     # room between for the callouts of the open top
     sheet.add(_vdim(x_o, y_short, y_tap, tap_text, 34.0))
     x_c = x_o + 160.0
-    for y, x_from in ((y_end_top, x_j), (y_top, x_o), (y_short, x_o)):
+    ends = ((y_end_top, x_j), (y_top, x_o), (y_short, x_o))
+    if k is not None:
+        ends += ((y_el_bot, x_j), (y_el_top, x_j))
+        sheet.add(Dimension(x_c, y_el_bot, x_c, y_el_top, f"element {fmt(k.element_m)}", 0.0))
+    for y, x_from in ends:
         sheet.add(Line(x_from + 1.5, y, x_c + 2.0, y, width=THIN))
     sheet.add(Dimension(x_c, y_top, x_c, y_end_top, f"radiator {fmt(dims.radiator)}", 0.0))
     sheet.add(Dimension(x_c, y_short, x_c, y_top, f"stub {fmt(dims.stub)}", 0.0))
     sheet.add(Dimension(x_c, y_g, x_c, y_short, f"height {fmt(d.site.height_m)}", 0.0))
 
     if wire:
-        sheet.callout(x_j, y_end_top - 8.0, ["top insulator"], angles=(180, 160, 200))
-        sheet.callout(x_j, (y_end_top - 16.0 + PAD + 4.0) / 2, ["rope up to a support"],
+        sheet.callout(x_j, y_free - 8.0, ["top insulator"], angles=(180, 160, 200))
+        sheet.callout(x_j, (y_free - 16.0 + PAD + 4.0) / 2, ["rope up to a support"],
                       angles=(180, 200, 160))
     else:
-        sheet.callout(x_j, y_end_top, ["top end, free"], angles=(180, 200, 160))
+        sheet.callout(x_j, y_free, ["top end, free"], angles=(180, 200, 160))
+    if k is not None:
+        sheet.callout(x_j + 2.5, (y_el_bot + y_end_top) / 2,
+                      [f"gap {units.format_length(k.phasing_spacing_m, ctx.units, 'size')}: insulator", "(high RF voltage)"],
+                      angles=(0, 20, 340, 40))
+        sheet.callout(x_p, (y_el_bot + y_end_top) / 2, ["phasing short"], angles=(200, 180, 225, 160))
+        sheet.callout(x_j, y_el_bot - 40.0, ["upper element"], angles=(200, 180, 160, 225))
     sheet.callout(x_o, y_top + 2.0, ["open top: this conductor", "ends here (RF voltage)"],
                   angles=(330, 345, 315, 30, 0))
     sheet.callout(x_j, y_top - 30.0, ["the radiator continues", "from this conductor"],
