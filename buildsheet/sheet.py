@@ -475,7 +475,7 @@ class _Context:
     def layout(self):
         """The site layout of a horizontal or sloper (layout.site_layout), None for a vertical."""
         site = self.d.site
-        return site_layout(site.orientation, site.height_m, site.slope_rad, self.s.dimensions.radiator,
+        return site_layout(site.orientation, site.height_m, site.slope_rad, self.s.span_m,
                            self.d.wavelength_m)
 
     def top_height(self) -> float:

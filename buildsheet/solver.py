@@ -222,6 +222,13 @@ class Solution:
         return math.sqrt(2.0) * self.voltage_open_end_v_rms
 
     @property
+    def span_m(self) -> float:
+        """The conductor from the stub's open top to the far end, m: the radiator, or with a stack
+        the radiator, the gap and the upper element (what the supports and ropes span)."""
+        k = self.stack
+        return self.dimensions.radiator + (0.0 if k is None else k.phasing_spacing_m + k.element_m)
+
+    @property
     def voltage_far_end_v_peak(self) -> float:
         return math.sqrt(2.0) * self.voltage_far_end_v_rms
 
@@ -977,8 +984,8 @@ def _cut_list(design: Design, d: Dimensions, wrap: float, ch, first: FirstCut,
                              sleeve.length_m + trim, 1, trim,
                              "slides over the feed coax at the tap; cut long, trim the open end to "
                              "resonance"))
-    site = site_layout(design.site.orientation, design.site.height_m, design.site.slope_rad, d.radiator,
-                       lam)
+    span = d.radiator if stack is None else d.radiator + stack.spacing + stack.element
+    site = site_layout(design.site.orientation, design.site.height_m, design.site.slope_rad, span, lam)
     for rope in site.ropes if site else ():
         items.append(CutItem(rope.what, "UV-resistant polyester rope", rope.length_m, 1, TIE_OFF_M,
                              rope.note + " (common practice)", coarse=True))

@@ -80,7 +80,7 @@ def summary_text(design: Design, s: Solution) -> str:
         add("  Why: the velocity factor of dielectric line and jacketed wire is only known to the spread "
             f"between its sources; start with {start}, then {then} as the tuning table says.")
     site = site_layout(design.site.orientation, design.site.height_m, design.site.slope_rad,
-                       s.dimensions.radiator, design.wavelength_m)
+                       s.span_m, design.wavelength_m)
     if site is not None:
         add("  Site: " + describe(site, lambda m: units.format_length(m, u, "coarse")))
     add("Hardware")

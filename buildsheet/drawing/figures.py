@@ -132,7 +132,7 @@ class _Context:
     def layout(self):
         site = self.design.site
         return site_layout(site.orientation, site.height_m, site.slope_rad,
-                           self.solution.dimensions.radiator, self.design.wavelength_m)
+                           self.solution.span_m, self.design.wavelength_m)
 
     def rounding_note(self) -> str:
         system = "feet and inches" if self.units == "imperial" else "metres and millimetres"
@@ -325,6 +325,28 @@ def _overview_hanging(ctx: _Context) -> tuple[Layout, float]:
     else:
         u = (-1.0, 0.0)
         far = (100.0, y_top)
+        if s.stack is not None:
+            # stacked: the radiator ends at the gap; the upper element runs on to the insulator and
+            # the phasing stub hangs from the gap
+            k, gap = s.stack, 8.0
+            x_gap = 206.0
+            x_el = x_gap - gap
+            sheet.add(BreakMark(x_el, y_top, far[0], far[1], at=0.5, width=CONDUCTOR))
+            sheet.add(Dimension(far[0], far[1], x_el, y_top, f"element {fmt(k.element_m)}", 22.0))
+            y_ph = y_top + 96.0
+            for x in (x_gap, x_el):
+                sheet.add(BreakMark(x, y_top, x, y_ph, at=0.5, size=3.5, width=CONDUCTOR))
+            sheet.add(Line(x_el, y_ph, x_gap, y_ph, width=2.4))
+            sheet.add(Rect(x_el + 1.0, y_top - 2.5, gap - 2.0, 5.0, width=0.6, fill=INSULATOR_GREY))
+            sheet.add(_vdim(x_gap, y_ph, y_top, f"phasing stub {fmt(k.phasing_m)}", 16.0))
+            sheet.callout(x_el, y_ph, ["phasing short"], angles=(200, 180, 225, 160))
+            # the gap's label below the radiator, right of the phasing stub's dimension, with a leader
+            x_t, y_t = x_gap + 34.0, y_top + 52.0
+            sheet.add(Line(x_t - 2.0, y_t - 8.0, x_el + gap / 2 + 2.0, y_top + 3.0, width=THIN))
+            sheet.add(Text(x_t, y_t, f"gap {units.format_length(k.phasing_spacing_m, ctx.units, 'size')}: "
+                           "insulator", LABEL))
+            sheet.add(Text(x_t, y_t + 9.0, "(high RF voltage)", LABEL))
+            gap_end = (x_gap, y_top)
         ins_end = _along(far, u, 16.0)
         support = (30.0, y_top - 30.0)
         rope_mid = ((ins_end[0] + support[0]) / 2, (ins_end[1] + support[1] + 4.0) / 2)
@@ -332,8 +354,9 @@ def _overview_hanging(ctx: _Context) -> tuple[Layout, float]:
         sheet.add(_pole(support[0], support[1], y_g))
         support_name = ["support"]
     sheet.add(_insulator(far, u))
-    sheet.add(BreakMark(far[0], far[1], x_j, y_top, at=0.5, width=CONDUCTOR))
-    sheet.add(Dimension(far[0], far[1], x_j, y_top, f"radiator {fmt(dims.radiator)}", 22.0))
+    rad_end = far if s.stack is None or sloper else gap_end
+    sheet.add(BreakMark(rad_end[0], rad_end[1], x_j, y_top, at=0.5, width=CONDUCTOR))
+    sheet.add(Dimension(rad_end[0], rad_end[1], x_j, y_top, f"radiator {fmt(dims.radiator)}", 22.0))
 
     # near support: rope from the other conductor's open top, up to the right-hand pole
     pole_r = WIDTH - 22.0
