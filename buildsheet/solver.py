@@ -794,9 +794,10 @@ def _unmatched(design: Design, exc: ValueError) -> DesignError:
     why = " ".join(str(exc).split())
     if design.stack is not None:
         return DesignError(f"the stacked version cannot be matched to {design.feed.impedance_ohm:g} ohm "
-                           "with this line: two elements halve the end impedance the stub must "
-                           "transform, which a line above about 350 ohm cannot reach; use a "
-                           f"lower-impedance line (closer spacing or thicker conductors) ({why})",
+                           "with this line: two elements about halve the end impedance the stub must "
+                           "transform, and a shorted line reaches 50 ohm only from an end impedance "
+                           "above about Z0^2/50 (lossless line theory); use a lower-impedance line "
+                           f"(closer spacing or thicker conductors) ({why})",
                            file=design.path, key="stub.line")
     return DesignError(f"cannot be matched to {design.feed.impedance_ohm:g} ohm with this line and wire "
                        f"(a very lossy or unusual line?): {why}", file=design.path, key="stub.line")
