@@ -88,10 +88,11 @@ def collect(out: str, n: int, start: int = 0):
     t0 = time.time()
     with Pool(2) as pool:
         rows = pool.map(collect_one, range(start, start + n))
-    data = dict(provenance=nec_study.provenance(script="bench/stack_study.py",
-                                                command=" ".join(sys.argv[1:]),
-                                                stack_cal=dataclasses.asdict(jpole.STACK_CAL),
-                                                seconds=round(time.time() - t0)), rows=rows)
+    prov = nec_study.provenance(command="python bench/stack_study.py " + " ".join(sys.argv[1:]),
+                                stack_cal=dataclasses.asdict(jpole.STACK_CAL),
+                                seconds=round(time.time() - t0))
+    prov["script"] = "bench/stack_study.py"
+    data = dict(provenance=prov, rows=rows)
     with gzip.open(out, "wt") if out.endswith(".gz") else open(out, "w") as fh:
         json.dump(data, fh)
     ok = sum("error" not in r for r in rows)

@@ -68,6 +68,7 @@ def _cautions(ctx: _Context, where: str) -> tuple:
     return render_blocks(
         "card-cautions.j2", top_height=ctx.length(ctx.top_height()), power=ctx.pep,
         v_open_pk=_volts(s.voltage_open_end_v_peak), v_far_pk=_volts(s.voltage_far_end_v_peak),
+        v_phasing_pk=_volts(s.stack.voltage_phasing_open_v_peak) if s.stack else "",
         low_point=ctx.length(low_point) if low_point is not None else "", low_point_what=low_what,
         where=where or "the full build sheet's safety section")
 

@@ -403,8 +403,8 @@ class _Context:
         return (KeyFigure("element", _e(self.length(k.element_m)),
                           "the upper element, as the radiator: end to end"),
                 KeyFigure("phasing stub", _e(self.length(k.phasing_m)),
-                          f"its open end (the {self.size(k.phasing_spacing_m)} gap between the radiator "
-                          "and the element) to the centre line of its short"))
+                          f"from the {self.size(k.phasing_spacing_m)} gap below the element to the "
+                          "centre line of its short"))
 
     def band_table(self) -> str:
         """Which table the band edges come from: a country's national table (catalog
@@ -481,7 +481,7 @@ class _Context:
     def top_height(self) -> float:
         site, dims = self.d.site, self.s.dimensions
         if site.orientation == "vertical":
-            return site.height_m + dims.stub + dims.radiator
+            return site.height_m + dims.stub + self.s.span_m
         return site.height_m
 
     # -- 4. cut list and hardware ------------------------------------------------------------
@@ -529,7 +529,7 @@ class _Context:
         stock size a shop sells (stock.py) rather than by the bare diameter."""
         r = self.d.radiator
         label = r.label.lower()
-        if (item.part == "radiator" and self.s.parts.rigid_radiator and "awg" not in label
+        if (item.part in ("radiator", "upper element") and self.s.parts.rigid_radiator and "awg" not in label
                 and not label.startswith("#") and r.insulation == "bare"):
             return conductor_name(r.diameter_m, self.u, r.material)
         return item.material

@@ -963,18 +963,18 @@ def _cut_list(design: Design, d: Dimensions, wrap: float, ch, first: FirstCut,
     if stack is not None:
         # the stacked version (jpole.Stack): the second element cut as the radiator, the phasing
         # stub of the stub's line with its own short bar; wire lines wrap at both conductors' tops
-        items[1:1] = [
-            CutItem("upper element", parts.radiator_name, stack.element + m_rad + 2 * wrap, 1,
-                    m_rad + 2 * wrap, "above the radiator, the same length; " +
-                    ("wrap allowance at each end included" if not rigid_radiator else
-                     "cutting allowance at each end included"), margin_m=m_rad),
-            CutItem("phasing stub", parts.line_name, stack.phasing + beyond_short + junction, 1,
-                    beyond_short + junction, "the stub's line; open end to the short, plus the "
-                    "length below its short" + (" and the wraps at the open end" if junction else "")),
-            CutItem("phasing short", "bare copper wire" if not rigid_stub else
-                    design.stub.conductor_material + " bar", stack.spacing + bar_ends, 1, bar_ends,
-                    "across the phasing stub at its short"),
-        ]
+        # (the element is cut as the radiator: one row of two pieces; the phasing stub's short bar
+        # beside the stub's: one row of two)
+        assert abs(stack.element - d.radiator) < 1e-9 * d.radiator
+        items[0] = dataclasses.replace(items[0], quantity=2,
+                                       note="the radiator and the upper element, the same length; "
+                                       + items[0].note)
+        items[2] = dataclasses.replace(items[2], quantity=2,
+                                       note="across the stub and the phasing stub at their shorts")
+        items.insert(2, CutItem("phasing stub", parts.line_name, stack.phasing + beyond_short + junction,
+                                1, beyond_short + junction, "the stub's line; open end to the short, "
+                                "plus the length below its short" +
+                                (" and the wraps at the open end" if junction else "")))
     if sleeve is None:
         items.append(CutItem("choke form", "pipe of the choke form's outside diameter", parts.choke_form_m,
                              1, CHOKE_FORM_EXTRA_M, "the feed coax is close-wound on it"))
@@ -1015,18 +1015,16 @@ def _cut_list(design: Design, d: Dimensions, wrap: float, ch, first: FirstCut,
         spreaders = int(math.ceil(d.stub / 0.30)) + 1
         hardware.append(HardwareItem("line spreaders", spreaders, "about every 30 cm along the stub"))
     if rigid_stub:
-        hardware.append(HardwareItem("pipe tees or elbows for the short", 2 if stack is None else 4,
-                                     "or a drilled bar and bolts" + ("" if stack is None else
-                                                                     "; two for the phasing stub"),
+        hardware.append(HardwareItem("pipe tees or elbows for the short" + ("" if stack is None else "s"),
+                                     2 if stack is None else 4, "or a drilled bar and bolts",
                                      fits_m=design.stub.conductor_diameter_m))
     if stack is not None:
+        vertical = design.site.orientation == "vertical"
         hardware.append(HardwareItem(
-            "gap insulator", 1, "insulating coupler holding the radiator's end and the second "
-            f"element's start {stack.spacing * 1e3:.0f} mm apart, in line; high RF voltage across it",
+            "gap insulator", 1,
+            f"elements {stack.spacing * 1e3:.0f} mm apart in line (high RF voltage)"
+            + ("; holds the phasing stub level" if vertical else ""),
             fits_m=design.radiator.diameter_m if rigid_radiator else None))
-        if design.site.orientation == "vertical":
-            hardware.append(HardwareItem("phasing stub support", 1, "insulating arm from the mast "
-                                         "holding the phasing stub out level, clear of the mast"))
         if design.stub.kind == "geometry" and not rigid_stub:
             hardware.append(HardwareItem("line spreaders for the phasing stub",
                                          int(math.ceil(stack.phasing / 0.30)) + 1,

@@ -420,16 +420,19 @@ def _overview_vertical(ctx: _Context) -> tuple[Layout, float]:
     wire = not s.parts.rigid_radiator
     y_end_top = 62.0 if wire else 40.0
     k = s.stack
+    # the spans drawn (break marks: not to scale): radiator, stub, short to ground; a stacked
+    # antenna draws them shorter so that the figure keeps about the single one's height
+    rad_span, stub_span, mast_span = (116.0, 150.0, 84.0) if k is None else (74.0, 128.0, 70.0)
     if k is not None:
         # stacked: the upper element on top, the gap and the phasing stub out to the left below it
         y_el_top, gap = y_end_top, 8.0
-        y_el_bot = y_el_top + 96.0
+        y_el_bot = y_el_top + 62.0
         y_end_top = y_el_bot + gap
     tap_text = f"tap {fmt(dims.tap)}"
-    a = StubAnchors.hanging(200.0, 212.0, top=y_end_top + 116.0, stub_span=150.0,
+    a = StubAnchors.hanging(200.0, 212.0, top=y_end_top + rad_span, stub_span=stub_span,
                             tap_span=_tap_span(tap_text), tail=22.0)
     x_j, x_o, x_mid, y_top, y_tap, y_short, y_end = a.x_j, a.x_o, a.mid, a.top, a.tap, a.short, a.end
-    y_g = y_end + 8.0 + 84.0
+    y_g = y_end + 8.0 + mast_span
     body_h = y_g + 26.0
     sheet = Layout(WIDTH, body_h)
     sheet.add(*_ground(PAD, WIDTH - PAD, y_g))
@@ -485,7 +488,7 @@ def _overview_vertical(ctx: _Context) -> tuple[Layout, float]:
                       [f"gap {units.format_length(k.phasing_spacing_m, ctx.units, 'size')}: insulator", "(high RF voltage)"],
                       angles=(0, 20, 340, 40))
         sheet.callout(x_p, (y_el_bot + y_end_top) / 2, ["phasing short"], angles=(200, 180, 225, 160))
-        sheet.callout(x_j, y_el_bot - 40.0, ["upper element"], angles=(200, 180, 160, 225))
+        sheet.callout(x_j, y_el_bot - 24.0, ["upper element"], angles=(200, 180, 160, 225))
     sheet.callout(x_o, y_top + 2.0, ["open top: this conductor", "ends here (RF voltage)"],
                   angles=(330, 345, 315, 30, 0))
     sheet.callout(x_j, y_top - 30.0, ["the radiator continues", "from this conductor"],
