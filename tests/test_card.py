@@ -95,7 +95,7 @@ def test_seven_design_card_handout_is_at_most_20_pages(tmp_path, capsys):
     # a club's antenna day (issue 18): the six demos and a design from the quick start
     folder = tmp_path / "designs"
     folder.mkdir()
-    for path in DEMOS:
+    for path in DEMOS[:6]:      # six demos (there may be more now) and the quick start's design
         shutil.copy(path, folder / path.name)
     assert main(["start", str(folder / "club-2m.yaml"), "--band", "2 m", "--line", "twinlead-300"]) == 0
     assert len(list(folder.glob("*.yaml"))) == 7
