@@ -732,6 +732,7 @@ class _Context:
         k = s.stack
         return dict(
             stack=k is not None, element=self.length(k.element_m) if k else "",
+            radiator_noun="the radiator" if k is None else "both elements",
             phasing=self.length(k.phasing_m) if k else "",
             gap=self.size(k.phasing_spacing_m) if k else "",
             stub_margin=self.length(fc.stub_margin_m), has_stub_margin=self.shown(fc.stub_margin_m),

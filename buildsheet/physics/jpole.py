@@ -1116,7 +1116,14 @@ def sensitivities(f0: float, ant: Antenna, radiator_length: float, stub_length: 
     k = 2 * z_feed / (z0 + z_feed) ** 2
     dz_df = (above.z_feed(L, S, T) - below.z_feed(L, S, T)) / (2 * df)
     dl = 1e-5 * L
-    dz_dl = (prep.z_feed(L + dl, S, T) - prep.z_feed(L - dl, S, T)) / (2 * dl)
+    if ant.stack is None:
+        dz_dl = (prep.z_feed(L + dl, S, T) - prep.z_feed(L - dl, S, T)) / (2 * dl)
+    else:
+        # stacked: the builder trims both elements alike (they are cut to the same length)
+        def z_l(Lx):
+            st = dataclasses.replace(ant.stack, element=ant.stack.element + (Lx - L))
+            return _Prepared(dataclasses.replace(ant, stack=st), float(f0), CAL).z_feed(Lx, S, T)
+        dz_dl = (z_l(L + dl) - z_l(L - dl)) / (2 * dl)
     dt = 1e-5 * S
     z_top = prep.z_top(L, S)
     dz_dt = (prep.z_feed(L, S, T + dt, z_top) - prep.z_feed(L, S, T - dt, z_top)) / (2 * dt)
