@@ -123,7 +123,11 @@ def row_rho(row, cal=None):
     return rho(zm), rho(zn)
 
 
-FIELDS = ("phasing_top", "radiator_end", "element_end", "mutual_r", "mutual_x")
+#: the model without correction: the phasing stub's open end as the J-pole's open top (CAL), no
+#: gap lengths, the induced-EMF mutual impedance and the common-mode arm as they are
+PHYSICAL = jpole.StackCalibration(phasing_top=jpole.CAL.open_top, radiator_end=0.0, element_end=0.0,
+                                  mutual_r=1.0, mutual_x=1.0, pc_x=1.0)
+FIELDS = ("phasing_top", "radiator_end", "element_end", "mutual_r", "mutual_x", "pc_x")
 
 
 def errors(cal, rows):
@@ -139,7 +143,7 @@ def fit(path: str):
     rows = load(path)
     train = [r for r in rows if r["seed"] % 2 == 0]
     held = [r for r in rows if r["seed"] % 2 == 1]
-    x0 = np.array([getattr(jpole.STACK_CAL, k) for k in FIELDS])
+    x0 = np.array([getattr(PHYSICAL, k) for k in FIELDS])
 
     def resid(x):
         cal = jpole.StackCalibration(*x)
@@ -152,12 +156,47 @@ def fit(path: str):
 
     sol = least_squares(resid, x0, x_scale=0.3, diff_step=1e-3)
     cal = jpole.StackCalibration(*(round(float(v), 4) for v in sol.x))
-    for name, c in (("start", jpole.STACK_CAL), ("fitted", cal)):
+    for name, c in (("physical model (start)", PHYSICAL), ("current jpole.STACK_CAL", jpole.STACK_CAL),
+                    ("fitted", cal)):
         et, eh = errors(c, train), errors(c, held)
         print(f"{name}: {c}\n  train rms|drho| median {np.median(et):.4f} 90% {np.percentile(et, 90):.4f}"
               f" (n={len(et)});  held-out median {np.median(eh):.4f} 90% {np.percentile(eh, 90):.4f}"
               f" (n={len(eh)})")
     return cal
+
+
+def report(path: str):
+    """NEC-2's SWR at f0 on a collected file (the designs at the model's dimensions of that time)."""
+    rows = load(path)
+    s = np.array([float(swr(complex(*r["z"][N_F // 2]), 50.0)) for r in rows])
+    print(f"{path}: {len(rows)} designs, NEC SWR at f0 median {np.median(s):.3f}, 90th percentile "
+          f"{np.percentile(s, 90):.3f}, max {s.max():.3f}; <= 1.2 on {np.sum(s <= 1.2)}")
+
+
+def accept(out: str):
+    """tests/test_stacked_nec.py's designs: NEC SWR at f0, 2:1 bands, gain over the single version;
+    stored with the constants and provenance."""
+    import test_stacked_nec as tsn
+    t0 = time.time()
+    rows = []
+    for case in tsn.CASES:
+        r = tsn.compare(case)
+        row = dict(case=case.name, L=r["L"], S=r["S"], T=r["T"], element=r["element"],
+                   phasing=r["phasing"], z_nec=[r["z_nec"].real, r["z_nec"].imag], swr_nec=r["swr"],
+                   band_nec=r["band_nec"], band_model=r["band_model"], overlap=r["overlap"],
+                   gain_over_single_model_db=r["gain_model"], gain_over_single_nec_db=r["gain_nec"],
+                   max_gain_model_dbi=r["max_gain_model"], max_gain_nec_dbi=r["max_gain_nec"])
+        rows.append(row)
+        bands = lambda b: "none" if b is None else f"{b[0] / 1e6:.3f}-{b[1] / 1e6:.3f}"
+        print(f"{case.name}: NEC SWR at f0 {r['swr']:.3f}; 2:1 NEC {bands(r['band_nec'])} model "
+              f"{bands(r['band_model'])} MHz (overlap {r['overlap']:.2f}); gain over single model "
+              f"{r['gain_model']:+.2f} NEC {r['gain_nec']:+.2f} dB")
+    prov = nec_study.provenance(command="python bench/stack_study.py " + " ".join(sys.argv[1:]),
+                                stack_cal=dataclasses.asdict(jpole.STACK_CAL),
+                                seconds=round(time.time() - t0))
+    prov["script"] = "bench/stack_study.py"
+    with open(out, "w") as fh:
+        json.dump(dict(provenance=prov, rows=rows), fh, indent=1)
 
 
 if __name__ == "__main__":
@@ -166,5 +205,9 @@ if __name__ == "__main__":
         collect(sys.argv[2], int(sys.argv[3]), int(sys.argv[4]) if len(sys.argv) > 4 else 0)
     elif cmd == "fit":
         fit(sys.argv[2])
+    elif cmd == "report":
+        report(sys.argv[2])
+    elif cmd == "accept":
+        accept(sys.argv[2])
     else:
         raise SystemExit(__doc__)

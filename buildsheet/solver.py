@@ -708,6 +708,18 @@ def check_stub_clearance(design: Design, stub: float) -> None:
                           "higher top")
 
 
+def check_phasing_clearance(design: Design, phasing: float) -> None:
+    """As check_stub_clearance, for a horizontal's phasing stub, which hangs from the radiator's far
+    end as the stub hangs from the open top. phasing: m."""
+    site = design.site
+    clearance = RULES["stub_clears_ground"].value
+    bottom = site.height_m - phasing
+    if site.orientation == "horizontal" and bottom < clearance:
+        raise design.fail("site.height", f"{metres(site.height_m)} leaves the phasing stub's short "
+                          f"{metres(bottom)} above ground (it is {metres(phasing)} long); raise the "
+                          f"antenna to at least {metres(phasing + clearance)}")
+
+
 def check_far_end_clearance(design: Design, radiator: float, solved: bool = True) -> None:
     """As check_stub_clearance, for the far end of a sloper's solved radiator (a radiator through its
     own image gives a negative radiation resistance). radiator: m; solved False: the half wave
@@ -762,6 +774,8 @@ def _match(design: Design, ant, clearance: bool = True) -> tuple:
         raise _unmatched(design, exc) from None
     if design.stack is not None:
         radiator, ant, at_f0 = _stacked(design, ant, radiator)
+        if clearance:
+            check_phasing_clearance(design, ant.stack.phasing)
     if clearance:
         check_far_end_clearance(design, radiator)
     try:
@@ -772,6 +786,16 @@ def _match(design: Design, ant, clearance: bool = True) -> tuple:
     if clearance:
         check_stub_clearance(design, stub)
     return radiator, stub, tap, at_f0
+
+
+def solved_antenna(design: Design):
+    """The model's antenna as solved: antenna_model, with its stack (the upper element and the
+    phasing stub as the solver cuts them) for the stacked version."""
+    ant = antenna_model(design)
+    if design.stack is None:
+        return ant
+    with _refusals(design):
+        return _match(design, ant, clearance=False)[3].ant
 
 
 def _stacked(design: Design, ant, single_radiator: float):
