@@ -436,6 +436,8 @@ class _Context:
     def radiator_end(self) -> str:
         """Where the radiator's length starts (DESIGN.md §5): the far end insulator's attachment
         point, or the free top of a vertical."""
+        if self.s.stack is not None:
+            return "end at the gap" if self.d.site.orientation == "vertical" else "far end at the gap"
         if self.d.site.orientation == "vertical":
             return "free top end"
         return "far end insulator's attachment point"

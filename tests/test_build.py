@@ -101,7 +101,7 @@ def test_sheet_text_carries_the_numbers_of_the_solution(outdir, design):
     df = units.parse_quantity(re.search(r"lowest SWR (\S+ \S?Hz) below", text).group(1), "frequency")
     move = units.format_length(abs(df / s.sensitivity["dip_hz_per_m_radiator"]), u)
     verb = "shorten" if s.sensitivity["dip_hz_per_m_radiator"] < 0 else "lengthen"
-    assert f"{verb} the radiator by {move}" in text
+    assert f"{verb} {'the radiator' if s.stack is None else 'both elements'} by {move}" in text
     dr = float(re.search(r"R (\d+) Ω above", text).group(1))
     tap = units.format_length(dr / abs(s.sensitivity["ohm_per_m_tap"]), u)
     way = "down" if s.sensitivity["ohm_per_m_tap"] > 0 else "up"

@@ -121,7 +121,7 @@ def svg_texts(drawing) -> list[str]:
 #: lengths not cut to the tape: coax and rope to the inch or cm, diameters and spacings finer
 #: (units.format_length's steps; issue 18)
 COARSE = ("coax", "rope", "span", "far end height", "far end out", "anchor", "anchor rope")
-SIZE = ("spacing", "wire")
+SIZE = ("spacing", "wire", "gap")
 
 
 STOCK_NAMES = sorted((s.name for s in catalog().stock), key=len, reverse=True)
@@ -146,8 +146,11 @@ def expected_lengths(design, solution) -> dict[str, dict[str, float]]:
         radiator["wire"] = design.radiator.diameter_m      # a rod of a stock size is named only
     overview = {"radiator": d.radiator, "stub": d.stub, "tap": d.tap,
                 "height": design.site.height_m, "coax": design.feed.length_m}
-    site = site_layout(design.site.orientation, design.site.height_m, design.site.slope_rad, d.radiator,
-                       design.wavelength_m)
+    if solution.stack is not None:      # the stacked version: the upper element, phasing stub, gap
+        k = solution.stack
+        overview.update({"element": k.element_m, "phasing stub": k.phasing_m, "gap": k.phasing_spacing_m})
+    site = site_layout(design.site.orientation, design.site.height_m, design.site.slope_rad,
+                       solution.span_m, design.wavelength_m)
     if site is not None and site.orientation == "horizontal":
         overview.update({"rope": site.standoff_m, "span": site.span_m})
     elif site is not None:

@@ -70,7 +70,7 @@ def _max_gain(pat) -> float:
     return float(np.max(pat.gain_dbi))
 
 
-def compare(case, n_nec: int = 33) -> dict:
+def compare(case, n_nec: int = 25) -> dict:
     """Model dimensions -> NEC SWR at f0, both 2:1 bands, and the gain over the single version."""
     ant, L, S, T = model_stacked(case)
     span = 0.06
@@ -88,13 +88,13 @@ def compare(case, n_nec: int = 33) -> dict:
         eff = jpole.state_at(case.f0, a, dl, ds, dt, 1.0).efficiency
         g_mod[name] = radiation.radiation(jpole.at_frequency(case.f0, a), dl, ds, eff).max_gain_dbi
     step = 1.0 if case.ground["ground_kind"] == "free-space" else 0.5
-    g_nec_stacked = _max_gain(necref.stacked_pattern(dims, nec_stack(ant), case.f0, step, 5.0))
+    g_nec_stacked = _max_gain(necref.stacked_pattern(dims, nec_stack(ant), case.f0, step, 10.0))
     d1 = case.nec_dims(L1, S1, T1)
     wires = necref.jpole_wires(d1, case.f0)
     sigma = {necref.TAG_RADIATOR: d1.wire_sigma, **{t: d1.stub_sigma for t in range(2, 8)}}
     bar = wires[necref.TAG_TAP - 1]
     g_nec_single = _max_gain(necref.pattern(wires, case.f0, d1.ground, (necref.TAG_TAP, (bar.nseg + 1) // 2),
-                                            sigma, step, 5.0))
+                                            sigma, step, 10.0))
     return dict(L=L, S=S, T=T, element=ant.stack.element, phasing=ant.stack.phasing,
                 z_nec=complex(nec.z_feed[0]), swr=float(swr_nec[0]), band_nec=b_nec, band_model=b_mod,
                 overlap=acc.overlap(b_nec, b_mod),

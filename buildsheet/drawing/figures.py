@@ -422,11 +422,11 @@ def _overview_vertical(ctx: _Context) -> tuple[Layout, float]:
     k = s.stack
     # the spans drawn (break marks: not to scale): radiator, stub, short to ground; a stacked
     # antenna draws them shorter so that the figure keeps about the single one's height
-    rad_span, stub_span, mast_span = (116.0, 150.0, 84.0) if k is None else (74.0, 128.0, 70.0)
+    rad_span, stub_span, mast_span = (116.0, 150.0, 84.0) if k is None else (74.0, 122.0, 64.0)
     if k is not None:
         # stacked: the upper element on top, the gap and the phasing stub out to the left below it
         y_el_top, gap = y_end_top, 8.0
-        y_el_bot = y_el_top + 62.0
+        y_el_bot = y_el_top + 74.0
         y_end_top = y_el_bot + gap
     tap_text = f"tap {fmt(dims.tap)}"
     a = StubAnchors.hanging(200.0, 212.0, top=y_end_top + rad_span, stub_span=stub_span,
@@ -539,15 +539,18 @@ def _radiator(ctx: _Context) -> Drawing:
     sheet.add(BreakMark(x_a, y1, x_b, y1, at=0.5, width=CONDUCTOR))
     if vertical and rigid:
         sheet.add(Line(x_a, y1 - 4.0, x_a, y1 + 4.0, width=CONDUCTOR))
-        sheet.callout(x_a, y1, ["top end, free"], angles=(225, 200, 250))
+        sheet.callout(x_a, y1, ["top end, free"] if s.stack is None else
+                      ["top end: the gap insulator,", "the phasing stub and the", "upper element (the same cut)"],
+                      angles=(225, 200, 250))
     else:
         sheet.add(Rect(x_a - 34.0, y1 - 5.0, 32.0, 10.0, width=0.75, fill=INSULATOR_GREY))
         sheet.add(Circle(x_a - 5.0, y1, 2.6, width=0.6, fill=1.0))
         sheet.add(Circle(x_a, y1, 1.8, width=0, fill=0.0))
         if not rigid:
             sheet.add(_wrap_mark(x_a + 2.0, y1, int(30.0 / WRAP_PITCH), "x", end=30.0))
-        sheet.callout(x_a - 18.0, y1 + 5.0, ["top end insulator" if vertical else "end insulator"],
-                      angles=(250, 270, 225, 290))
+        end_name = ("top end insulator" if vertical else "end insulator") if s.stack is None else \
+            "gap insulator (the phasing stub and the upper element beyond)"
+        sheet.callout(x_a - 18.0, y1 + 5.0, [end_name], angles=(250, 270, 225, 290))
         sheet.callout(x_a, y1 - 2.0, ["attachment point"], angles=(110, 135, 90), radii=(30, 40, 52))
     # the stub's two conductors at its open top
     x_other = x_b + 18.0
@@ -1013,8 +1016,13 @@ def _pattern(ctx: _Context) -> Drawing:
     where = "in free space" if free else "over the site's ground (direct and ground-reflected wave)"
     notes = [f"Gain relative to the power delivered to the tap: the antenna's losses"
              f"{'' if free else ' and the ground loss'} taken off. Computed {where} from the model's "
-             f"currents on the radiator and the stub at {units.format_frequency(ctx.solution.frequency_hz)}; "
-             f"rings 10 dB apart. Azimuth 0\u00b0: {zero}."]
+             f"currents on the radiator and the stub"
+             f"{'' if ctx.solution.stack is None else ', the upper element and the phasing stub'} at "
+             f"{units.format_frequency(ctx.solution.frequency_hz)}; rings 10 dB apart. Azimuth 0\u00b0: {zero}."]
+    k = ctx.solution.stack
+    if k is not None:
+        notes.append(f"Stacked: maximum gain {r.max_gain_dbi:.1f} dBi, {k.gain_over_single_db:+.1f} dB over "
+                     f"the single half-wave of the same design ({k.single_max_gain_dbi:.1f} dBi).")
     return _with_strip(ctx, plot, "Radiation pattern", notes)
 
 
