@@ -367,6 +367,9 @@ def fit_sweep(design: Design, sweep: Sweep, built: Dimensions | None = None) -> 
     """Fit the model to `sweep`, measured at the tap of the antenna `built` (default: as_built(design),
     the latest as-built entry or the design's dimensions), and work out the moves and the
     calibration (module docstring). SweepError if the sweep cannot be fitted."""
+    if design.stack is not None:
+        raise design.fail("stack", "`fit` does not model the stacked version yet; tune it by the "
+                          "sheet's table (short and tap, both elements alike)")
     f0, z_ref = design.frequency_hz, design.feed.impedance_ohm
     f = sweep.frequency_hz
     check_coverage(sweep, z_ref)

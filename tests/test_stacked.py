@@ -57,3 +57,11 @@ def test_a_high_impedance_line_is_refused_with_the_reason(tmp_path):
     with pytest.raises(DesignError) as exc:
         solve(load_design(str(path)))
     assert exc.value.key == "stub.line" and "Z0^2/50" in str(exc.value)
+
+
+def test_fit_refuses_a_stacked_design_in_one_line(capsys):
+    """`fit` models the single version only: a stacked design is refused, naming `stack`."""
+    sweep = ROOT / "designs" / "oak-yard-20m-sweep.s1p"
+    assert main(["fit", str(DEMO), str(sweep)]) == 2
+    err = capsys.readouterr().err.strip().splitlines()
+    assert len(err) == 1 and "`stack`" in err[0]
