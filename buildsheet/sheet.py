@@ -737,6 +737,7 @@ class _Context:
         return dict(
             stack=k is not None, element=self.length(k.element_m) if k else "",
             radiator_noun="the radiator" if k is None else "both elements",
+            radiator_is="the radiator is" if k is None else "the elements are",
             phasing=self.length(k.phasing_m) if k else "",
             gap=self.size(k.phasing_spacing_m) if k else "",
             stub_margin=self.length(fc.stub_margin_m), has_stub_margin=self.shown(fc.stub_margin_m),
