@@ -24,7 +24,7 @@ from buildsheet.design import design_from_text, load_design
 from buildsheet.physics import jpole
 from buildsheet.sheet import (Facts, Figures, Heading, KeyFigures, Para, Steps, Table, WriteIn, build_sheet,
                               render_blocks)
-from buildsheet.solver import antenna_model, solve, solved_antenna
+from buildsheet.solver import solve, solved_antenna
 
 ROOT = pathlib.Path(__file__).resolve().parent.parent
 DEMOS = sorted((ROOT / "designs").glob("*.yaml"))
