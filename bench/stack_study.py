@@ -99,6 +99,41 @@ def collect(out: str, n: int, start: int = 0):
     print(f"{ok}/{n} designs collected in {time.time() - t0:.0f} s -> {out}")
 
 
+def perturb_one(row):
+    """The training row's design with both elements 1 % longer and 1 % shorter (S, T kept), meshed
+    like the row's own dimensions: what the dip's rate per element trim depends on."""
+    case = nec_study.case_from_dict(row["case"])
+    st0 = necref.StackDims(row["element"], row["phasing"], case.spacing, case.stub_d, case.stub_sigma)
+    d0 = case.nec_dims(row["L"], row["S"], row["T"])
+    out = []
+    for k in (1.01, 0.99):
+        dl = (k - 1) * row["L"]
+        new = dict(row, L=row["L"] + dl, element=row["element"] + dl, perturbed=k)
+        try:
+            z = necref.stacked_model(case.nec_dims(new["L"], row["S"], row["T"]),
+                                     dataclasses.replace(st0, element=new["element"]), row["f"],
+                                     f_mesh=max(row["f"]), like=(d0, st0)).z_feed
+            new["z"] = [[float(v.real), float(v.imag)] for v in z]
+            out.append(new)
+        except (ValueError, RuntimeError) as exc:
+            out.append(dict(new, error=f"{type(exc).__name__}: {exc}"))
+    return out
+
+
+def perturb(src: str, out: str):
+    """perturb_one on the training (even-seed) rows of src, stored as a data file of its own."""
+    t0 = time.time()
+    rows = [r for r in load(src) if r["seed"] % 2 == 0]
+    with Pool(2) as pool:
+        new = [r for rs in pool.map(perturb_one, rows) for r in rs]
+    prov = nec_study.provenance(command="python bench/stack_study.py " + " ".join(sys.argv[1:]),
+                                seconds=round(time.time() - t0), source=src)
+    prov["script"] = "bench/stack_study.py"
+    with gzip.open(out, "wt") as fh:
+        json.dump(dict(provenance=prov, rows=new), fh)
+    print(f"{sum('error' not in r for r in new)}/{len(new)} perturbed rows in {time.time() - t0:.0f} s -> {out}")
+
+
 def load(path: str) -> list:
     with gzip.open(path, "rt") if path.endswith(".gz") else open(path) as fh:
         return [r for r in json.load(fh)["rows"] if "error" not in r]
@@ -138,9 +173,9 @@ def errors(cal, rows):
     return np.array(out)
 
 
-def fit(path: str):
+def fit(*paths: str):
     from scipy.optimize import least_squares
-    rows = load(path)
+    rows = [r for path in paths for r in load(path)]
     train = [r for r in rows if r["seed"] % 2 == 0]
     held = [r for r in rows if r["seed"] % 2 == 1]
     x0 = np.array([getattr(PHYSICAL, k) for k in FIELDS])
@@ -204,7 +239,9 @@ if __name__ == "__main__":
     if cmd == "collect":
         collect(sys.argv[2], int(sys.argv[3]), int(sys.argv[4]) if len(sys.argv) > 4 else 0)
     elif cmd == "fit":
-        fit(sys.argv[2])
+        fit(*sys.argv[2:])
+    elif cmd == "perturb":
+        perturb(sys.argv[2], sys.argv[3])
     elif cmd == "report":
         report(sys.argv[2])
     elif cmd == "accept":

@@ -145,6 +145,63 @@ def test_phasing_short_current_is_within_what_the_sheet_says(case):
     assert 1.0 <= nec / model <= 1.3, f"{case.name}: NEC {nec:.4g} A, model {model:.4g} A"
 
 
+def _nec_z(case, ant, L, S, T, d_el, f, like):
+    """NEC-2 feed impedance with both elements d_el (m) longer, meshed like `like`."""
+    st = dataclasses.replace(nec_stack(ant), element=ant.stack.element + d_el)
+    return necref.stacked_model(case.nec_dims(L + d_el, S, T), st, f, f_mesh=1.05 * case.f0,
+                                like=like).z_feed
+
+
+def _nec_dip(case, ant, L, S, T, d_el, like):
+    """NEC-2's SWR dip (Hz), as tests/test_jpole_nec._nec_dip: |rho|^2 on 9 frequencies over f0
+    +/- 0.6 %, the vertex of the parabola through the least and its neighbours."""
+    f = case.f0 + 0.012 * case.f0 * np.linspace(-0.5, 0.5, 9)
+    z = _nec_z(case, ant, L, S, T, d_el, f, like)
+    rho2 = np.abs((z - 50) / (z + 50)) ** 2
+    i = int(np.clip(np.argmin(rho2), 1, len(f) - 2))
+    a, b, c = rho2[i - 1:i + 2]
+    return f[i] + 0.5 * (a - c) / (a - 2 * b + c) * (f[1] - f[0])
+
+
+@pytest.fixture(scope="module")
+def rates():
+    """Model rates (jpole.sensitivities, both elements moved together) and NEC-2 central
+    differences: the dip per metre of both elements (moves of 1 %), R per tap move and X per short
+    move (5 % of the tap distance, tap clamps in place)."""
+    out = {}
+    for case in CASES:
+        ant, L, S, T = model_stacked(case)
+        like = (case.nec_dims(L, S, T), nec_stack(ant))
+        sens = jpole.sensitivities(case.f0, ant, L, S, T)
+        dl, h = 0.01 * L, 0.05 * T
+        dip = (_nec_dip(case, ant, L, S, T, dl, like) - _nec_dip(case, ant, L, S, T, -dl, like)) / (2 * dl)
+        z = lambda S_, T_: _nec_z(case, ant, L, S_, T_, 0.0, [case.f0], like)[0]
+        out[case.name] = dict(
+            dip_elements=(sens.dip_hz_per_m_radiator, dip),
+            r_tap=(sens.ohm_per_m_tap, (z(S, T + h).real - z(S, T - h).real) / (2 * h)),
+            x_short=(sens.ohm_per_m_short, (z(S - h, T - h).imag - z(S + h, T + h).imag) / (2 * h)))
+    return out
+
+
+@pytest.mark.parametrize("case", CASES, ids=[c.name for c in CASES])
+@pytest.mark.parametrize("rate", ["r_tap", "x_short"])
+def test_tap_and_short_rates_match_nec(case, rate, rates):
+    """The tuning table's tap and short rates within 15 % of NEC-2's (as for the single version,
+    tests/test_jpole_nec.py; measured within 7 %)."""
+    model, nec = rates[case.name][rate]
+    assert model == pytest.approx(nec, rel=0.15), f"{case.name} {rate}: model {model:.4g}, NEC {nec:.4g}"
+
+
+@pytest.mark.parametrize("case", CASES, ids=[c.name for c in CASES])
+def test_element_trim_rate_is_as_the_sheet_says(case, rates):
+    """The element trim's dip rate is NOT within 15 % of NEC-2's: NEC-2 moves the dip 1.26-1.73
+    times as far per trim as the model (measured), and the sheet's tuning procedure says so ("1.3
+    to 1.7 times", trim half the move first). This checks that statement: the ratio lies in
+    1.2-1.8 and has the model's sign."""
+    model, nec = rates[case.name]["dip_elements"]
+    assert 1.2 <= nec / model <= 1.8, f"{case.name}: model {model:.4g}, NEC {nec:.4g} Hz/m"
+
+
 REAL_GROUND = [c for c in CASES if c.ground["ground_kind"] == "real"]
 
 
