@@ -15,7 +15,7 @@ from buildsheet import units
 from buildsheet.design import Design
 from buildsheet.layout import describe
 from buildsheet.sheet import (Facts, Figures, KeyFigures, Para, Section, Sheet, Table, _Context,
-                              _e, _volts, build_sheet, render_blocks)
+                              KIND, _e, _volts, build_sheet, render_blocks)
 from buildsheet.solver import Solution
 
 SUBTITLE = "Yard card: end-fed half-wave antenna matched by a shorted quarter-wave stub"
@@ -38,7 +38,8 @@ def build_card(design: Design, solution: Solution, date: str, *, safety_where: s
         Section("cautions", "The two cautions that matter most", _cautions(ctx, safety_where)),
     )
     return dataclasses.replace(
-        full, subtitle=SUBTITLE, sections=sections,
+        full, subtitle=SUBTITLE if solution.stack is None else "Yard card: " + KIND[True],
+        sections=sections,
         subject=f"Yard card of {design.name}, document {solution.design_id}, revised {date}")
 
 
@@ -69,6 +70,7 @@ def _cautions(ctx: _Context, where: str) -> tuple:
     return render_blocks(
         "card-cautions.j2", top_height=ctx.length(ctx.top_height()), power=ctx.pep,
         v_open_pk=_volts(s.voltage_open_end_v_peak), v_far_pk=_volts(s.voltage_far_end_v_peak),
+        v_phasing_pk=_volts(s.stack.voltage_phasing_open_v_peak) if s.stack else "",
         low_point=ctx.length(low_point) if low_point is not None else "", low_point_what=low_what,
         where=where or "the full build sheet's safety section")
 

@@ -175,6 +175,12 @@ def latest_as_built(record: tuple) -> RecordEntry | None:
 
 
 @dataclass(frozen=True)
+class Stack:
+    """The stacked version: phasing 'stub' (a shorted quarter wave of the stub's line)."""
+    phasing: str = "stub"
+
+
+@dataclass(frozen=True)
 class Design:
     schema: int
     name: str
@@ -200,6 +206,8 @@ class Design:
     #: `construction`: wire, tube, twin-lead or hung; None where the file does not say (pipe or rod
     #: parts are then inferred from the conductors' diameters, as before the key existed)
     construction: str | None = None
+    #: the stacked version (`stack:`), or None: a single half-wave
+    stack: "Stack | None" = None
 
     @property
     def hung(self) -> bool:
@@ -219,6 +227,8 @@ class Design:
             data.pop(key)
         if data["construction"] is None:   # an older file without the key keeps its ID
             data.pop("construction")
+        if data["stack"] is None:   # a single half-wave: the document IDs of before `stack:`
+            data.pop("stack")
         data["stub"].pop("source")  # where the catalogue's numbers come from is not the antenna
         for part in ("stub", "radiator"):  # nor the range the sources give for a velocity factor
             data[part].pop("velocity_factor_spread")
@@ -478,11 +488,28 @@ class _Validator:
                         stub=self.stub_line(), feed=self.feed(), site=self.site(), power=self.power(),
                         output=Output(units=self.value("output.units"), paper=self.value("output.paper")),
                         calibration=self.calibration(), record=self.record(), path=self.path,
-                        country=country, construction=self.construction(),
+                        country=country, construction=self.construction(), stack=self.stack(),
                         lines={key: self.doc.line_of(self._path(key)) for key in schema.KEYS
                                if ".N." not in key and self.has(key)})
         self.cross_checks(design)
         return design
+
+    def stack(self) -> "Stack | None":
+        """The `stack` key: the stacked version, or None."""
+        if not self.has("stack"):
+            return None
+        phasing = self.value("stack.phasing")
+        if phasing == "coil":
+            raise self.fail("stack.phasing", "`coil` is not modelled and proven yet; use `stub` "
+                            "(a shorted quarter wave of the stub's line)")
+        orientation = self.get("site.orientation")
+        if orientation in ("sloper", "inverted"):
+            raise self.fail("stack", f"a stacked {orientation} is not modelled and proven; stack a "
+                            "horizontal or a vertical")
+        if self.has("construction") and self.get("construction") != "wire":
+            raise self.fail("stack", f"the stacked version is modelled and proven as wire on a two-wire "
+                            f"line (`construction: wire`), not `{self.get('construction')}`")
+        return Stack(phasing=phasing)
 
     def country(self, region: int) -> str | None:
         """The `country` key: a code with national band edges in the catalogue (catalog.countries),

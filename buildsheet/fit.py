@@ -374,6 +374,9 @@ def fit_sweep(design: Design, sweep: Sweep, built: Dimensions | None = None, at:
     calibration (module docstring). at="station": the sweep was taken at the station end of the feed
     coax and is first carried back to the tap through it (station.py). SweepError if the sweep cannot
     be fitted."""
+    if design.stack is not None:
+        raise design.fail("stack", "`fit` does not model the stacked version yet; tune it by the "
+                          "sheet's table (short and tap, both elements alike)")
     f0, z_ref = design.frequency_hz, design.feed.impedance_ohm
     coax_note = None
     if at == "station":

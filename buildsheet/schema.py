@@ -296,6 +296,13 @@ TABLE: tuple = (
         readme=lambda v: f"{v:.5f}".rstrip("0").rstrip(".") + " S/m", forms=("custom",),
         required_in=("custom",), why="from rock to sea water"),
 
+    Key("stack", "mapping", ABSENT, "(none: a single half-wave)", unknown="is not a key of `stack`",
+        meaning="a second half-wave stacked beyond the radiator's far end, fed in phase through a "
+                "phasing section (the collinear version); horizontal or vertical"),
+    Key("stack.phasing", "choice", "stub", choices=("stub", "coil"),
+        meaning="`stub`: a shorted quarter wave of the stub's line; `coil` is refused for now "
+                "(not yet modelled and proven)"),
+
     Key("power", "mapping", unknown="is not a key of a design file"),
     Key("power.transmitter", "power", "100 W", lo=0.1, hi=10_000.0, show=_g("W"), readme=_power,
         why="low-power to the largest amateur licences", meaning="PEP at the transmitter"),

@@ -295,6 +295,15 @@ def _direction(move_m: float) -> str:
 # ----------------------------------------------------------------------------------------------
 # The sheet
 
+#: how far the stacked version's phasing-stub figures may be low (tests/test_stacked_nec.py checks it)
+PHASING_NOTE = ("the model's figure: NEC-2 puts the phasing stub's current up to 30 % higher on the "
+                "designs checked; allow for that")
+
+#: what the antenna is, for the subtitles: single (False) and stacked (True)
+KIND = {False: "end-fed half-wave antenna matched by a shorted quarter-wave stub",
+        True: "two stacked half-waves fed in phase, matched by a quarter-wave stub"}
+
+
 def build_sheet(design: Design, solution: Solution, date: str) -> Sheet:
     """The build sheet of `design` solved as `solution`, dated `date` (YYYY-MM-DD, the revision date).
     Design strings are printable in Vera: design.py refuses any character the font lacks."""
@@ -313,10 +322,12 @@ def build_sheet(design: Design, solution: Solution, date: str) -> Sheet:
     return Sheet(
         title=design.title, name=design.name, document_id=solution.design_id, date=date,
         paper=design.output.paper, units=design.output.units,
-        subtitle="Build sheet: end-fed half-wave antenna matched by a shorted quarter-wave stub",
+        subtitle="Build sheet: " + KIND[solution.stack is not None],
         furniture=(design.name, f"document {solution.design_id}", f"revised {date}"),
         page_label="page {page} of {pages}",
-        footer="Caution: high RF voltage at the stub's open end and the radiator's far end. Never touch "
+        footer="Caution: high RF voltage at the stub's open end" + (
+            " and the radiator's far end" if solution.stack is None else
+            ", the phasing stub's open end and the elements' far ends") + ". Never touch "
                "the antenna while transmitting; keep it clear of power lines. See the safety cautions.",
         subject=f"Build sheet of {design.name}, document {solution.design_id}, revised {date}",
         sections=sections,
@@ -393,6 +404,7 @@ class _Context:
                           "centre line of the short to the tap, measured along the stub"),
                 KeyFigure("spacing", _e(self.size(dims.spacing)),
                           "centre to centre of the stub conductors"),
+                *self.stack_figures(),
             )),
             Para(_e(f"Dimensions as built, {rounding}; the pieces are cut longer (see the cut list)."
                     + self.margin_summary()), "note"),
@@ -402,6 +414,17 @@ class _Context:
                        + "; ".join(dict.fromkeys(f.part for f in s.findings)) + "."), "caution"),)
               if s.findings else ()),
         )
+
+    def stack_figures(self) -> tuple:
+        """The stacked version's key dimensions: the upper element and the phasing stub."""
+        k = self.s.stack
+        if k is None:
+            return ()
+        return (KeyFigure("element", _e(self.length(k.element_m)),
+                          "the upper element, as the radiator: end to end"),
+                KeyFigure("phasing stub", _e(self.length(k.phasing_m)),
+                          f"from the {self.size(k.phasing_spacing_m)} gap below the element to the "
+                          "centre line of its short"))
 
     def band_table(self) -> str:
         """Which table the band edges come from: a country's national table (catalog
@@ -433,6 +456,8 @@ class _Context:
     def radiator_end(self) -> str:
         """Where the radiator's length starts (DESIGN.md §5): the far end insulator's attachment
         point, or the free top of a vertical."""
+        if self.s.stack is not None:
+            return "end at the gap" if self.d.site.orientation == "vertical" else "far end at the gap"
         if self.d.site.orientation == "vertical":
             return "top insulator's attachment point" if self.d.hung else "free top end"
         return "far end insulator's attachment point"
@@ -490,13 +515,13 @@ class _Context:
     def layout(self):
         """The site layout of a horizontal or sloper (layout.site_layout), None for a vertical."""
         site = self.d.site
-        return site_layout(site.orientation, site.height_m, site.slope_rad, self.s.dimensions.radiator,
+        return site_layout(site.orientation, site.height_m, site.slope_rad, self.s.span_m,
                            self.d.wavelength_m, self.s.dimensions.stub, self.d.hung)
 
     def top_height(self) -> float:
         site, dims = self.d.site, self.s.dimensions
         if site.orientation == "vertical":
-            return site.height_m + dims.stub + dims.radiator
+            return site.height_m + dims.stub + self.s.span_m
         return site.height_m
 
     # -- 4. cut list and hardware ------------------------------------------------------------
@@ -546,7 +571,7 @@ class _Context:
         label = r.label.lower()
         if self.s.parts.construction == "tube" and item.material == f"{r.material} {self.s.parts.rigid_kind}":
             return conductor_name(r.diameter_m, self.u, r.material)
-        if (item.part == "radiator" and self.s.parts.rigid_radiator and "awg" not in label
+        if (item.part in ("radiator", "upper element") and self.s.parts.rigid_radiator and "awg" not in label
                 and not label.startswith("#") and r.insulation == "bare"):
             return conductor_name(r.diameter_m, self.u, r.material)
         return item.material
@@ -590,6 +615,13 @@ class _Context:
                 ("radiator's far end", _e(f"{_volts(s.voltage_far_end_v_rms)} rms, "
                                           f"{_volts(s.voltage_far_end_v_peak)} peak")),
                 ("current in the short", _e(f"{_amps(s.current_short_a_rms)} rms")),
+                *((("phasing stub's open end", _e(f"{_volts(s.stack.voltage_phasing_open_v_rms)} rms, "
+                                                  f"{_volts(s.stack.voltage_phasing_open_v_peak)} peak, "
+                                                  f"across the gap ({PHASING_NOTE})")),
+                   ("element's far end", _e(f"{_volts(s.stack.voltage_element_end_v_rms)} rms")),
+                   ("current in the phasing short",
+                    _e(f"{_amps(s.stack.current_phasing_short_a_rms)} rms")))
+                  if s.stack is not None else ()),
             )),
             *self.findings_at("voltages", "current", "reach"),
             Heading("Efficiency"),
@@ -690,6 +722,11 @@ class _Context:
                                     f"the antenna's{'' if free else ' and the ground'} losses included)")),
                 ("elevation of the maximum" if free else "take-off angle",
                  _e(f"{r.takeoff_deg:.0f}° above the horizon, toward azimuth {r.azimuth_deg:.0f}°")),
+                *((("over the single half-wave",
+                    _e(f"{k.gain_over_single_db:+.1f} dB: the same design without the upper element "
+                       f"gives {k.single_max_gain_dbi:.1f} dBi and a 2:1 band of "
+                       f"{_band(k.single_band_swr2_hz)}")),)
+                  if (k := self.s.stack) is not None else ()),
             )),
         )
 
@@ -732,7 +769,13 @@ class _Context:
         tolerance = dip_tolerance_hz(s)
         rigid = s.parts.rigid_radiator
         fc = s.first_cut
+        k = s.stack
         return dict(
+            stack=k is not None, element=self.length(k.element_m) if k else "",
+            radiator_noun="the radiator" if k is None else "both elements",
+            radiator_is="the radiator is" if k is None else "the elements are",
+            phasing=self.length(k.phasing_m) if k else "",
+            gap=self.size(k.phasing_spacing_m) if k else "",
             stub_margin=self.length(fc.stub_margin_m), has_stub_margin=self.shown(fc.stub_margin_m),
             radiator_margin=self.length(fc.radiator_margin_m),
             has_radiator_margin=self.shown(fc.radiator_margin_m),
@@ -772,9 +815,10 @@ class _Context:
             sleeve=s.sleeve is not None,
             style=s.parts.construction, radiator_as_cut=self.length(s.radiator_cut_m),
             shorten_radiator=("trim the long element's top" if s.parts.construction == "tube"
-                              else "shorten the radiator"),
+                              else "shorten the radiator" if k is None else "shorten both elements"),
             lengthen_radiator=("lengthen the long element's top (a sliding sleeve)"
-                               if s.parts.construction == "tube" else "lengthen the radiator"),
+                               if s.parts.construction == "tube" else
+                               "lengthen the radiator" if k is None else "lengthen both elements"),
             open_top="gap" if s.parts.construction == "twin-lead" else "open top",
             trim=self.length(s.radiator_cut_m - dims.radiator - fc.radiator_margin_m),
             trim_df=_span(abs((s.radiator_cut_m - dims.radiator) * sens["dip_hz_per_m_radiator"])),
@@ -932,6 +976,11 @@ class _Context:
             v_far_rms=_volts(s.voltage_far_end_v_rms),
             v_far_pk=_volts(s.voltage_far_end_v_peak),
             i_short=_amps(s.current_short_a_rms),
+            stack=s.stack is not None,
+            v_phasing_rms=_volts(s.stack.voltage_phasing_open_v_rms) if s.stack else "",
+            phasing_note=PHASING_NOTE,
+            v_phasing_pk=_volts(s.stack.voltage_phasing_open_v_peak) if s.stack else "",
+            v_element_rms=_volts(s.stack.voltage_element_end_v_rms) if s.stack else "",
             low_point=self.length(low_point) if low_point is not None else "", low_point_what=low_what,
             # within 3 m of the ground: a standing person's reach (2.5 m, ratings.py) and a little more
             low_point_near=low_point is not None and low_point < 3.0,

@@ -230,10 +230,19 @@ class Solution:
     #: physics.choke.SleeveChoke: the quarter-wave sleeve built instead of the coil above HF, or None
     sleeve: object = None
     radiation: radiation_physics.Radiation | None = None
+    #: StackData: the stacked version's figures, or None for a single half-wave
+    stack: object = None
 
     @property
     def voltage_open_end_v_peak(self) -> float:
         return math.sqrt(2.0) * self.voltage_open_end_v_rms
+
+    @property
+    def span_m(self) -> float:
+        """The conductor from the stub's open top to the far end, m: the radiator, or with a stack
+        the radiator, the gap and the upper element (what the supports and ropes span)."""
+        k = self.stack
+        return self.dimensions.radiator + (0.0 if k is None else k.phasing_spacing_m + k.element_m)
 
     @property
     def voltage_far_end_v_peak(self) -> float:
@@ -299,6 +308,7 @@ class Solution:
             "rating_warnings": [f.to_dict() for f in self.findings],
             "assumptions": list(self.assumptions),
             "radiation": radiation_json(self.radiation),
+            "stack": None if self.stack is None else self.stack.to_dict(),
         }
 
 
@@ -489,6 +499,7 @@ def _solve(design: Design) -> Solution:
     f0 = design.frequency_hz
     z_feed = design.feed.impedance_ohm
     radiator, stub, tap, at_f0 = _match(design, ant)
+    ant = at_f0.ant          # with its stack, for the stacked version
 
     low, high = design.band_hz
     f = np.linspace(low * (1 - SWEEP_MARGIN), high * (1 + SWEEP_MARGIN), SWEEP_POINTS)
@@ -515,6 +526,7 @@ def _solve(design: Design) -> Solution:
         pattern = radiation_physics.radiation(at_f0, radiator, stub, state.efficiency)
         directivity = radiation_physics.free_space_directivity_dbi(at_f0, radiator, stub)
 
+    stack = None if ant.stack is None else _stack_data(design, ant, state, pattern)
     ch = choke_physics.design_coax_choke(f0, high, design.feed.choke_form_m,
                                          design.feed.coax_outer_diameter_m, f_band_low=low)
     # exposure takes no credit for the power the ground absorbs (that happens in the ground's near
@@ -531,7 +543,7 @@ def _solve(design: Design) -> Solution:
     from buildsheet import sleeve as sleeve_module
     sl = sleeve_module.sleeve_for(design, ch)
     parts = _parts(design, dims, ch)
-    cut, hardware = _cut_list(design, dims, wrap, ch, first, parts, sl)
+    cut, hardware = _cut_list(design, dims, wrap, ch, first, parts, sl, ant.stack)
     return Solution(
         name=design.name, design_id=design.document_id, frequency_hz=f0, band_hz=tuple(design.band_hz),
         dimensions=dims, radiator_cut_m=radiator + first.radiator_margin_m + (
@@ -551,8 +563,82 @@ def _solve(design: Design) -> Solution:
                       "coax": design.power.transmitter_w - p_tap},
         sensitivity=sens._asdict(),
         choke=ch, exposure=exposure, first_cut=first, parts=parts, warnings=envelope_warnings(design),
-        sleeve=sl, radiation=pattern,
+        sleeve=sl, radiation=pattern, stack=stack,
     )
+
+
+def _stack_data(design: Design, ant, state, pattern) -> "StackData":
+    """The stacked version's figures: its parts, voltages and currents at the power reaching the tap
+    (jpole.state_at), and the single version's maximum gain and 2:1 band (solved here as the
+    design without `stack`) for the gain it brings."""
+    f0 = design.frequency_hz
+    single = antenna_model(design)
+    radiator, stub, tap, at_single = _match(design.with_changes(stack=None), single, clearance=False)
+    st1 = jpole.state_at(f0, single, radiator, stub, tap, 1.0, prepared=at_single)
+    with np.errstate(all="ignore"):
+        r1 = radiation_physics.radiation(at_single, radiator, stub, st1.efficiency)
+    low, high = design.band_hz
+    f = np.linspace(low * (1 - SWEEP_MARGIN), high * (1 + SWEEP_MARGIN), SWEEP_POINTS)
+    f = np.union1d(f, [f0])
+    swr1 = swr(jpole.feed_impedance(f, single, radiator, stub, tap), design.feed.impedance_ohm)
+    st = ant.stack
+    return StackData(element_m=st.element, phasing_m=st.phasing, phasing_spacing_m=st.spacing,
+                     voltage_phasing_open_v_rms=state.v_phasing_open,
+                     current_phasing_short_a_rms=state.i_phasing_short,
+                     voltage_element_end_v_rms=state.v_element_end,
+                     element_current_ratio=state.element_ratio,
+                     element_phase_deg=state.element_phase_deg,
+                     single_max_gain_dbi=r1.max_gain_dbi,
+                     gain_over_single_db=pattern.max_gain_dbi - r1.max_gain_dbi,
+                     single_band_swr2_hz=band_edges(f, swr1, f0, 2.0),
+                     single_dimensions=Dimensions(radiator=radiator, stub=stub, tap=tap,
+                                                  spacing=design.stub.spacing_m))
+
+
+@dataclass(frozen=True)
+class StackData:
+    """The stacked version (`stack:`): element_m, the second element (cut as the radiator);
+    phasing_m, the phasing stub from its open end to the short's centre line, and its spacing
+    (the stub's line), m; the voltage across the phasing stub's open end and at the element's far
+    end (V rms) and the current in its short (A rms), at the power reaching the tap (NEC-2 reads
+    the phasing short's current 5-30 % higher: tests/test_stacked_nec.py); the element's loop
+    current against the radiator's (ratio, phase in degrees: the model's, which NEC-2 does not
+    confirm, 0.9-1.0 and about 5 degrees there against 0.8-0.9 and 13-40 here, so the sheet does
+    not print them; the gain they give is within 0.2 dB of NEC-2's); the single
+    version's maximum gain (dBi), the gain the second element adds (dB) and the single version's
+    2:1 band (Hz), with its dimensions."""
+    element_m: float
+    phasing_m: float
+    phasing_spacing_m: float
+    voltage_phasing_open_v_rms: float
+    current_phasing_short_a_rms: float
+    voltage_element_end_v_rms: float
+    element_current_ratio: float
+    element_phase_deg: float
+    single_max_gain_dbi: float
+    gain_over_single_db: float
+    single_band_swr2_hz: tuple | None
+    single_dimensions: Dimensions
+
+    @property
+    def voltage_phasing_open_v_peak(self) -> float:
+        return math.sqrt(2.0) * self.voltage_phasing_open_v_rms
+
+    def to_dict(self) -> dict:
+        d = self.single_dimensions
+        return {"phasing": "stub", "element_m": self.element_m, "phasing_m": self.phasing_m,
+                "phasing_spacing_m": self.phasing_spacing_m,
+                "voltage_phasing_open_v_rms": self.voltage_phasing_open_v_rms,
+                "voltage_phasing_open_v_peak": self.voltage_phasing_open_v_peak,
+                "current_phasing_short_a_rms": self.current_phasing_short_a_rms,
+                "voltage_element_end_v_rms": self.voltage_element_end_v_rms,
+                "element_current_ratio": self.element_current_ratio,
+                "element_phase_deg": self.element_phase_deg,
+                "single_max_gain_dbi": self.single_max_gain_dbi,
+                "gain_over_single_db": self.gain_over_single_db,
+                "single_band_swr2_hz": list(self.single_band_swr2_hz) if self.single_band_swr2_hz
+                else None,
+                "single_dimensions_m": {"radiator": d.radiator, "stub": d.stub, "tap": d.tap}}
 
 
 #: the choke form is cut this much longer than the coil, m (common practice: room for the ties)
@@ -654,6 +740,18 @@ def check_stub_clearance(design: Design, stub: float) -> None:
                           "higher top")
 
 
+def check_phasing_clearance(design: Design, phasing: float) -> None:
+    """As check_stub_clearance, for a horizontal's phasing stub, which hangs from the radiator's far
+    end as the stub hangs from the open top. phasing: m."""
+    site = design.site
+    clearance = RULES["stub_clears_ground"].value
+    bottom = site.height_m - phasing
+    if site.orientation == "horizontal" and bottom < clearance:
+        raise design.fail("site.height", f"{metres(site.height_m)} leaves the phasing stub's short "
+                          f"{metres(bottom)} above ground (it is {metres(phasing)} long); raise the "
+                          f"antenna to at least {metres(phasing + clearance)}")
+
+
 def check_far_end_clearance(design: Design, radiator: float, solved: bool = True) -> None:
     """As check_stub_clearance, for the far end of a sloper's solved radiator (a radiator through its
     own image gives a negative radiation resistance). radiator: m; solved False: the half wave
@@ -724,6 +822,10 @@ def _match(design: Design, ant, clearance: bool = True) -> tuple:
             check_far_end_clearance(design, half, solved=False)
             check_hanging_end_clearance(design, half, design.wavelength_m / 4, solved=False)
         raise _unmatched(design, exc) from None
+    if design.stack is not None:
+        radiator, ant, at_f0 = _stacked(design, ant, radiator)
+        if clearance:
+            check_phasing_clearance(design, ant.stack.phasing)
     if clearance:
         check_far_end_clearance(design, radiator)
     try:
@@ -742,8 +844,41 @@ def _match(design: Design, ant, clearance: bool = True) -> tuple:
     return radiator, stub, tap, at_f0
 
 
+def solved_antenna(design: Design):
+    """The model's antenna as solved: antenna_model, with its stack (the upper element and the
+    phasing stub as the solver cuts them) for the stacked version."""
+    ant = antenna_model(design)
+    if design.stack is None:
+        return ant
+    with _refusals(design):
+        return _match(design, ant, clearance=False)[3].ant
+
+
+def _stacked(design: Design, ant, single_radiator: float):
+    """(element length, antenna with its stack, the model at f0) of the stacked version: the
+    phasing stub a quarter wave of the stub's line (jpole.design_stack), both elements cut to the
+    pair's resonance (jpole.stacked_radiator_length)."""
+    f0, st = design.frequency_hz, design.stub
+    try:
+        with np.errstate(all="ignore"):
+            stack = jpole.design_stack(f0, ant, single_radiator, ant.stub_line, st.spacing_m,
+                                       st.conductor_diameter_m, st.conductivity_s_m)
+            length = jpole.stacked_radiator_length(f0, dataclasses.replace(ant, stack=stack), stack)
+            ant = dataclasses.replace(ant, stack=dataclasses.replace(stack, element=length))
+            return length, ant, jpole.at_frequency(f0, ant)
+    except ValueError as exc:
+        raise DesignError(" ".join(str(exc).split()), file=design.path, key="stack") from None
+
+
 def _unmatched(design: Design, exc: ValueError) -> DesignError:
     why = " ".join(str(exc).split())
+    if design.stack is not None:
+        return DesignError(f"the stacked version cannot be matched to {design.feed.impedance_ohm:g} ohm "
+                           "with this line: two elements about halve the end impedance the stub must "
+                           "transform, and a shorted line reaches 50 ohm only from an end impedance "
+                           "above about Z0^2/50 (lossless line theory); use a lower-impedance line "
+                           f"(closer spacing or thicker conductors) ({why})",
+                           file=design.path, key="stub.line")
     return DesignError(f"cannot be matched to {design.feed.impedance_ohm:g} ohm with this line and wire "
                        f"(a very lossy or unusual line?): {why}", file=design.path, key="stub.line")
 
@@ -872,7 +1007,7 @@ def _wrap_allowance(design: Design) -> float:
 
 
 def _cut_list(design: Design, d: Dimensions, wrap: float, ch, first: FirstCut,
-              parts: Parts, sleeve=None) -> tuple[tuple, tuple]:
+              parts: Parts, sleeve=None, stack=None) -> tuple[tuple, tuple]:
     """What to cut (with allowances) and what to buy. Allowances are common practice; the radiator
     and the stub line are cut long by the first cut's tuning margins as well (FirstCut). With a
     sleeve choke (physics.choke.SleeveChoke) the coil is not built: no coax in turns, no choke form,
@@ -901,7 +1036,23 @@ def _cut_list(design: Design, d: Dimensions, wrap: float, ch, first: FirstCut,
         _tap_leads(design, d),
         *_feed_pieces(design, ch, parts, sleeve),
     ]
-    site = site_layout(design.site.orientation, design.site.height_m, design.site.slope_rad, d.radiator,
+    if stack is not None:
+        # the stacked version (jpole.Stack): the second element cut as the radiator, the phasing
+        # stub of the stub's line with its own short bar; wire lines wrap at both conductors' tops
+        # (the element is cut as the radiator: one row of two pieces; the phasing stub's short bar
+        # beside the stub's: one row of two)
+        assert abs(stack.element - d.radiator) < 1e-9 * d.radiator
+        items[0] = dataclasses.replace(items[0], quantity=2,
+                                       note="the radiator and the upper element, the same length; "
+                                       + items[0].note)
+        items[2] = dataclasses.replace(items[2], quantity=2,
+                                       note="across the stub and the phasing stub at their shorts")
+        items.insert(2, CutItem("phasing stub", parts.line_name, stack.phasing + beyond_short + junction,
+                                1, beyond_short + junction, "the stub's line; open end to the short, "
+                                "plus the length below its short" +
+                                (" and the wraps at the open end" if junction else "")))
+    span = d.radiator if stack is None else d.radiator + stack.spacing + stack.element
+    site = site_layout(design.site.orientation, design.site.height_m, design.site.slope_rad, span,
                        lam, d.stub, design.hung)
     for rope in site.ropes if site else ():
         items.append(CutItem(rope.what, "UV-resistant polyester rope", rope.length_m, 1, TIE_OFF_M,
@@ -936,8 +1087,20 @@ def _cut_list(design: Design, d: Dimensions, wrap: float, ch, first: FirstCut,
         spreaders = int(math.ceil(d.stub / 0.30)) + 1
         hardware.append(HardwareItem("line spreaders", spreaders, "about every 30 cm along the stub"))
     if rigid_stub:
-        hardware.append(HardwareItem("pipe tees or elbows for the short", 2, "or a drilled bar and bolts",
+        hardware.append(HardwareItem("pipe tees or elbows for the short" + ("" if stack is None else "s"),
+                                     2 if stack is None else 4, "or a drilled bar and bolts",
                                      fits_m=design.stub.conductor_diameter_m))
+    if stack is not None:
+        vertical = design.site.orientation == "vertical"
+        hardware.append(HardwareItem(
+            "gap insulator", 1,
+            f"elements {stack.spacing * 1e3:.0f} mm apart in line (high RF voltage)"
+            + ("; holds the phasing stub level" if vertical else ""),
+            fits_m=design.radiator.diameter_m if rigid_radiator else None))
+        if design.stub.kind == "geometry" and not rigid_stub:
+            hardware.append(HardwareItem("line spreaders for the phasing stub",
+                                         int(math.ceil(stack.phasing / 0.30)) + 1,
+                                         "about every 30 cm along it"))
     return tuple(items), tuple(hardware)
 
 

@@ -57,6 +57,12 @@ def summary_text(design: Design, s: Solution) -> str:
         "centre of the short")
     add(f"  tap        {L(d.tap):>14}   centre of the short to the tap")
     add(f"  spacing    {units.format_length(d.spacing, u, 'size'):>14}   centre to centre of the stub conductors")
+    k = s.stack
+    if k is not None:
+        add(f"  element    {L(k.element_m):>14}   upper element, attachment point to attachment point")
+        add(f"  phasing    {L(k.phasing_m):>14}   phasing stub, open end (the gap) to the centre of its short")
+        add(f"  gap        {units.format_length(k.phasing_spacing_m, u, 'size'):>14}   radiator's end to the "
+            "element's start (the phasing stub's spacing)")
     add("")
     add("Cut list")
     for item in s.cut_list:
@@ -79,7 +85,7 @@ def summary_text(design: Design, s: Solution) -> str:
         add("  Why: the velocity factor of dielectric line and jacketed wire is only known to the spread "
             f"between its sources; start with {start}, then {then} as the tuning table says.")
     site = site_layout(design.site.orientation, design.site.height_m, design.site.slope_rad,
-                       s.dimensions.radiator, design.wavelength_m, s.dimensions.stub, design.hung)
+                       s.span_m, design.wavelength_m, s.dimensions.stub, design.hung)
     if site is not None:
         add("  Site: " + describe(site, lambda m: units.format_length(m, u, "coarse")))
     add("Hardware")
@@ -103,6 +109,14 @@ def summary_text(design: Design, s: Solution) -> str:
     add(f"  efficiency (radiated / delivered to the tap): {units.format_percent(s.efficiency)}")
     if s.radiation is not None:
         add(radiation_line(s.radiation))
+    if k is not None:
+        add(f"  stacked: {k.gain_over_single_db:+.1f} dB over the single half-wave of the same design "
+            f"({k.single_max_gain_dbi:.1f} dBi); 2:1 band of the single: {_band(k.single_band_swr2_hz)}")
+        add(f"  phasing stub: {units.format_voltage(k.voltage_phasing_open_v_rms)} rms, "
+            f"{units.format_voltage(k.voltage_phasing_open_v_peak)} peak across its open end; "
+            f"{units.format_current(k.current_phasing_short_a_rms)} rms through its short; far end of the "
+            f"element: {units.format_voltage(k.voltage_element_end_v_rms)} rms (NEC-2 puts the phasing "
+            "stub's current up to 30 % higher on the designs checked)")
     c = s.choke
     coil = (f"  choke: {c.turns} turn{'s' if c.turns != 1 else ''} of {design.feed.coax} on a "
             f"{L(c.form_diameter_m)} form, coil {L(c.coil_length_m)} long, {c.inductance_h * 1e6:.2f} uH")
@@ -135,7 +149,8 @@ def summary_text(design: Design, s: Solution) -> str:
     for a in s.assumptions:
         add(f"  assumed: {a}.")
     add("")
-    add("Cautions: keep the antenna and its fall zone well clear of power lines; the open end of the stub "
-        "and the far end of the radiator carry high RF voltage; follow local codes, your regulator and "
-        "licensed practice.")
+    add("Cautions: keep the antenna and its fall zone well clear of power lines; the open end of the stub"
+        + (" and the far end of the radiator carry" if k is None else
+           ", the phasing stub's open end and the far ends of both elements carry")
+        + " high RF voltage; follow local codes, your regulator and licensed practice.")
     return "\n".join(rows) + "\n"

@@ -594,3 +594,98 @@ def coil_resonance(turns: int, d_mean: float, wire_radius: float, pitch: float, 
         else:
             hi = mid
     return math.sqrt(lo * hi)
+
+
+# ---------------------------------------------------------------- the stacked (collinear) J-pole
+
+TAG_ELEMENT2, TAG_PH_A, TAG_PH_B, TAG_PH_SHORT = 31, 32, 33, 34
+
+
+@dataclass(frozen=True)
+class StackDims:
+    """The second half-wave and its phasing stub, as built (m): element: the upper element's length;
+    phasing: the phasing stub from its open end (the gap) to the short bar's centre line; spacing and
+    stub_d: its line's centre-to-centre spacing and conductor diameter; sigma (S/m, None = perfect).
+
+    Geometry: the radiator (element 1) ends at P1; the gap between the radiator's end and element
+    2's start is the phasing line's spacing, along the radiator's axis t; the phasing stub runs
+    from the gap perpendicular to the axis (u: +x for a vertical, straight down for a horizontal),
+    conductor A' from P1, B' from P1 + spacing t, short bar at the far end; element 2 from
+    P1 + spacing t along t."""
+    element: float
+    phasing: float
+    spacing: float
+    stub_d: float
+    sigma: float | None = 5.8e7
+
+
+def stacked_wires(d: JPoleDims, st: StackDims, f_mesh: float, mesh: Mesh = MESH,
+                  like: tuple[JPoleDims, StackDims] | None = None) -> tuple[Wire, ...]:
+    """Wires of the stacked J-pole meshed by the DESIGN.md §7 rule: the J-pole of jpole_wires with
+    the radiator graded toward both its ends (its top meets the phasing stub, a junction at the
+    scale of the phasing spacing), the phasing stub's conductors graded from its bar's segment
+    length at both ends (the open end meets the elements), its short in `bar_segments` segments,
+    element 2 graded from its start. like: mesh as for those dimensions (see jpole_wires)."""
+    if like is not None:
+        base = {w.tag: w for w in stacked_wires(*like, f_mesh, mesh)}
+        out = []
+        for w in stacked_wires(d, st, f_mesh, mesh):
+            b = base[w.tag]
+            scale = math.dist(w.p1, w.p2) / math.dist(b.p1, b.p2)
+            segs = tuple(h * scale for h in b.segment_lengths())
+            out.append(replace(w, nseg=len(segs), seglens=segs))
+        return tuple(out)
+    base = jpole_wires(d, f_mesh, mesh)
+    lam = C0 / f_mesh
+    a_w, a_p = d.wire_d / 2.0, st.stub_d / 2.0
+    h_rad = max(mesh.scale * lam / 242.0, 3.0 * a_w)
+    h_stub = mesh.scale * min(lam / 40.0, 8.0 * st.spacing)
+    n_bar = bar_segments(st.spacing, a_p, mesh.bar_segments)
+    h_bar = st.spacing / n_bar
+    h_j = max(h_bar, 3.0 * a_w)
+    rad = base[TAG_RADIATOR - 1]
+    p0, p1 = np.asarray(rad.p1), np.asarray(rad.p2)
+    t = (p1 - p0) / np.linalg.norm(p1 - p0)
+    u = np.array([1.0, 0.0, 0.0]) if d.orientation == "vertical" else np.array([0.0, 0.0, -1.0])
+    if d.orientation == "sloper":
+        raise ValueError("a stacked sloper is not modelled")
+    h_top = rad.segment_lengths()[0]
+    rad_segs = graded(d.radiator, h_top, h_j, h_rad, mesh.growth)
+    q = p1 + st.spacing * t
+    el2 = graded(st.element, h_j, None, h_rad, mesh.growth)
+    ph = graded(st.phasing, h_bar, h_bar, h_stub, mesh.growth)
+    tup = lambda v: tuple(float(x) for x in v)
+    if d.ground.kind != "free-space" and min((p1 + st.phasing * u)[2], (q + st.element * t)[2]) <= 0:
+        raise ValueError("the phasing stub reaches the ground")
+    return (replace(rad, nseg=len(rad_segs), seglens=rad_segs),) + tuple(base[1:]) + (
+        Wire(TAG_ELEMENT2, len(el2), tup(q), tup(q + st.element * t), a_w, el2),
+        Wire(TAG_PH_A, len(ph), tup(p1), tup(p1 + st.phasing * u), a_p, ph),
+        Wire(TAG_PH_B, len(ph), tup(q), tup(q + st.phasing * u), a_p, ph),
+        Wire(TAG_PH_SHORT, n_bar, tup(p1 + st.phasing * u), tup(q + st.phasing * u), a_p),
+    )
+
+
+def stacked_model(d: JPoleDims, st: StackDims, f_hz, currents: bool = False,
+                  f_mesh: float | None = None, mesh: Mesh = MESH, pattern_step_deg: float | None = None,
+                  like: tuple[JPoleDims, StackDims] | None = None) -> NecResult:
+    """NEC-2 model of the stacked J-pole: feed impedance (ohm) per frequency (Hz), optionally the
+    currents and the radiated fraction (see run)."""
+    f_hz = np.atleast_1d(np.asarray(f_hz, dtype=float))
+    wires = stacked_wires(d, st, f_mesh or float(f_hz.max()), mesh, like)
+    tap_bar = wires[TAG_TAP - 1]
+    sigma = {TAG_RADIATOR: d.wire_sigma, TAG_ELEMENT2: d.wire_sigma,
+             **{t: d.stub_sigma for t in range(2, 8)},
+             **{t: st.sigma for t in (TAG_PH_A, TAG_PH_B, TAG_PH_SHORT)}}
+    return run(wires, f_hz, d.ground, (TAG_TAP, (tap_bar.nseg + 1) // 2), sigma, currents,
+               None, pattern_step_deg)
+
+
+def stacked_pattern(d: JPoleDims, st: StackDims, f: float, theta_step: float = 1.0,
+                    phi_step: float = 5.0) -> NecPattern:
+    """NEC-2 pattern (see pattern()) of the stacked J-pole at f (Hz)."""
+    wires = stacked_wires(d, st, f)
+    tap_bar = wires[TAG_TAP - 1]
+    sigma = {TAG_RADIATOR: d.wire_sigma, TAG_ELEMENT2: d.wire_sigma,
+             **{t: d.stub_sigma for t in range(2, 8)},
+             **{t: st.sigma for t in (TAG_PH_A, TAG_PH_B, TAG_PH_SHORT)}}
+    return pattern(wires, f, d.ground, (TAG_TAP, (tap_bar.nseg + 1) // 2), sigma, theta_step, phi_step)

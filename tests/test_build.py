@@ -106,7 +106,7 @@ def test_sheet_text_carries_the_numbers_of_the_solution(outdir, design):
                 "lengthen the long element's top (a sliding sleeve)")
         assert f"{what} by {move}" in text
     else:
-        assert f"{verb} the radiator by {move}" in text
+        assert f"{verb} {'the radiator' if s.stack is None else 'both elements'} by {move}" in text
     dr = float(re.search(r"R (\d+) Ω above", text).group(1))
     tap = units.format_length(dr / abs(s.sensitivity["ohm_per_m_tap"]), u)
     way = "down" if s.sensitivity["ohm_per_m_tap"] > 0 else "up"

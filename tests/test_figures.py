@@ -125,7 +125,7 @@ COARSE = ("coax", "rope", "span", "far end height", "far end out", "anchor", "an
 #: the overview's heights of a hung antenna's ends are coarse too; on a `tube` drawing "top" is the
 #: trimming allowance, cut to the tape
 COARSE_OVERVIEW = ("top", "bottom")
-SIZE = ("spacing", "wire")
+SIZE = ("spacing", "wire", "gap")
 
 
 STOCK_NAMES = sorted((s.name for s in catalog().stock), key=len, reverse=True)
@@ -152,8 +152,11 @@ def expected_lengths(design, solution) -> dict[str, dict[str, float]]:
     radiator = style_lengths(solution) or radiator
     overview = {"radiator": d.radiator, "stub": d.stub, "tap": d.tap,
                 "height": design.site.height_m, "coax": design.feed.length_m}
-    site = site_layout(design.site.orientation, design.site.height_m, design.site.slope_rad, d.radiator,
-                       design.wavelength_m, d.stub, design.hung)
+    if solution.stack is not None:      # the stacked version: the upper element, phasing stub, gap
+        k = solution.stack
+        overview.update({"element": k.element_m, "phasing stub": k.phasing_m, "gap": k.phasing_spacing_m})
+    site = site_layout(design.site.orientation, design.site.height_m, design.site.slope_rad,
+                       solution.span_m, design.wavelength_m, d.stub, design.hung)
     if design.site.orientation == "inverted":       # the far end's height, as the dimension shows it
         overview["far end"] = design.site.height_m - d.stub - d.radiator
     if site is not None and site.support_height_m is not None:     # hung: branch, ropes, heights

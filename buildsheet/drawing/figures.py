@@ -132,7 +132,7 @@ class _Context:
     def layout(self):
         site = self.design.site
         return site_layout(site.orientation, site.height_m, site.slope_rad,
-                           self.solution.dimensions.radiator, self.design.wavelength_m,
+                           self.solution.span_m, self.design.wavelength_m,
                            self.solution.dimensions.stub, self.design.hung)
 
     def rounding_note(self) -> str:
@@ -328,6 +328,28 @@ def _overview_hanging(ctx: _Context) -> tuple[Layout, float]:
     else:
         u = (-1.0, 0.0)
         far = (100.0, y_top)
+        if s.stack is not None:
+            # stacked: the radiator ends at the gap; the upper element runs on to the insulator and
+            # the phasing stub hangs from the gap
+            k, gap = s.stack, 8.0
+            x_gap = 206.0
+            x_el = x_gap - gap
+            sheet.add(BreakMark(x_el, y_top, far[0], far[1], at=0.5, width=CONDUCTOR))
+            sheet.add(Dimension(far[0], far[1], x_el, y_top, f"element {fmt(k.element_m)}", 22.0))
+            y_ph = y_top + 96.0
+            for x in (x_gap, x_el):
+                sheet.add(BreakMark(x, y_top, x, y_ph, at=0.5, size=3.5, width=CONDUCTOR))
+            sheet.add(Line(x_el, y_ph, x_gap, y_ph, width=2.4))
+            sheet.add(Rect(x_el + 1.0, y_top - 2.5, gap - 2.0, 5.0, width=0.6, fill=INSULATOR_GREY))
+            sheet.add(_vdim(x_gap, y_ph, y_top, f"phasing stub {fmt(k.phasing_m)}", 16.0))
+            sheet.callout(x_el, y_ph, ["phasing short"], angles=(200, 180, 225, 160))
+            # the gap's label below the radiator, right of the phasing stub's dimension, with a leader
+            x_t, y_t = x_gap + 34.0, y_top + 52.0
+            sheet.add(Line(x_t - 2.0, y_t - 8.0, x_el + gap / 2 + 2.0, y_top + 3.0, width=THIN))
+            sheet.add(Text(x_t, y_t, f"gap {units.format_length(k.phasing_spacing_m, ctx.units, 'size')}: "
+                           "insulator", LABEL))
+            sheet.add(Text(x_t, y_t + 9.0, "(high RF voltage)", LABEL))
+            gap_end = (x_gap, y_top)
         ins_end = _along(far, u, 16.0)
         support = (30.0, y_top - 30.0)
         rope_mid = ((ins_end[0] + support[0]) / 2, (ins_end[1] + support[1] + 4.0) / 2)
@@ -335,8 +357,9 @@ def _overview_hanging(ctx: _Context) -> tuple[Layout, float]:
         sheet.add(_pole(support[0], support[1], y_g))
         support_name = ["support"]
     sheet.add(_insulator(far, u))
-    sheet.add(BreakMark(far[0], far[1], x_j, y_top, at=0.5, width=CONDUCTOR))
-    sheet.add(Dimension(far[0], far[1], x_j, y_top, f"radiator {fmt(dims.radiator)}", 22.0))
+    rad_end = far if s.stack is None or sloper else gap_end
+    sheet.add(BreakMark(rad_end[0], rad_end[1], x_j, y_top, at=0.5, width=CONDUCTOR))
+    sheet.add(Dimension(rad_end[0], rad_end[1], x_j, y_top, f"radiator {fmt(dims.radiator)}", 22.0))
 
     # near support: rope from the other conductor's open top, up to the right-hand pole
     pole_r = WIDTH - 22.0
@@ -399,11 +422,20 @@ def _overview_vertical(ctx: _Context) -> tuple[Layout, float]:
     fmt = ctx.length
     wire = not s.parts.rigid_radiator
     y_end_top = 62.0 if wire else 40.0
+    k = s.stack
+    # the spans drawn (break marks: not to scale): radiator, stub, short to ground; a stacked
+    # antenna draws them shorter so that the figure keeps about the single one's height
+    rad_span, stub_span, mast_span = (116.0, 150.0, 84.0) if k is None else (74.0, 122.0, 64.0)
+    if k is not None:
+        # stacked: the upper element on top, the gap and the phasing stub out to the left below it
+        y_el_top, gap = y_end_top, 8.0
+        y_el_bot = y_el_top + 74.0
+        y_end_top = y_el_bot + gap
     tap_text = f"tap {fmt(dims.tap)}"
-    a = StubAnchors.hanging(200.0, 212.0, top=y_end_top + 96.0, stub_span=130.0,
+    a = StubAnchors.hanging(200.0, 212.0, top=y_end_top + rad_span, stub_span=stub_span,
                             tap_span=_tap_span(tap_text), tail=22.0)
     x_j, x_o, x_mid, y_top, y_tap, y_short, y_end = a.x_j, a.x_o, a.mid, a.top, a.tap, a.short, a.end
-    y_g = y_end + 8.0 + 66.0
+    y_g = y_end + 8.0 + mast_span
     body_h = y_g + 26.0
     sheet = Layout(WIDTH, body_h)
     sheet.add(*_ground(PAD, WIDTH - PAD, y_g))
@@ -422,9 +454,19 @@ def _overview_vertical(ctx: _Context) -> tuple[Layout, float]:
 
     # radiator straight up from the radiator-side conductor
     sheet.add(BreakMark(x_j, y_top, x_j, y_end_top, at=0.5, width=CONDUCTOR))
+    y_free = y_end_top          # the top end of the whole antenna
+    if k is not None:
+        y_free = y_el_top
+        sheet.add(BreakMark(x_j, y_el_bot, x_j, y_el_top, at=0.5, width=CONDUCTOR))
+        x_p = x_j - 118.0
+        for y in (y_end_top, y_el_bot):
+            sheet.add(BreakMark(x_j, y, x_p, y, at=0.5, size=3.5, width=CONDUCTOR))
+        sheet.add(Line(x_p, y_el_bot, x_p, y_end_top, width=2.4))
+        sheet.add(Rect(x_j - 2.5, y_el_bot + 1.0, 5.0, gap - 2.0, width=0.6, fill=INSULATOR_GREY))
+        sheet.add(Dimension(x_p, y_el_bot, x_j, y_el_bot, f"phasing stub {fmt(k.phasing_m)}", 10.0))
     if wire:
-        sheet.add(_insulator((x_j, y_end_top), (0.0, -1.0)))
-        sheet.add(Line(x_j, y_end_top - 16.0, x_j, PAD + 4.0, width=ROPE, dash=ROPE_DASH))
+        sheet.add(_insulator((x_j, y_free), (0.0, -1.0)))
+        sheet.add(Line(x_j, y_free - 16.0, x_j, PAD + 4.0, width=ROPE, dash=ROPE_DASH))
     station_x = 70.0
     y_coax = y_g - 4.0
     y_choke = _stub_and_feed(sheet, ctx, a, ((x_mid, y_coax), (station_x + 46.0, y_coax)))
@@ -434,18 +476,28 @@ def _overview_vertical(ctx: _Context) -> tuple[Layout, float]:
     # room between for the callouts of the open top
     sheet.add(_vdim(x_o, y_short, y_tap, tap_text, 34.0))
     x_c = x_o + 160.0
-    for y, x_from in ((y_end_top, x_j), (y_top, x_o), (y_short, x_o)):
+    ends = ((y_end_top, x_j), (y_top, x_o), (y_short, x_o))
+    if k is not None:
+        ends += ((y_el_bot, x_j), (y_el_top, x_j))
+        sheet.add(Dimension(x_c, y_el_bot, x_c, y_el_top, f"element {fmt(k.element_m)}", 0.0))
+    for y, x_from in ends:
         sheet.add(Line(x_from + 1.5, y, x_c + 2.0, y, width=THIN))
     sheet.add(Dimension(x_c, y_top, x_c, y_end_top, f"radiator {fmt(dims.radiator)}", 0.0))
     sheet.add(Dimension(x_c, y_short, x_c, y_top, f"stub {fmt(dims.stub)}", 0.0))
     sheet.add(Dimension(x_c, y_g, x_c, y_short, f"height {fmt(d.site.height_m)}", 0.0))
 
     if wire:
-        sheet.callout(x_j, y_end_top - 8.0, ["top insulator"], angles=(180, 160, 200))
-        sheet.callout(x_j, (y_end_top - 16.0 + PAD + 4.0) / 2, ["rope up to a support"],
+        sheet.callout(x_j, y_free - 8.0, ["top insulator"], angles=(180, 160, 200))
+        sheet.callout(x_j, (y_free - 16.0 + PAD + 4.0) / 2, ["rope up to a support"],
                       angles=(180, 200, 160))
     else:
-        sheet.callout(x_j, y_end_top, ["top end, free"], angles=(180, 200, 160))
+        sheet.callout(x_j, y_free, ["top end, free"], angles=(180, 200, 160))
+    if k is not None:
+        sheet.callout(x_j + 2.5, (y_el_bot + y_end_top) / 2,
+                      [f"gap {units.format_length(k.phasing_spacing_m, ctx.units, 'size')}: insulator", "(high RF voltage)"],
+                      angles=(0, 20, 340, 40))
+        sheet.callout(x_p, (y_el_bot + y_end_top) / 2, ["phasing short"], angles=(200, 180, 225, 160))
+        sheet.callout(x_j, y_el_bot - 24.0, ["upper element"], angles=(200, 180, 160, 225))
     sheet.callout(x_o, y_top + 2.0, ["open top: this conductor", "ends here (RF voltage)"],
                   angles=(330, 345, 315, 30, 0))
     sheet.callout(x_j, y_top - 30.0, ["the radiator continues", "from this conductor"],
@@ -684,16 +736,19 @@ def _radiator(ctx: _Context) -> Drawing:
     sheet.add(BreakMark(x_a, y1, x_b, y1, at=0.5, width=CONDUCTOR))
     if vertical and rigid:
         sheet.add(Line(x_a, y1 - 4.0, x_a, y1 + 4.0, width=CONDUCTOR))
-        sheet.callout(x_a, y1, ["top end, free"], angles=(225, 200, 250))
+        sheet.callout(x_a, y1, ["top end, free"] if s.stack is None else
+                      ["top end: the gap insulator,", "the phasing stub and the", "upper element (the same cut)"],
+                      angles=(225, 200, 250))
     else:
         sheet.add(Rect(x_a - 34.0, y1 - 5.0, 32.0, 10.0, width=0.75, fill=INSULATOR_GREY))
         sheet.add(Circle(x_a - 5.0, y1, 2.6, width=0.6, fill=1.0))
         sheet.add(Circle(x_a, y1, 1.8, width=0, fill=0.0))
         if not rigid:
             sheet.add(_wrap_mark(x_a + 2.0, y1, int(30.0 / WRAP_PITCH), "x", end=30.0))
-        sheet.callout(x_a - 18.0, y1 + 5.0, ["top end insulator" if vertical else
-                                             "bottom end insulator" if inverted else "end insulator"],
-                      angles=(250, 270, 225, 290))
+        end_name = ("top end insulator" if vertical else "bottom end insulator" if inverted else
+                    "end insulator") if s.stack is None else \
+            "gap insulator (the phasing stub and the upper element beyond)"
+        sheet.callout(x_a - 18.0, y1 + 5.0, [end_name], angles=(250, 270, 225, 290))
         sheet.callout(x_a, y1 - 2.0, ["attachment point"], angles=(110, 135, 90), radii=(30, 40, 52))
     # the stub's two conductors at its open top
     x_other = x_b + 18.0
@@ -1370,8 +1425,13 @@ def _pattern(ctx: _Context) -> Drawing:
     where = "in free space" if free else "over the site's ground (direct and ground-reflected wave)"
     notes = [f"Gain relative to the power delivered to the tap: the antenna's losses"
              f"{'' if free else ' and the ground loss'} taken off. Computed {where} from the model's "
-             f"currents on the radiator and the stub at {units.format_frequency(ctx.solution.frequency_hz)}; "
-             f"rings 10 dB apart. Azimuth 0\u00b0: {zero}."]
+             f"currents on the radiator and the stub"
+             f"{'' if ctx.solution.stack is None else ', the upper element and the phasing stub'} at "
+             f"{units.format_frequency(ctx.solution.frequency_hz)}; rings 10 dB apart. Azimuth 0\u00b0: {zero}."]
+    k = ctx.solution.stack
+    if k is not None:
+        notes.append(f"Stacked: maximum gain {r.max_gain_dbi:.1f} dBi, {k.gain_over_single_db:+.1f} dB over "
+                     f"the single half-wave of the same design ({k.single_max_gain_dbi:.1f} dBi).")
     return _with_strip(ctx, plot, "Radiation pattern", notes)
 
 

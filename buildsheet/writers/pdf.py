@@ -341,10 +341,15 @@ class _Blocks:
         room = self.frame_width / len(block.figures) - 2 * KEY_PAD
         in_a_row = all(fonts.text_width(html.unescape(f.value), row_style.fontSize, bold=True) <= room
                        for f in block.figures)
-        value_style = row_style if in_a_row else st["key-value"]
+        # more than four (a stacked antenna's six): three to a row in the row style where they fit
+        room3 = self.frame_width / 3 - 2 * KEY_PAD
+        in_threes = not in_a_row and len(block.figures) > 4 and all(
+            fonts.text_width(html.unescape(f.value), row_style.fontSize, bold=True) <= room3
+            for f in block.figures)
+        value_style = row_style if in_a_row or in_threes else st["key-value"]
         cells = [[_CachedParagraph(f.label, st["key-label"]), _CachedParagraph(f.value, value_style),
                   _CachedParagraph(f.meaning, st["key-meaning"])] for f in block.figures]
-        columns = len(cells) if in_a_row else 2
+        columns = len(cells) if in_a_row else 3 if in_threes else 2
         rows = [cells[i:i + columns] for i in range(0, len(cells), columns)]
         width = self.frame_width / columns
         table = Table(rows, colWidths=[width] * columns, spaceAfter=6)
