@@ -504,8 +504,9 @@ class _Validator:
                             "(a shorted quarter wave of the stub's line)")
         orientation = self.get("site.orientation")
         if orientation in ("sloper", "inverted"):
-            raise self.fail("stack", f"a stacked {orientation} is not modelled and proven; stack a "
-                            "horizontal or a vertical")
+            raise self.fail("stack", f"the stacked version is not modelled and proven as "
+                            f"{'a sloper' if orientation == 'sloper' else 'an inverted antenna'}; "
+                            "stack a horizontal or a vertical")
         if self.has("construction") and self.get("construction") != "wire":
             raise self.fail("stack", f"the stacked version is modelled and proven as wire on a two-wire "
                             f"line (`construction: wire`), not `{self.get('construction')}`")
