@@ -545,9 +545,8 @@ def feed_impedance(f, ant: Antenna, radiator_length, stub_length, tap_length) ->
 def solve_match(f0: float, z_feed: float, ant: Antenna, radiator_length: float,
                 max_iter: int = 60, prepared: _Prepared | None = None) -> tuple[float, float]:
     """Stub and tap lengths (S, T) in m so that the feed sees z_feed + j0 ohm at f0 (Hz): a 2-D
-    root (Newton's method, or scipy.optimize.root's hybrid Powell where that fails; at most max_iter
-    evaluations) started from the best point of a grid around the quarter wave and the textbook
-    tap sin^2(beta T) = z_feed/R_top.
+    root (scipy.optimize.root, hybrid Powell, at most max_iter evaluations) started from the best
+    point of a grid around the quarter wave and the textbook tap sin^2(beta T) = z_feed/R_top.
     prepared: at_frequency(f0, ant), to share with the other solves. Raises ModelError if no
     solution is found."""
     prep = _at(f0, ant, prepared)
@@ -584,73 +583,28 @@ def solve_match(f0: float, z_feed: float, ant: Antenna, radiator_length: float,
             z = prep.z_feed(L, S, T, tops[S])
         return np.array([z.real / z_feed - 1.0, z.imag / z_feed])
 
-    def polish(x):
-        """Broyden's rank-one update adds to the frozen Jacobian what the integrals' change with S
-        does (large on a vertical, whose radiator rises with the stub), so each full step counts."""
-        jac = None
-        r = resid(x, full=True)
-        for _ in range(8):
-            if np.max(np.abs(r)) < 1e-7:     # 5e-6 ohm on 50 ohm
-                break
-            jac = _jacobian(resid, x) if jac is None else jac
-            dx = -np.linalg.solve(jac, r)
-            x = x + dx
-            r_new = resid(x, full=True)
-            jac = jac + np.outer(r_new - r - jac @ dx, dx) / (dx @ dx)
-            r = r_new
-        S, T = (float(v) for v in x)
-        return S, T, np.max(np.abs(resid(x, full=True))) > 1e-6 or not 0 < T < S or not 0.5 * s0 < S < 1.5 * s0
-
-    # the frozen problem's root by Newton's method; where that fails (or the polish from it does),
-    # by scipy's hybrid Powell, as before (imported only then: scipy.optimize is slow to import)
-    x = _newton(resid, start, max_iter)
-    if x is not None:
-        S, T, failed = polish(x)
-        if not failed:
-            return S, T
-    from scipy.optimize import root
+    from scipy.optimize import root     # imported where used: scipy.optimize is slow to import
 
     sol = root(resid, start, method="hybr", options={"maxfev": max_iter, "xtol": 1e-12})
-    S, T, failed = polish(np.asarray(sol.x, dtype=float))
-    if failed:
+    x = np.asarray(sol.x, dtype=float)
+    # Broyden's rank-one update adds to the frozen Jacobian what the integrals' change with S does
+    # (large on a vertical, whose radiator rises with the stub), so each full step counts
+    jac = None
+    r = resid(x, full=True)
+    for _ in range(8):
+        if np.max(np.abs(r)) < 1e-7:     # 5e-6 ohm on 50 ohm
+            break
+        jac = _jacobian(resid, x) if jac is None else jac
+        dx = -np.linalg.solve(jac, r)
+        x = x + dx
+        r_new = resid(x, full=True)
+        jac = jac + np.outer(r_new - r - jac @ dx, dx) / (dx @ dx)
+        r = r_new
+    S, T = (float(v) for v in x)
+    if np.max(np.abs(resid(x, full=True))) > 1e-6 or not 0 < T < S or not 0.5 * s0 < S < 1.5 * s0:
         raise ModelError(f"no stub/tap match for {z_feed} ohm at {f0:.6g} Hz "
                          f"(last try stub {S:.4f} m, tap {T:.4f} m: {sol.message})")
     return S, T
-
-
-def _newton(fun, x0, max_fev: int):
-    """A root of fun (R^2 -> R^2) near x0 by Newton's method with Broyden's rank-one updates of a
-    central-difference Jacobian (_jacobian; worked out afresh when a step does not lower the
-    largest residual), until a step is under 1e-13 of x (the frozen match problem is smooth and its
-    start close: the root is the one scipy's hybrid Powell finds, tests/test_jpole_model.py). None
-    if max_fev evaluations do not reach it or a Jacobian is singular."""
-    x = np.asarray(x0, dtype=float)
-    r = fun(x)
-    fev, jac = 1, None
-    while fev + 5 <= max_fev:
-        fresh = jac is None
-        if fresh:
-            jac = _jacobian(fun, x)
-            fev += 4
-        try:
-            dx = -np.linalg.solve(jac, r)
-        except np.linalg.LinAlgError:
-            return None
-        if not np.all(np.isfinite(dx)):
-            return None
-        if np.max(np.abs(dx)) <= 1e-13 * np.max(np.abs(x)):
-            return x + dx
-        r_new = fun(x + dx)
-        fev += 1
-        if not np.max(np.abs(r_new)) < np.max(np.abs(r)):
-            if fresh:
-                return None
-            jac = None                   # a stale Jacobian: work it out again at x
-            continue
-        x = x + dx
-        jac = jac + np.outer(r_new - r - jac @ dx, dx) / (dx @ dx)
-        r = r_new
-    return None
 
 
 def _jacobian(fun, x, h=1e-7):
