@@ -10,7 +10,7 @@ from scipy.constants import epsilon_0, mu_0
 from skrf.media import DefinedGammaZ0
 
 from buildsheet.physics import ModelError
-from buildsheet.physics.lines import (DB_PER_NEPER, Line, abcd, input_impedance, nnls2, open_stub,
+from buildsheet.physics.lines import (DB_PER_NEPER, Line, abcd, input_impedance, open_stub,
                                       reflection, shorted_stub, swr, voltage_current_along)
 
 F = 14.2e6                                   # CHECK_VALUES default frequency, Hz
@@ -278,34 +278,6 @@ def test_nominal_fit_never_gives_negative_loss():
     # inconsistent points (loss falling with f) must not produce a negative k2 (non-negative fit)
     line = Line.nominal(50.0, 0.66, ((10e6, 0.05), (100e6, 0.04), (400e6, 0.03)))
     assert np.all(line.gamma(np.geomspace(1e6, 3e9, 20)).real >= 0)
-
-
-def test_two_column_nnls_agrees_with_scipy():
-    # lines.nnls2 (the exact two-column case) against scipy.optimize.nnls (Lawson & Hanson's
-    # active-set algorithm): the loss law's columns sqrt(f/f_ref), f/f_ref at 2-6 datasheet-like
-    # frequencies with losses rising, flat or falling (so that either bound, both or none is active),
-    # and random matrices; the same x to 1e-12 of its size, and a residual no larger (to rounding)
-    from scipy.optimize import nnls
-
-    rng = np.random.default_rng(14)
-    active = set()
-    for case in range(2000):
-        if case % 2:
-            f = np.sort(rng.uniform(1e6, 3e9, rng.integers(2, 7)))
-            a = np.column_stack([np.sqrt(f / f.max()), f / f.max()])
-            b = np.abs(rng.uniform(-0.5, 1.0) * a[:, 0] + rng.uniform(-0.5, 1.0) * a[:, 1]
-                       + rng.normal(0, 0.05, len(f)))
-        else:
-            a = rng.normal(size=(int(rng.integers(2, 7)), 2))
-            b = rng.normal(size=len(a))
-        ours = np.array(nnls2(a, b))
-        theirs, _ = nnls(a, b)
-        assert np.all(ours >= 0)
-        assert ours == pytest.approx(theirs, abs=1e-12 * max(1.0, float(np.max(np.abs(theirs))))), case
-        scale = float(np.linalg.norm(b) + np.linalg.norm(a @ theirs))       # rounding of a residual
-        assert np.linalg.norm(a @ ours - b) <= np.linalg.norm(a @ theirs - b) + 1e-12 * scale
-        active.add(tuple(ours == 0))
-    assert active == {(False, False), (True, False), (False, True), (True, True)}
 
 
 @pytest.mark.parametrize("args", [(0.0, 0.66), (50.0, 0.0), (50.0, 1.2),

@@ -195,35 +195,14 @@ class Line:
                 # scale the columns so nnls sees a well-conditioned matrix (sqrt(f) ~ 1e4, f ~ 1e8)
                 f_ref = float(np.max(f_pts))
                 basis = np.column_stack([np.sqrt(f_pts / f_ref), f_pts / f_ref])
-                c1, c2 = nnls2(basis, alpha_pts)
+                from scipy.optimize import nnls     # imported where used: slow to import
+
+                (c1, c2), _ = nnls(basis, alpha_pts)
                 k1, k2 = float(c1 / np.sqrt(f_ref)), float(c2 / f_ref)
         L = z0 / (vf * C0)
         C = 1.0 / (z0 * vf * C0)
         return cls(L=L, C=C, z_int=_ScaledAttenuation(k1, k2, float(z0)),
                    G=_ScaledAttenuation(k1, k2, 1.0 / z0))
-
-
-def nnls2(a, b) -> tuple[float, float]:
-    """The non-negative least-squares solution x >= 0 of a x ~ b for a matrix a of two columns:
-    the minimum of a convex quadratic over the quadrant lies inside it (the unconstrained least
-    squares, when both its parts are >= 0 and the columns are independent) or on one of its two
-    edges (a one-column fit clipped at 0), so the better of those is the exact answer (the
-    Karush-Kuhn-Tucker conditions; Lawson & Hanson, Solving Least Squares Problems, 1974, ch. 23,
-    whose algorithm scipy.optimize.nnls implements: tests/test_lines.py checks the two agree).
-    Two columns is all the loss law needs, and scipy.optimize costs a build 0.2 s to import."""
-    a, b = np.asarray(a, dtype=float), np.asarray(b, dtype=float)
-    x, _, rank, _ = np.linalg.lstsq(a, b, rcond=None)
-    if rank == 2 and x[0] >= 0 and x[1] >= 0:
-        return float(x[0]), float(x[1])
-    best = (np.inf, 0.0, 0.0)
-    for i in (0, 1):
-        col = a[:, i]
-        norm2 = float(col @ col)
-        xi = max(0.0, float(col @ b) / norm2) if norm2 > 0 else 0.0
-        residual = float(np.sum((b - xi * col) ** 2))
-        if residual < best[0]:
-            best = (residual, xi, 0.0) if i == 0 else (residual, 0.0, xi)
-    return best[1], best[2]
 
 
 def reflection(z, z_ref=50.0) -> np.ndarray:
