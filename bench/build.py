@@ -13,6 +13,11 @@ Prints one table, everything measured in this run on this machine:
   solve    the whole solve of DEMO in this process (median of --repeats), against a NEC-2 sweep of
            the same design at the same frequencies, meshed as in the tests (bench/solve.py).
            Target ratio >= 1000x.
+Every process runs with its bytecode cached (PYTHONPYCACHEPREFIX, a temporary folder, written by one
+untimed run first), as an installed package runs (pip compiles it; an editable install caches it on
+the first run), whatever PYTHONDONTWRITEBYTECODE says: otherwise the build alone would compile its
+own modules on every run while the floors read the libraries' compiled files (`--no-bytecode-cache`:
+as the environment has it).
 Not a test: run `python bench/build.py` (`--build-only`: the build rows alone).
 """
 
@@ -84,15 +89,26 @@ canvas.save()
 """
 
 
+#: the folder of the timed processes' cached bytecode (PYTHONPYCACHEPREFIX), or None: as the
+#: environment has it (main sets it)
+BYTECODE: str | None = None
+
+
 def _env() -> dict:
     env = {k: v for k, v in os.environ.items() if k != "SOURCE_DATE_EPOCH"}
     env["PYTHONPATH"] = str(ROOT)
+    if BYTECODE is not None:
+        env.pop("PYTHONDONTWRITEBYTECODE", None)
+        env["PYTHONPYCACHEPREFIX"] = BYTECODE
     return env
 
 
 def run_process(args: list[str], repeats: int) -> float:
-    """Median wall time, s, of running `python args...` to completion (it must succeed)."""
+    """Median wall time, s, of running `python args...` to completion (it must succeed), after one
+    untimed run that writes the bytecode cache (when there is one)."""
     times = []
+    if BYTECODE is not None:
+        subprocess.run([sys.executable, *args], capture_output=True, env=_env(), cwd=ROOT)
     for _ in range(repeats):
         t = time.perf_counter()
         done = subprocess.run([sys.executable, *args], capture_output=True, text=True, env=_env(),
@@ -144,12 +160,20 @@ def main(argv=None) -> int:
     parser.add_argument("--handout-repeats", type=int, default=3, help="runs of the handout (median)")
     parser.add_argument("--build-only", action="store_true",
                         help="time only the single build against its floors (no handout, no NEC-2)")
+    parser.add_argument("--no-bytecode-cache", action="store_true",
+                        help="run the processes as the environment says (PYTHONDONTWRITEBYTECODE)")
     args = parser.parse_args(argv)
     rows = []
+    global BYTECODE
     print(f"machine: {os.cpu_count()} cores, load average {os.getloadavg()[0]:.2f} at the start; "
-          f"python {sys.version.split()[0]}", flush=True)
+          f"python {sys.version.split()[0]}; bytecode "
+          + ("as the environment has it (PYTHONDONTWRITEBYTECODE="
+             f"{os.environ.get('PYTHONDONTWRITEBYTECODE', '')!r})" if args.no_bytecode_cache else
+             "cached (PYTHONPYCACHEPREFIX in a temporary folder)"), flush=True)
     with tempfile.TemporaryDirectory() as tmp:
         tmp = pathlib.Path(tmp)
+        if not args.no_bytecode_cache:
+            BYTECODE = str(tmp / "pycache")
         build = ["-m", "buildsheet", "build", str(DEMO), "-o", str(tmp / "one"), "--date", DATE]
         modules = tmp / "modules.json"
         run_process(["-c", _LIST_MODULES, str(modules), *build[2:]], 1)

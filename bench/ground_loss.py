@@ -173,10 +173,11 @@ def dipoles(argv):
                 gn0 = tp._nec(o, h, g, method="reflection")
                 w = necref.dipole_wires(0.5 * tp.LAM, tp.THIN_D, centre, o)
                 eta_nec_cur = P.ground_efficiency(nec_sampled(gn2, w), tp.F, "real", eps_r, sigma)
+                # gains relative to P_field: the pattern's efficiency is P_upper / P_field, eta_ground
                 pat = P.pattern(tp.half_wave(centre, o), tp.F, "real", eps_r, sigma)
                 i, j = np.unravel_index(int(np.argmax(gn2.gain_dbi)), gn2.gain_dbi.shape)
                 r = dict(orientation=o, h_over_lam=h, ground=g, eta_gn2=gn2.radiated_fraction,
-                         eta_gn0=gn0.radiated_fraction, eta_sine=pat.eta_ground, eta_nec_currents=eta_nec_cur,
+                         eta_gn0=gn0.radiated_fraction, eta_sine=pat.efficiency, eta_nec_currents=eta_nec_cur,
                          gain_nec=float(gn2.gain_dbi[i, j]), takeoff_nec=float(90 - gn2.theta_deg[i]),
                          gain_sine=pat.max_gain_dbi, takeoff_sine=pat.takeoff_deg)
                 rows.append(r)

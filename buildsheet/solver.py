@@ -229,9 +229,18 @@ class Solution:
     assumptions: tuple = ()
     #: physics.choke.SleeveChoke: the quarter-wave sleeve built instead of the coil above HF, or None
     sleeve: object = None
-    radiation: radiation_physics.Radiation | None = None
+    #: the radiation pattern (radiation_physics.Radiation), or a Deferred that works it out on first
+    #: use: only the outputs that show it need it (read it as `radiation`)
+    pattern: object = dataclasses.field(default=None, repr=False, compare=False)
     #: StackData: the stacked version's figures, or None for a single half-wave
     stack: object = None
+
+    @property
+    def radiation(self) -> radiation_physics.Radiation | None:
+        """The far field at the design frequency (physics/radiation.py), worked out the first time
+        it is read; a DesignError if it holds a number that is not finite."""
+        p = self.pattern
+        return p() if isinstance(p, Deferred) else p
 
     @property
     def voltage_open_end_v_peak(self) -> float:
@@ -248,8 +257,9 @@ class Solution:
     def voltage_far_end_v_peak(self) -> float:
         return math.sqrt(2.0) * self.voltage_far_end_v_rms
 
-    def to_dict(self) -> dict:
-        """The JSON of DESIGN.md §6: SI units, fractions not percentages."""
+    def to_dict(self, radiation: bool = True) -> dict:
+        """The JSON of DESIGN.md §6: SI units, fractions not percentages (`radiation` False: None
+        in place of the pattern, which is then not worked out)."""
         s = self.sweep
         c = self.choke
         e = self.exposure
@@ -307,9 +317,37 @@ class Solution:
             "warnings": list(self.warnings),
             "rating_warnings": [f.to_dict() for f in self.findings],
             "assumptions": list(self.assumptions),
-            "radiation": radiation_json(self.radiation),
+            "radiation": radiation_json(self.radiation) if radiation else None,
             "stack": None if self.stack is None else self.stack.to_dict(),
         }
+
+
+class Deferred:
+    """A figure of a Solution worked out the first time it is asked for and kept (the radiation
+    pattern: a few ms of a solve that only the sheet, its figure and `solve`'s output show).
+    Shared by the copies dataclasses.replace makes; pickled as its value."""
+    __slots__ = ("_make", "_value")
+
+    def __init__(self, make):
+        self._make, self._value = make, None
+
+    @property
+    def ready(self) -> bool:
+        return self._make is None
+
+    def __call__(self):
+        if self._make is not None:
+            self._value, self._make = self._make(), None
+        return self._value
+
+    def __reduce__(self):
+        return _ready, (self(),)
+
+
+def _ready(value) -> Deferred:
+    done = Deferred(None)
+    done._value = value
+    return done
 
 
 def radiation_json(r: radiation_physics.Radiation | None) -> dict | None:
@@ -444,20 +482,14 @@ def solution_problems(solution: Solution) -> list[str]:
     """What is impossible in a Solution: a number that is not a finite real, an efficiency outside
     0..1, a negative power, distance, voltage or current, an SWR below 1, a dimension that is not
     positive or a tap above the open top. Empty for a sound solution."""
-    problems = []
     # the JSON form, and every field itself (some, such as the wrap allowance, are not in the JSON)
     fields = {f.name: getattr(solution, f.name) for f in dataclasses.fields(solution)}
     fields = {k: (dataclasses.asdict(v) if dataclasses.is_dataclass(v) else v) for k, v in fields.items()
-              if k not in ("cut_list", "hardware", "sweep", "feed_impedance", "radiation")}   # (in the JSON)
-    numbers = list(_numbers(solution.to_dict(), "")) + list(_numbers(fields, ""))
-    for where, value in numbers:
-        try:
-            finite = isinstance(value, (int, float, np.integer, np.floating)) and math.isfinite(value)
-        except (TypeError, OverflowError):
-            finite = False
-        if not finite:
-            kind = "complex " if isinstance(value, (complex, np.complexfloating)) else ""
-            problems.append(f"{where} is {kind}{value!r}")
+              if k not in ("cut_list", "hardware", "sweep", "feed_impedance", "pattern")}   # (in the JSON)
+    # a pattern not yet worked out is checked when it is (_radiation_checked), not worked out here
+    pending = isinstance(solution.pattern, Deferred) and not solution.pattern.ready
+    numbers = list(_numbers(solution.to_dict(radiation=not pending), "")) + list(_numbers(fields, ""))
+    problems = _not_finite(numbers)
     if problems:
         return problems
     d, e = solution.dimensions, solution.exposure
@@ -483,10 +515,36 @@ def solution_problems(solution: Solution) -> list[str]:
     return problems
 
 
+def _not_finite(numbers) -> list[str]:
+    """The faults among (dotted path, number) pairs: a number that is not a finite real."""
+    problems = []
+    for where, value in numbers:
+        try:
+            finite = isinstance(value, (int, float, np.integer, np.floating)) and math.isfinite(value)
+        except (TypeError, OverflowError):
+            finite = False
+        if not finite:
+            kind = "complex " if isinstance(value, (complex, np.complexfloating)) else ""
+            problems.append(f"{where} is {kind}{value!r}")
+    return problems
+
+
+def _radiation_checked(design: Design, prep, radiator: float, stub: float, efficiency: float):
+    """The pattern of the solved design (radiation_physics.radiation), refused like check_solution
+    when a number of it is not finite: what a Solution's Deferred pattern works out."""
+    with _refusals(design), np.errstate(all="ignore"):     # a null's log is floored, not warned about
+        r = radiation_physics.radiation(prep, radiator, stub, efficiency)
+    _refuse(_not_finite(_numbers(radiation_json(r), "radiation")), design)
+    return r
+
+
 def check_solution(solution: Solution, design: Design) -> None:
     """Refuse (DesignError, one line) a Solution with a non-finite or physically impossible number,
     so that nothing of the kind reaches a sheet, a figure, a booklet or the JSON."""
-    problems = solution_problems(solution)
+    _refuse(solution_problems(solution), design)
+
+
+def _refuse(problems: list[str], design: Design) -> None:
     if problems:
         more = f" (and {len(problems) - 1} more)" if len(problems) > 1 else ""
         raise DesignError(f"the model gave an impossible result for this design: {problems[0]}{more}; "
@@ -523,10 +581,11 @@ def _solve(design: Design) -> Solution:
         raise DesignError(" ".join(str(exc).split()), file=design.path, key="site.height") from None
     sens = jpole.sensitivities(f0, ant, radiator, stub, tap, z_feed, prepared=at_f0)
     with np.errstate(all="ignore"):     # a null's log is floored, not warned about
-        pattern = radiation_physics.radiation(at_f0, radiator, stub, state.efficiency)
         directivity = radiation_physics.free_space_directivity_dbi(at_f0, radiator, stub)
+    pattern = Deferred(lambda: _radiation_checked(design, at_f0, radiator, stub, state.efficiency))
 
-    stack = None if ant.stack is None else _stack_data(design, ant, state, pattern)
+    # the stacked version's gain over the single one needs the pattern now (its Deferred keeps it)
+    stack = None if ant.stack is None else _stack_data(design, ant, state, pattern())
     ch = choke_physics.design_coax_choke(f0, high, design.feed.choke_form_m,
                                          design.feed.coax_outer_diameter_m, f_band_low=low)
     # exposure takes no credit for the power the ground absorbs (that happens in the ground's near
@@ -563,7 +622,7 @@ def _solve(design: Design) -> Solution:
                       "coax": design.power.transmitter_w - p_tap},
         sensitivity=sens._asdict(),
         choke=ch, exposure=exposure, first_cut=first, parts=parts, warnings=envelope_warnings(design),
-        sleeve=sl, radiation=pattern, stack=stack,
+        sleeve=sl, pattern=pattern, stack=stack,
     )
 
 

@@ -355,3 +355,20 @@ def test_band_named_forgives_spacing_and_hints():
 def test_regions_other_than_1_2_3_are_refused(region):
     with pytest.raises(DesignError, match="ITU region must be 1, 2 or 3"):
         catalog().bands(region)
+
+
+def test_the_catalogue_reads_alike_with_libyaml_and_pyyaml():
+    # catalog._raw reads with libyaml's parser where PyYAML has it (speed); PyYAML's own pure-Python
+    # SafeLoader must give the same data, value for value and type for type
+    import importlib.resources
+
+    import yaml
+
+    from buildsheet import catalog as catalog_module
+
+    text = importlib.resources.files("buildsheet").joinpath("data/catalog.yaml").read_text(encoding="utf-8")
+    python = yaml.load(text, Loader=yaml.SafeLoader)
+    if not yaml.__with_libyaml__:
+        pytest.skip("this PyYAML has no libyaml: _raw reads with the pure-Python loader itself")
+    assert catalog_module._raw() == python
+    assert repr(catalog_module._raw()) == repr(python)      # types too (1 and 1.0, True and 'yes')

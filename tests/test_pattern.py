@@ -217,7 +217,7 @@ def test_max_gain_and_takeoff_against_nec(orientation, h_over_lam, ground):
 
 def test_pattern_cuts_pass_through_the_maximum():
     """The elevation cut contains the maximum at the take-off angle and the azimuth cut's maximum is
-    the maximum gain (consistency of the returned cuts, 1-degree grids)."""
+    the maximum gain (consistency of the returned cuts, on the finder's grids)."""
     p = P.pattern(half_wave(0.5 * LAM), F, "real", *GROUNDS["average"])
     k = int(np.argmin(np.abs(p.elevation_deg - p.takeoff_deg)))
     assert p.elevation_gain_dbi[k] == pytest.approx(p.max_gain_dbi, abs=0.01)

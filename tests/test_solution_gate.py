@@ -191,3 +191,30 @@ def test_the_gate_reads_numpy_scalars(oak_solution):
     _, solution = oak_solution
     bad = dataclasses.replace(solution, efficiency=np.float64(np.nan))
     assert solver.solution_problems(bad)
+
+
+def test_the_pattern_is_worked_out_only_when_read_and_gated_then(tmp_path, monkeypatch):
+    # the radiation pattern is a few ms of a solve that only the sheet, its figure and `solve`'s
+    # output show: solve() leaves it to the first read, which gates it like the rest
+    design = load_design(OAK)
+    solution = solver.solve(design)
+    assert isinstance(solution.pattern, solver.Deferred) and not solution.pattern.ready
+    assert solver.solution_problems(solution) == [] and not solution.pattern.ready
+    copy = dataclasses.replace(solution, warnings=())
+    first = copy.radiation
+    assert solution.pattern.ready and solution.radiation is first     # worked out once, shared
+    assert solution.to_dict()["radiation"]["max_gain_dbi"] == first.max_gain_dbi
+
+    real = solver.radiation_physics.radiation
+
+    def nan_gain(*args):
+        return dataclasses.replace(real(*args), max_gain_dbi=math.nan)
+
+    monkeypatch.setattr(solver.radiation_physics, "radiation", nan_gain)
+    with pytest.raises(solver.DesignError, match="impossible result.*radiation.max_gain_dbi is nan"):
+        solver.solve(design).radiation
+    for argv in (["build", OAK, "-o", tmp_path / "out"], ["solve", "--json", OAK], ["solve", OAK]):
+        status, stdout, err = _run(argv)
+        assert status == 2 and err.startswith("error: ") and len(err.strip().splitlines()) == 1, err
+        assert str(OAK) in err and "radiation.max_gain_dbi" in err and stdout == ""
+    assert not (tmp_path / "out").exists()

@@ -21,6 +21,7 @@ Symbols (SI throughout unless a formula says otherwise):
 
 from __future__ import annotations
 
+import functools
 from dataclasses import dataclass
 
 import numpy as np
@@ -188,13 +189,33 @@ def coil_self_resonance(d_mean, pitch, cable_od, turns):
 
     d_mean: D, m; pitch: p, m; cable_od: m; turns: N.
     """
+    return _self_resonance(d_mean, pitch, cable_od, turns, None)
+
+
+def _self_resonance(d_mean, pitch, cable_od, turns, inductance):
+    """coil_self_resonance with the coil's inductance given (coil_inductance's, or None to work it
+    out): the choke sizing has it already."""
     n = int(turns)
     d = float(d_mean)
     if n == 1:
         return C0 / (2.0 * np.pi * d) * (_LOOP_K[0] + _LOOP_K[1] * np.log(d / cable_od))
+    if inductance is None:
+        inductance = coil_inductance(d, pitch, cable_od, n)
     l_over_d = n * pitch / d
     c_eff = epsilon_0 * d * (_C_END[0] + _C_END[1] * cable_od / d + _C_END[2] * l_over_d + _C_END[3] / n)
-    return 1.0 / (2.0 * np.pi * np.sqrt(coil_inductance(d, pitch, cable_od, n) * c_eff))
+    return 1.0 / (2.0 * np.pi * np.sqrt(inductance * c_eff))
+
+
+@functools.lru_cache(maxsize=64)
+def _coils(d_mean, pitch, cable_od, max_turns):
+    """(L, f_srf): the inductance (H) and self-resonance (Hz) of 1..max_turns close-wound turns,
+    arrays, worked out once per form and coax in a process (a handout's designs and a fit's solves
+    share them); read-only."""
+    turns = range(1, max_turns + 1)
+    L = np.array([coil_inductance(d_mean, pitch, cable_od, n) for n in turns])
+    srf = np.array([_self_resonance(d_mean, pitch, cable_od, n, L[n - 1]) for n in turns])
+    L.flags.writeable = srf.flags.writeable = False
+    return L, srf
 
 
 def coil_impedance_line(f, L, f_srf, R=0.0):
@@ -291,11 +312,10 @@ def design_coax_choke(f_design, f_band_high, form_od, cable_od, z_target=1000.0,
     d_mean = form_od + cable_od
     pitch = cable_od
     turns = np.arange(1, int(max_turns) + 1)
-    L = np.array([coil_inductance(d_mean, pitch, cable_od, n) for n in turns])
-    srf = np.array([coil_self_resonance(d_mean, pitch, cable_od, n) for n in turns])
-    z = np.abs(np.array([coil_impedance_line(band, L[k], srf[k],
-                                             shield_resistance(band, d_mean, cable_od, n))
-                         for k, n in enumerate(turns)]))
+    L, srf = _coils(float(d_mean), float(pitch), float(cable_od), int(max_turns))
+    # |Z| of every number of turns (rows) at every frequency of the band (columns)
+    z = np.abs(coil_impedance_line(band, L[:, None], srf[:, None],
+                                   shield_resistance(band, d_mean, cable_od, turns[:, None])))
     z_least = z.min(axis=1)
     clears = srf >= srf_margin * f_band_high
     meets = clears & (z_least >= z_target)

@@ -107,7 +107,7 @@ from dataclasses import dataclass
 import numpy as np
 
 from buildsheet.physics import ModelError
-from buildsheet.physics.constants import epsilon_0
+from buildsheet.physics.constants import C0, epsilon_0
 from buildsheet.physics.radiator import ETA0, wavenumber
 
 GROUND_KINDS = ("free-space", "perfect", "real")
@@ -159,14 +159,14 @@ def open_line_wire(start, direction, length: float, i_in: complex, gamma: comple
 
 @dataclass(frozen=True)
 class Pattern:
-    """The far-field pattern over the ground, gains in dBi relative to the input power p_in.
-
-    max_gain_dbi, takeoff_deg (elevation of the maximum, degrees above the horizon; over ground
-    0..90, in free space -90..90), azimuth_deg (azimuth of the maximum, degrees from +x toward +y);
-    elevation_deg, elevation_gain_dbi: the elevation cut in the vertical plane through the maximum,
-    elevation from 0 (horizon, toward the maximum) over the zenith to 180 (the opposite horizon)
-    (-90..270 in free space); azimuth_cut_deg, azimuth_gain_dbi: the azimuth cut at the take-off
-    elevation, 0..360; p_in: the power the gains refer to, W; eta_ground: P_upper/P_field."""
+    """The far-field pattern over the ground (angles in degrees, gains in dBi relative to the power
+    the gains refer to): max_gain_dbi, takeoff_deg (the elevation of the maximum, above the horizon;
+    over ground 0..90, in free space -90..90), azimuth_deg (the maximum's azimuth, from +x toward
+    +y); elevation_deg and elevation_gain_dbi, the elevation cut in the vertical plane through the
+    maximum, from 0 (the horizon toward the maximum) over the zenith to 180 (the opposite horizon),
+    -90..270 in free space; azimuth_cut_deg and azimuth_gain_dbi, the azimuth cut at the take-off
+    elevation, 0..360; efficiency, the factor from directivity to gain (the space wave's power over
+    the power the gains refer to); ground_kind. Found by pattern_of (see there)."""
     max_gain_dbi: float
     takeoff_deg: float
     azimuth_deg: float
@@ -174,8 +174,8 @@ class Pattern:
     elevation_gain_dbi: np.ndarray
     azimuth_cut_deg: np.ndarray
     azimuth_gain_dbi: np.ndarray
-    p_in: float
-    eta_ground: float
+    efficiency: float
+    ground_kind: str
 
 
 def _check_ground(ground_kind: str):
@@ -481,48 +481,119 @@ def gain_dbi(wires, f: float, theta, phi, p_in: float, ground_kind: str = "free-
     return 10 * np.log10(np.maximum(g, 1e-30))
 
 
+#: the coarse grid the maximum is first searched on, degrees (elevation, azimuth)
+COARSE_EL_DEG, COARSE_AZ_DEG = 3.0, 10.0
+#: the fine elevation step of the second scan and the elevation cut, at most, degrees
+FINE_EL_DEG = 0.5
+#: the azimuth cut's angle step, degrees
+CUT_STEP_DEG = 2.0
+#: grid points per elevation lobe of the fine scan over ground
+LOBE_POINTS = 6
+#: gains below this are reported as this, dBi (a null: the -300 dBi floor of gain_dbi is not a figure)
+FLOOR_DBI = -99.0
+
+
+def _parabola_peak(y_minus: float, y0: float, y_plus: float) -> float:
+    """Offset (in grid steps, -0.5..0.5) of the vertex of the parabola through three equally spaced
+    points around a grid maximum."""
+    den = y_minus - 2 * y0 + y_plus
+    if den >= 0:
+        return 0.0
+    return float(np.clip(0.5 * (y_minus - y_plus) / den, -0.5, 0.5))
+
+
+def _lobe_spacing_deg(wires, f: float, ground_kind: str) -> float:
+    """The elevation lobes' spacing over ground, lambda / (2 z_top) rad, in degrees (z_top: the
+    wires' highest point, at least a quarter wave); in free space there are none (180)."""
+    if ground_kind == "free-space":
+        return 180.0
+    z_top = max(max(w.start[2], w.start[2] + w.length * w.direction[2]) for w in wires)
+    lam = C0 / f
+    return float(np.degrees(lam / (2 * max(z_top, lam / 4))))
+
+
+def first_max(g: np.ndarray) -> tuple[int, int]:
+    """Index of the largest gain, the first (lowest elevation, then azimuth) of those equal to 9
+    digits: the wires lie in one vertical plane, so the pattern is its mirror image across it and
+    two azimuths tie exactly but for rounding; which one wins must not depend on the last bit."""
+    i, j = np.unravel_index(int(np.argmax(np.round(g / np.max(g), 9))), g.shape)
+    return int(i), int(j)
+
+
+def maximum(gain, wires, f: float, kind: str) -> tuple[float, float, float, float]:
+    """(elevation, azimuth, gain) of the maximum of gain(el_deg, az_deg) (a ratio, broadcast
+    arrays) and the fine elevation step used, degrees. The maximum is found on a coarse grid
+    (COARSE_EL_DEG by COARSE_AZ_DEG), its elevation scanned again finely (FINE_EL_DEG, finer where
+    the ground's lobes are narrow) at the best azimuth and its two neighbours, and refined by a
+    parabola through the grid maximum and its neighbours in each angle (the gain near a smooth
+    maximum is quadratic; the refinement moves it by under a grid step)."""
+    lo = -90.0 if kind == "free-space" else 0.0
+    az_step = COARSE_AZ_DEG
+    el = np.arange(lo, 90.0 + COARSE_EL_DEG / 2, COARSE_EL_DEG)
+    az = np.arange(0.0, 360.0, az_step)
+    g = gain(el[:, None], az[None, :])
+    j = first_max(g)[1]
+    # over ground, the direct and reflected waves make lobes in elevation about lambda / (2 z_top)
+    # rad apart (z_top: the highest point): a high VHF antenna's lobes are narrower than the
+    # grid, so the elevation is scanned again finely at the best azimuth and its neighbours
+    step = min(FINE_EL_DEG, _lobe_spacing_deg(wires, f, kind) / LOBE_POINTS)
+    el = np.arange(lo, 90.0 + step / 2, step)
+    az = az[[j - 1, j, (j + 1) % len(az)]]
+    g = gain(el[:, None], az[None, :])
+    i, j = first_max(g)
+    d_az = _parabola_peak(g[i, j - 1], g[i, j], g[i, j + 1]) * az_step if j == 1 else 0.0
+    d_el = (_parabola_peak(g[i - 1, j], g[i, j], g[i + 1, j]) * step if 0 < i < len(el) - 1 else 0.0)
+    e_max, a_max = round(float(el[i] + d_el), 6), round(float(az[j] + d_az), 6) % 360.0
+    g_max = float(gain(np.array(e_max), np.array(a_max)))
+    if g_max < g[i, j]:
+        e_max, a_max, g_max = float(el[i]), float(az[j]), float(g[i, j])
+    return e_max, a_max, g_max, step
+
+
+def dbi(x):
+    """A gain ratio in dBi, floored at FLOOR_DBI."""
+    return np.maximum(10 * np.log10(np.maximum(x, 1e-30)), FLOOR_DBI)
+
+
+def power_gain(wires, f: float, ground_kind: str, eps_r: float, sigma: float, scale: float):
+    """gain(el_deg, az_deg) = scale |E|^2 (E: far_field, V rms times r e^{jkr}), a ratio, at
+    elevation and azimuth in degrees (broadcast arrays); scale = 4 pi / (eta0 P) gives the gain
+    relative to the power P."""
+    def gain(el_deg, az_deg):
+        e_th, e_ph = far_field(wires, f, np.radians(90.0 - el_deg), np.radians(az_deg), ground_kind,
+                               eps_r, sigma)
+        return scale * (np.abs(e_th) ** 2 + np.abs(e_ph) ** 2)
+    return gain
+
+
+def pattern_of(gain, wires, f: float, kind: str, efficiency: float) -> Pattern:
+    """The Pattern of gain(el_deg, az_deg) (a ratio, broadcast arrays; the wires' far field over
+    the ground `kind`, with `efficiency` its factor from directivity to gain): the maximum
+    (maximum()), the elevation cut through it every fine step (beyond 90: the far side of the
+    zenith) and the azimuth cut at its elevation every CUT_STEP_DEG."""
+    e_max, a_max, g_max, step = maximum(gain, wires, f, kind)
+    lo = -90.0 if kind == "free-space" else 0.0
+    e_cut = np.arange(lo, 180.0 - lo + step / 2, step)
+    far = e_cut > 90.0
+    g_el = gain(np.where(far, 180.0 - e_cut, e_cut), np.where(far, a_max + 180.0, a_max))
+    a_cut = np.arange(0.0, 360.0, CUT_STEP_DEG)
+    g_az = gain(np.full_like(a_cut, e_max), a_cut)
+    return Pattern(max_gain_dbi=float(dbi(g_max)), takeoff_deg=e_max, azimuth_deg=a_max,
+                   elevation_deg=e_cut, elevation_gain_dbi=dbi(g_el), azimuth_cut_deg=a_cut,
+                   azimuth_gain_dbi=dbi(g_az), efficiency=float(efficiency), ground_kind=kind)
+
+
 def pattern(wires, f: float, ground_kind: str = "free-space", eps_r: float = 13.0,
-            sigma: float = 0.005, p_in: float | None = None, step_deg: float = 1.0) -> Pattern:
-    """The pattern of the wires' currents at f (Hz) over the ground: the maximum gain (dBi, relative
-    to p_in, W; default the power the currents put into the field, P_field, so lossless), its
-    elevation (the take-off angle) and azimuth, found on a step_deg grid (elevation; twice that in
-    azimuth) and polished by a Nelder-Mead search; the elevation cut through the maximum and the
-    azimuth cut at the take-off angle, every step_deg degrees. See Pattern for the angles."""
+            sigma: float = 0.005, p_in: float | None = None) -> Pattern:
+    """The pattern of the wires' currents at f (Hz) over the ground, gains relative to p_in (W;
+    default the power the currents put into the field, P_field, so lossless): pattern_of with
+    efficiency P_upper / p_in (powers())."""
     _check_ground(ground_kind)
     pw = powers(wires, f, ground_kind, eps_r, sigma)
     p_in = pw.p_field if p_in is None else float(p_in)
-    lo = 0.0 if ground_kind != "free-space" else -90.0
-    el = np.radians(np.arange(lo, 90.0 + step_deg / 2, step_deg))
-    az = np.radians(np.arange(0.0, 360.0, 2 * step_deg))
-    g = gain_dbi(wires, f, np.pi / 2 - el[:, None], az[None, :], p_in, ground_kind, eps_r, sigma)
-    i, j = np.unravel_index(int(np.argmax(g)), g.shape)
-
-    def neg_gain(x):
-        e = np.clip(x[0], lo, 90.0)
-        return -float(gain_dbi(wires, f, np.radians(90.0 - e), np.radians(x[1]), p_in,
-                               ground_kind, eps_r, sigma))
-
-    start = np.degrees([el[i], az[j]])
-    from scipy.optimize import minimize     # imported where used: slow to import
-
-    res = minimize(neg_gain, start, method="Nelder-Mead",
-                   options={"xatol": 0.01, "fatol": 1e-6, "initial_simplex":
-                            [start, start + [step_deg / 2, 0], start + [0, step_deg]]})
-    e_max = float(np.clip(res.x[0], lo, 90.0))
-    a_max = float(res.x[1] % 360.0)
-    g_max = -float(res.fun)
-    if g_max < g[i, j]:                      # the polish never makes it worse
-        e_max, a_max, g_max = float(start[0]), float(start[1]), float(g[i, j])
-    # the elevation cut: elevation e in [lo, 180 - lo] toward a_max (beyond 90: the far side)
-    e_cut = np.arange(lo, 180.0 - lo + step_deg / 2, step_deg)
-    far = e_cut > 90.0
-    th_cut = np.radians(np.where(far, e_cut - 90.0, 90.0 - e_cut))
-    ph_cut = np.radians(np.where(far, a_max + 180.0, a_max))
-    g_el = gain_dbi(wires, f, th_cut, ph_cut, p_in, ground_kind, eps_r, sigma)
-    a_cut = np.arange(0.0, 360.0, step_deg)
-    g_az = gain_dbi(wires, f, np.radians(90.0 - e_max), np.radians(a_cut), p_in, ground_kind,
-                    eps_r, sigma)
-    return Pattern(g_max, e_max, a_max, e_cut, g_el, a_cut, g_az, p_in, pw.eta_ground)
+    gain = power_gain(wires, f, ground_kind, eps_r, sigma, 4 * np.pi / (ETA0 * p_in))
+    with np.errstate(divide="ignore"):      # a null's log is floored
+        return pattern_of(gain, wires, float(f), ground_kind, pw.p_upper / p_in)
 
 
 #: largest phase k z_top (rad) the fixed theta nodes integrate the space wave of a high antenna over
