@@ -389,8 +389,8 @@ def _coax_power(design, s) -> list[Finding]:
     if avg <= allowed:
         return []
     lost = pep - s.power_at_tap_w
-    length = units.format_length(design.feed.length_m, design.output.units)
-    per_m = lost * duty / max(design.feed.length_m, 1e-9)
+    length = units.format_length(s.feed_coax_m, design.output.units)
+    per_m = lost * duty / max(s.feed_coax_m, 1e-9)
     derated = (f", {_w(allowed)} at the SWR {(1 + rho) / (1 - rho):.2f} on the coax (its current "
                f"maxima carry {1 + rho:.2f} x the matched current)" if rho > 0.01 else "")
     return [Finding(

@@ -259,7 +259,8 @@ TABLE: tuple = (
     Key("feed.impedance", "impedance", ABSENT, "the coax's impedance", lo=10.0, hi=600.0, show=ohm,
         why="what a coax or balun feed can present", meaning="the impedance the tap is matched to"),
     Key("feed.length", "length", "15 m", lo=0.0, hi=500.0, show=metres, readme=_g("m"),
-        why="a run to the station, not a cable drum", meaning="coax length from the tap to the transmitter"),
+        why="a run to the station, not a cable drum", meaning="the coax's run from the tap to the transmitter (the cut list adds the choke's turns "
+                "and a pigtail; the station-end figures go through all of it)"),
     Key("feed.choke_form", "length", "110 mm", lo=10e-3, hi=0.6, show=mm,
         why="something coax can be wound on",
         meaning="outer diameter of the form the choke's coax is wound on"),

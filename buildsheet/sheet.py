@@ -117,11 +117,11 @@ def dip_rule(s: Solution, u: str) -> tuple[float, bool]:
     return (min(df, df_short) if short_moves_dip else df), short_moves_dip
 
 
-def station_matched_loss_db(d: Design) -> float:
+def station_matched_loss_db(d: Design, s: Solution) -> float:
     """The matched loss of the design's feed coax at the design frequency, dB (as the solver takes it:
-    solver.coax_line_model over feed.length)."""
+    solver.coax_line_model over the coax as cut, Solution.feed_coax_m)."""
     coax = coax_line_model(d)
-    return float(matched_loss_db(coax.gamma(d.frequency_hz).real * DB_PER_NEPER, d.feed.length_m))
+    return float(matched_loss_db(coax.gamma(d.frequency_hz).real * DB_PER_NEPER, s.feed_coax_m))
 
 
 def station_swr(swr_tap: float, matched_db: float) -> float:
@@ -601,7 +601,8 @@ class _Context:
             Facts((
                 ("feed impedance", _e(f"{_z(s.feed_impedance)} at {self.f0}")),
                 ("SWR", _e(f"{_swr(s.feed_swr)}:1 at the tap, {_swr(s.feed_swr_transmitter)}:1 at the "
-                           f"transmitter (through {self.length(d.feed.length_m)} of {d.feed.coax})")),
+                           f"transmitter (through {self.length(s.feed_coax_m, coarse=True)} of {d.feed.coax}, "
+                           "the choke's turns included)")),
                 ("2:1 band", _e(_band(s.band_swr2_hz))),
                 ("1.5:1 band", _e(_band(s.band_swr15_hz))),
                 ("coax loss", _e(f"{s.coax_loss_db:.2f} dB; {_watts(s.power_at_tap_w)} PEP "
@@ -847,9 +848,9 @@ class _Context:
         marks = sorted(marks)[:STATION_POINTS]
         rows = tuple((_freq(f), _swr(float(np.interp(f, sw.frequency_hz, sw.swr_transmitter))),
                       _swr(float(np.interp(f, sw.frequency_hz, sw.swr)))) for f in marks)
-        matched_db = station_matched_loss_db(d)
+        matched_db = station_matched_loss_db(d, s)
         return dict(station_rows=rows, coax_matched_loss=f"{matched_db:.1f}",
-                    feed_length=self.length(d.feed.length_m, coarse=True),
+                    feed_length=self.length(s.feed_coax_m, coarse=True),
                     stop_swr_station=_swr(station_swr(STOP_SWR, matched_db)))
 
     def as_built_values(self) -> dict:

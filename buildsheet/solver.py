@@ -206,6 +206,9 @@ class Solution:
     feed_impedance: complex
     feed_swr: float
     feed_swr_transmitter: float
+    #: the feed coax between the tap and the station as cut (feed_coax_length_m: the run, the
+    #: choke's turns and the pigtail), m: what the station-end figures and the coax loss go through
+    feed_coax_m: float
     sweep: Sweep
     band_swr2_hz: tuple | None
     band_swr15_hz: tuple | None
@@ -285,7 +288,8 @@ class Solution:
                                      "radiator": self.first_cut.radiator_source}},
             "hardware": [{"item": h.item, "quantity": h.quantity, "note": h.note} for h in self.hardware],
             "feed": {"impedance_ohm": [self.feed_impedance.real, self.feed_impedance.imag],
-                     "swr": self.feed_swr, "swr_transmitter": self.feed_swr_transmitter},
+                     "swr": self.feed_swr, "swr_transmitter": self.feed_swr_transmitter,
+                     "coax_length_m": self.feed_coax_m},
             "sweep": {"frequency_hz": s.frequency_hz.tolist(), "swr": s.swr.tolist(),
                       "swr_transmitter": s.swr_transmitter.tolist(), "r_ohm": s.r_ohm.tolist(),
                       "x_ohm": s.x_ohm.tolist()},
@@ -564,14 +568,21 @@ def _solve(design: Design) -> Solution:
     f = np.union1d(f, [f0])
     z = jpole.feed_impedance(f, ant, radiator, stub, tap)
     swr_feed = swr(z, z_feed)
+    ch = choke_physics.design_coax_choke(f0, high, design.feed.choke_form_m,
+                                         design.feed.coax_outer_diameter_m, f_band_low=low)
+    from buildsheet import sleeve as sleeve_module
+    sl = sleeve_module.sleeve_for(design, ch)
+    # the station sees the antenna through all the coax that is cut: the run, the choke's turns and
+    # the pigtail (the cut list's feed coax)
+    coax_m = feed_coax_length_m(design, ch, sl)
     coax = coax_line_model(design)
-    z_tx = through_coax(z, coax, f, design.feed.length_m)
+    z_tx = through_coax(z, coax, f, coax_m)
     swr_tx = swr(z_tx, design.feed.coax_z0_ohm)
     i0 = int(np.argmin(np.abs(f - f0)))
 
     # power reaching the tap: the transmitter's PEP less the coax loss at the design frequency
     # (matched loss plus the extra loss from the mismatch on the coax, exact for real Z0)
-    matched_db = float(matched_loss_db(coax.gamma(f0).real * DB_PER_NEPER, design.feed.length_m))
+    matched_db = float(matched_loss_db(coax.gamma(f0).real * DB_PER_NEPER, coax_m))
     rho = float(abs(reflection(z[i0], design.feed.coax_z0_ohm)))
     loss_db = float(total_loss_db(matched_db, min(rho, 0.999999)))
     p_tap = design.power.transmitter_w * 10 ** (-loss_db / 10)
@@ -586,8 +597,6 @@ def _solve(design: Design) -> Solution:
 
     # the stacked version's gain over the single one needs the pattern now (its Deferred keeps it)
     stack = None if ant.stack is None else _stack_data(design, ant, state, pattern())
-    ch = choke_physics.design_coax_choke(f0, high, design.feed.choke_form_m,
-                                         design.feed.coax_outer_diameter_m, f_band_low=low)
     # exposure takes no credit for the power the ground absorbs (that happens in the ground's near
     # field under the antenna, where people stand): the field's share of what reaches the tap
     exposure = _exposure(design, state.p_field / state.p_delivered, loss_db, directivity)
@@ -599,8 +608,6 @@ def _solve(design: Design) -> Solution:
                              loss_db_per_100ft=float(gamma_line.real * DB_PER_NEPER * 100 * FT))
     dims = Dimensions(radiator=radiator, stub=stub, tap=tap, spacing=design.stub.spacing_m)
     first = first_cut(design, dims, stub_data.velocity_factor)
-    from buildsheet import sleeve as sleeve_module
-    sl = sleeve_module.sleeve_for(design, ch)
     parts = _parts(design, dims, ch)
     cut, hardware = _cut_list(design, dims, wrap, ch, first, parts, sl, ant.stack)
     return Solution(
@@ -610,7 +617,7 @@ def _solve(design: Design) -> Solution:
             wrap if parts.construction == "twin-lead" else 2 * wrap),   # one free end, or two
         wrap_allowance_m=wrap, stub_line=stub_data,
         cut_list=cut, hardware=hardware, feed_impedance=complex(z[i0]), feed_swr=float(swr_feed[i0]),
-        feed_swr_transmitter=float(swr_tx[i0]),
+        feed_swr_transmitter=float(swr_tx[i0]), feed_coax_m=coax_m,
         sweep=Sweep(frequency_hz=f, swr=swr_feed, swr_transmitter=swr_tx, r_ohm=z.real, x_ohm=z.imag),
         band_swr2_hz=band_edges(f, swr_feed, f0, 2.0), band_swr15_hz=band_edges(f, swr_feed, f0, 1.5),
         power_at_tap_w=p_tap, coax_loss_db=loss_db,
@@ -1169,12 +1176,18 @@ def _tap_leads(design: Design, d: Dimensions) -> CutItem:
                    "coax centre to the radiator-side conductor, braid to the other")
 
 
-def _feed_pieces(design: Design, ch, parts: Parts, sleeve) -> list:
-    """The feed coax and the choke's form or sleeve: the same for every construction."""
+def feed_coax_length_m(design: Design, ch, sleeve) -> float:
+    """The feed coax as cut, m: the run to the station (`feed.length`), the choke's turns (none with
+    a sleeve) and a pigtail at the tap (common practice: 30 cm, 10 cm at VHF and up)."""
     coil_coax = 0.0 if sleeve is not None else ch.turns * math.pi * ch.mean_diameter_m
     pigtail = 0.30 if design.wavelength_m > 3 else 0.10
-    items = [CutItem("feed coax", design.feed.coax, design.feed.length_m + coil_coax + pigtail, 1,
-                     coil_coax + pigtail,
+    return design.feed.length_m + coil_coax + pigtail
+
+
+def _feed_pieces(design: Design, ch, parts: Parts, sleeve) -> list:
+    """The feed coax and the choke's form or sleeve: the same for every construction."""
+    total = feed_coax_length_m(design, ch, sleeve)
+    items = [CutItem("feed coax", design.feed.coax, total, 1, total - design.feed.length_m,
                      "run to the station, plus the choke turns and a pigtail at the tap" if sleeve is None
                      else "run to the station, plus a pigtail at the tap", coarse=True)]
     if sleeve is None:

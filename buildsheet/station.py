@@ -92,7 +92,7 @@ def feed_coax(design: Design, solution: Solution) -> Coax:
     item = next(i for i in solution.cut_list if i.part == "feed coax")
     line = coax_line_model(design)
     f0 = design.frequency_hz
-    coax = Coax(name=design.feed.coax, line=line, length_m=float(item.length_m),
+    coax = Coax(name=design.feed.coax, line=line, length_m=float(solution.feed_coax_m),
                 z0_ohm=float(design.feed.coax_z0_ohm), loss_db_f0=0.0, frequency_hz=f0, note=item.note)
     return dataclasses.replace(coax, loss_db_f0=float(coax.loss_db(f0)))
 

@@ -181,7 +181,7 @@ def expected_lengths(design, solution) -> dict[str, dict[str, float]]:
                         **({"inside": solution.sleeve.sleeve_inner_diameter_m,
                             "outside": solution.sleeve.cable_od_m}
                            if design.output.units == "metric" else {})}),
-        "swr": {"coax": design.feed.length_m},
+        "swr": {"coax": solution.feed_coax_m},     # the coax as cut: run, choke turns, pigtail
         "smith": {},
     }
 

@@ -1398,7 +1398,7 @@ def _swr(ctx: _Context) -> Drawing:
     plot = plots.swr_plot(sw.frequency_hz, sw.swr, sw.swr_transmitter, s.band_hz, s.frequency_hz,
                           edges, WIDTH, SWR_HEIGHT, "SWR across the band (predicted)")
     notes = [f"At the feed point: SWR on {units.format_impedance(ctx.design.feed.impedance_ohm)}. "
-             f"At the transmitter: through {units.format_length(ctx.design.feed.length_m, ctx.units, 'coarse')}"
+             f"At the transmitter: through {units.format_length(ctx.solution.feed_coax_m, ctx.units, 'coarse')}"
              f" of {ctx.design.feed.coax}.", ctx.rounding_note()]
     return _with_strip(ctx, plot, "SWR across the band", notes)
 
