@@ -34,7 +34,7 @@ from buildsheet.blocks import (Facts, Figures, Heading, KeyFigure, KeyFigures, P
                                Steps, Table, WriteIn)
 from buildsheet.catalog import national_bands
 from buildsheet.design import Design, latest_as_built
-from buildsheet.layout import describe, site_layout
+from buildsheet.layout import describe
 from buildsheet.physics.coax import matched_loss_db
 from buildsheet.physics.lines import DB_PER_NEPER
 from buildsheet.solver import Solution, coax_line_model, velocity_factor_text
@@ -513,10 +513,8 @@ class _Context:
         return f"vertical{rope}; the short {h} above {self.ground()}, the stub and radiator standing above it"
 
     def layout(self):
-        """The site layout of a horizontal or sloper (layout.site_layout), None for a vertical."""
-        site = self.d.site
-        return site_layout(site.orientation, site.height_m, site.slope_rad, self.s.span_m,
-                           self.d.wavelength_m, self.s.dimensions.stub, self.d.hung)
+        """The site layout of a horizontal, sloper or hung antenna (Solution.site), None on a mast."""
+        return self.s.site
 
     def top_height(self) -> float:
         site, dims = self.d.site, self.s.dimensions

@@ -237,6 +237,9 @@ class Solution:
     pattern: object = dataclasses.field(default=None, repr=False, compare=False)
     #: StackData: the stacked version's figures, or None for a single half-wave
     stack: object = None
+    #: layout.SiteLayout: supports, anchor, span and ropes of a horizontal, sloper or hung antenna;
+    #: None for one on a mast
+    site: object = None
 
     @property
     def radiation(self) -> radiation_physics.Radiation | None:
@@ -323,6 +326,7 @@ class Solution:
             "assumptions": list(self.assumptions),
             "radiation": radiation_json(self.radiation) if radiation else None,
             "stack": None if self.stack is None else self.stack.to_dict(),
+            "site_layout": None if self.site is None else dataclasses.asdict(self.site),
         }
 
 
@@ -609,7 +613,11 @@ def _solve(design: Design) -> Solution:
     dims = Dimensions(radiator=radiator, stub=stub, tap=tap, spacing=design.stub.spacing_m)
     first = first_cut(design, dims, stub_data.velocity_factor)
     parts = _parts(design, dims, ch)
-    cut, hardware = _cut_list(design, dims, wrap, ch, first, parts, sl, ant.stack)
+    k = ant.stack
+    site = site_layout(design.site.orientation, design.site.height_m, design.site.slope_rad,
+                       radiator if k is None else radiator + k.spacing + k.element,
+                       design.wavelength_m, stub, design.hung)
+    cut, hardware = _cut_list(design, dims, wrap, ch, first, parts, sl, k, site)
     return Solution(
         name=design.name, design_id=design.document_id, frequency_hz=f0, band_hz=tuple(design.band_hz),
         dimensions=dims, radiator_cut_m=radiator + first.radiator_margin_m + (
@@ -629,7 +637,7 @@ def _solve(design: Design) -> Solution:
                       "coax": design.power.transmitter_w - p_tap},
         sensitivity=sens._asdict(),
         choke=ch, exposure=exposure, first_cut=first, parts=parts, warnings=envelope_warnings(design),
-        sleeve=sl, pattern=pattern, stack=stack,
+        sleeve=sl, pattern=pattern, stack=stack, site=site,
     )
 
 
@@ -1073,7 +1081,7 @@ def _wrap_allowance(design: Design) -> float:
 
 
 def _cut_list(design: Design, d: Dimensions, wrap: float, ch, first: FirstCut,
-              parts: Parts, sleeve=None, stack=None) -> tuple[tuple, tuple]:
+              parts: Parts, sleeve=None, stack=None, site=None) -> tuple[tuple, tuple]:
     """What to cut (with allowances) and what to buy. Allowances are common practice; the radiator
     and the stub line are cut long by the first cut's tuning margins as well (FirstCut). With a
     sleeve choke (physics.choke.SleeveChoke) the coil is not built: no coax in turns, no choke form,
@@ -1117,9 +1125,6 @@ def _cut_list(design: Design, d: Dimensions, wrap: float, ch, first: FirstCut,
                                 1, beyond_short + junction, "the stub's line; open end to the short, "
                                 "plus the length below its short" +
                                 (" and the wraps at the open end" if junction else "")))
-    span = d.radiator if stack is None else d.radiator + stack.spacing + stack.element
-    site = site_layout(design.site.orientation, design.site.height_m, design.site.slope_rad, span,
-                       lam, d.stub, design.hung)
     for rope in site.ropes if site else ():
         items.append(CutItem(rope.what, "UV-resistant polyester rope", rope.length_m, 1, TIE_OFF_M,
                              rope.note + " (common practice)", coarse=True))

@@ -5,7 +5,7 @@ from __future__ import annotations
 
 from buildsheet import units
 from buildsheet.design import Design
-from buildsheet.layout import describe, site_layout
+from buildsheet.layout import describe
 from buildsheet.solver import Solution
 from buildsheet.stock import conductor_size
 
@@ -84,8 +84,7 @@ def summary_text(design: Design, s: Solution) -> str:
         then = " and ".join(parts[what][1] for what, _, _ in margins)
         add("  Why: the velocity factor of dielectric line and jacketed wire is only known to the spread "
             f"between its sources; start with {start}, then {then} as the tuning table says.")
-    site = site_layout(design.site.orientation, design.site.height_m, design.site.slope_rad,
-                       s.span_m, design.wavelength_m, s.dimensions.stub, design.hung)
+    site = s.site
     if site is not None:
         add("  Site: " + describe(site, lambda m: units.format_length(m, u, "coarse")))
     add("Hardware")

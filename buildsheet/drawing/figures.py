@@ -25,7 +25,7 @@ from buildsheet.drawing import plots, polar
 from buildsheet.drawing.placement import LABEL, PAD, Layout, fitted_size, line_height, text_width, wrap_text
 from buildsheet.drawing.shapes import (THIN, Arc, BreakMark, Circle, Dimension, Drawing, Hatch, Line,
                                        Polyline, Rect, Text)
-from buildsheet.layout import TIE_OFF_M, describe, site_layout
+from buildsheet.layout import TIE_OFF_M, describe
 from buildsheet.solver import Solution
 from buildsheet.stock import conductor_name
 
@@ -130,10 +130,8 @@ class _Context:
         return units.format_length(m, self.units, "coarse")
 
     def layout(self):
-        site = self.design.site
-        return site_layout(site.orientation, site.height_m, site.slope_rad,
-                           self.solution.span_m, self.design.wavelength_m,
-                           self.solution.dimensions.stub, self.design.hung)
+        """The site layout (Solution.site): supports, ropes and span, or None on a mast."""
+        return self.solution.site
 
     def rounding_note(self) -> str:
         system = "feet and inches" if self.units == "imperial" else "metres and millimetres"
