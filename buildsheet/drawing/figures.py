@@ -423,7 +423,7 @@ def _overview_vertical(ctx: _Context) -> tuple[Layout, float]:
     k = s.stack
     # the spans drawn (break marks: not to scale): radiator, stub, short to ground; a stacked
     # antenna draws them shorter so that the figure keeps about the single one's height
-    rad_span, stub_span, mast_span = (116.0, 150.0, 84.0) if k is None else (74.0, 122.0, 64.0)
+    rad_span, stub_span, mast_span = (96.0, 130.0, 66.0) if k is None else (74.0, 122.0, 64.0)
     if k is not None:
         # stacked: the upper element on top, the gap and the phasing stub out to the left below it
         y_el_top, gap = y_end_top, 8.0
