@@ -147,7 +147,8 @@ class Fit:
     radiator_retuned: whether the advice brings the radiator to resonance (else it is left as it is,
     but for the small move the calibrated model makes of it); advised: the dimensions to move to;
     moves_m: radiator (+ add wire), short (+ toward the open top), tap (+ the tap clamp toward the
-    open top), DESIGN.md §5 signs; moves_rounded_m: the same as printed for the tape;
+    open top), DESIGN.md §5 signs (on a tube build the short's is 0 and radiator_retuned is True: the
+    long element's top is moved to match with the short fixed); moves_rounded_m: the same as printed for the tape;
     calibration: (a, k, v) giving `advised` from solve(), or None with calibration_note saying why;
     z_fit: the fitted model at the sweep's frequencies; fit_rms_ohm = rms |z_fit - z_meas|;
     fit_rms_reflection = rms |rho_fit - rho_meas|; swr_before: measured at f0 (None if f0 lies
@@ -782,12 +783,7 @@ def fit_text(fit: Fit, written: dict | None = None) -> str:
                 f"the top; it then sits {fmt(tap_now + m)} above the short ({fmt(tap_now)} {was}){then}.")
             tap_now += m
         elif fit.short_fixed:
-            top = f"(radiator {fmt(tape(D0.radiator))} -> {fmt(tape(D0.radiator) + m)})"
-            if m < 0:
-                add(f"  {n}. Long element: trim its top by {fmt(abs(m))} {top}{then}.")
-            else:
-                add(f"  {n}. Long element: its top must be {fmt(m)} longer {top}: pipe or rod cannot be "
-                    f"lengthened, so fit a sliding sleeve over its top or cut a new long element{then}.")
+            add(f"  {n}. {long_element_step(m, tape(D0.radiator), u)}{then}.")
         else:
             why = "" if fit.radiator_retuned else (", a small change that follows the stub's correction "
                                                    "(the radiator works against the stub's common mode)")
@@ -814,6 +810,17 @@ def fit_text(fit: Fit, written: dict | None = None) -> str:
     else:
         add(f"Calibration: {fit.calibration_note}.")
     return "\n".join(rows) + "\n"
+
+
+def long_element_step(m: float, radiator: float, u: str) -> str:
+    """The radiator's move on a `tube` build, the sheet's words: trim the long element's top, or, when
+    it must grow, a sliding sleeve or a new long element (pipe or rod cannot be lengthened)."""
+    fmt = lambda x: units.format_length(x, u)  # noqa: E731
+    top = f"(radiator {fmt(radiator)} -> {fmt(radiator + m)})"
+    if m < 0:
+        return f"Long element: trim its top by {fmt(abs(m))} {top}"
+    return (f"Long element: its top must be {fmt(m)} longer {top}: pipe or rod cannot be lengthened, "
+            "so fit a sliding sleeve over its top or cut a new long element")
 
 
 # ----------------------------------------------------------------------------------------------

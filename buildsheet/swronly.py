@@ -317,11 +317,7 @@ def advice_text(adv: SwrAdvice) -> str:
                         f"{fmt(tap_now + m)} above the short{then}.")
             tap_now += m
         elif part == "radiator":
-            top = f"(radiator {fmt(D0.radiator)} -> {fmt(D0.radiator + m)})"
-            rows.append(f"  {n}. Long element: trim its top by {fmt(m)} {top}{then}." if m < 0 else
-                        f"  {n}. Long element: its top must be {fmt(m)} longer {top}: pipe or rod cannot "
-                        f"be lengthened, so fit a sliding sleeve over its top or cut a new long element"
-                        f"{then}.")
+            rows.append(f"  {n}. {fitmod.long_element_step(m, D0.radiator, u)}{then}.")
     if fixed:
         if adv.target_swr > swr_of(fitmod.MATCH_RHO):
             rows.append(f"  No match at {f0} lies within reach with the short where it is: the moves go to "

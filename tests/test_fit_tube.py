@@ -28,31 +28,17 @@ from buildsheet.cli import main
 from buildsheet.design import load_design
 from buildsheet.physics.lines import reflection, swr
 from buildsheet.solver import solve
-from buildsheet.touchstone import Sweep
 
 DATA = Path(__file__).parent / "data"
 ROOT = Path(__file__).parent.parent
 sys.path.insert(0, str(DATA))
 import nec_sweep  # noqa: E402
 
+from test_fit import after_moves, dims, sweep_of  # noqa: E402
+
 PIPE = ROOT / "designs" / "allotment-2m.yaml"
 ROD = DATA / "fit-2m-rod-free.yaml"
 SPAN, POINTS = 0.08, 31
-
-
-def sweep_of(f, z, name="sweep") -> Sweep:
-    return Sweep(frequency_hz=np.asarray(f, dtype=float), z_ohm=np.asarray(z, dtype=complex), path=name,
-                 lines=tuple(range(1, len(f) + 1)))
-
-
-def dims(design) -> np.ndarray:
-    d = solve(design).dimensions
-    return np.array([d.radiator, d.stub, d.tap])
-
-
-def after_moves(built: np.ndarray, moves: dict) -> np.ndarray:
-    """DESIGN.md section 5: radiator + add; short toward the top; the tap clamp toward the top."""
-    return built + np.array([moves["radiator"], -moves["short"], moves["tap"] - moves["short"]])
 
 
 def model_case(design, miscut):
