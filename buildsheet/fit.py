@@ -59,6 +59,17 @@ Method.
    offered; the sweep is fitted (and gated) with the model as it was before that calibration (none
    is assumed: an earlier one is not kept in the file) (`fit --write` followed by `fit` on the same sweep asks for nothing beyond the first
    fit's moves; once the moves are recorded with `record`, for nothing at all).
+   A `construction: tube` build (rigid pipe or rod: the short is soldered or bolted and stays where it
+   is; the sheet tunes it by the long element's top and the tap) is never told to move the short. Its
+   target keeps the stub at the fitted electrical stub, S_t = S_e, and solves the 2-D match for the
+   radiator and the tap: z_feed(f0; L_t, S_e, T_t) = z_ref (bounded least squares of the reflection
+   coefficient on (L, T), from E and from the resonant radiator, within the tube's reach:
+   L within ELECTRICAL_BOUNDS[0] of L_e, 0 < T < S_e). Where no match (|rho| <= MATCH_RHO) lies in
+   that reach the target is the point of least SWR there, and the text says so. The moves then have no short step,
+   the radiator step is trimming the long element's top (a radiator that must grow calls for a
+   sliding sleeve or a new long element: pipe cannot be lengthened), and the order is the sheet's:
+   the top first, then the tap (TUBE_STEP_ORDER). The calibration is solved for that target with all
+   three parameters free, so that `fit --write` then `fit` on the same sweep advises the same moves.
 4. Calibration. (a, k, v) with which solve() gives the advised dimensions: a root (scipy.optimize.root,
    hybrid Powell) of solve()'s dimensions minus the advised ones; None, with the reason, when it lies
    outside what the design validator accepts (calibration_bounds), which is typical of a building
@@ -136,7 +147,8 @@ class Fit:
     radiator_retuned: whether the advice brings the radiator to resonance (else it is left as it is,
     but for the small move the calibrated model makes of it); advised: the dimensions to move to;
     moves_m: radiator (+ add wire), short (+ toward the open top), tap (+ the tap clamp toward the
-    open top), DESIGN.md §5 signs; moves_rounded_m: the same as printed for the tape;
+    open top), DESIGN.md §5 signs (on a tube build the short's is 0 and radiator_retuned is True: the
+    long element's top is moved to match with the short fixed); moves_rounded_m: the same as printed for the tape;
     calibration: (a, k, v) giving `advised` from solve(), or None with calibration_note saying why;
     z_fit: the fitted model at the sweep's frequencies; fit_rms_ohm = rms |z_fit - z_meas|;
     fit_rms_reflection = rms |rho_fit - rho_meas|; swr_before: measured at f0 (None if f0 lies
@@ -175,6 +187,16 @@ class Fit:
     measured_at: str = "tap"
     #: what the coax hides (station.hidden_text), for a sweep taken at the station
     coax_note: str | None = None
+    #: a `construction: tube` build: the short is fixed, the target keeps the fitted stub (module
+    #: docstring, step 3)
+    short_fixed: bool = False
+    #: with the short fixed: the fitted model's SWR at f0 at the target (above swr_of(MATCH_RHO): no
+    #: match lies in reach, the target is the least-SWR point there)
+    target_swr: float = 1.0
+
+    @property
+    def target_matched(self) -> bool:
+        return self.target_swr <= swr_of(MATCH_RHO)
 
     def to_dict(self, written: dict | None = None) -> dict:
         """The JSON of `fit --json` (DESIGN.md §6): SI units; `written` describes a --write."""
@@ -195,6 +217,8 @@ class Fit:
             "electrical_m": dict(zip(names, self.electrical)),
             "radiator_fitted": self.radiator_fitted,
             "radiator_retuned": self.radiator_retuned,
+            "short_fixed": self.short_fixed,
+            "target_swr": self.target_swr,
             "fit_rms_ohm": self.fit_rms_ohm,
             "fit_rms_reflection": self.fit_rms_reflection,
             "built_m": {"radiator": self.built.radiator, "stub": self.built.stub, "tap": self.built.tap},
@@ -264,6 +288,45 @@ class _Model:
         a nearby (L, S, T) to search from."""
         L = self.resonant_length(f0, None if start is None else start[0])
         return (L, *self.match(f0, z_ref, L, None if start is None else start[1:]))
+
+
+#: a match with the short fixed: |rho| at f0 at most this (SWR 1.01, the last figure the text prints;
+#: where the stub's error leaves a residual below it, e.g. 0.0007 for a 70 cm rod whose stub acts 2 %
+#: short, no reading tells it from an exact match)
+MATCH_RHO = 0.005
+
+
+def fixed_short_target(model: _Model, f0: float, z_ref: float, E) -> tuple[tuple[float, float, float], float]:
+    """((L_t, S_e, T_t), |rho| there): the radiator and tap with which the antenna E = (L_e, S_e, T_e)
+    matches z_ref at f0 with its stub left at S_e (a `tube` build's short is fixed; module docstring,
+    step 3). Bounded least squares of the reflection coefficient at f0 on (L, T), L within
+    ELECTRICAL_BOUNDS[0] of L_e and 0 < T < S_e, from E and from the model's resonant radiator: the
+    match, or where there is none in that reach (|rho| above MATCH_RHO), the point of least |rho|."""
+    L_e, S_e, T_e = (float(x) for x in E)
+
+    def residual(x):
+        rho = reflection(model.z_feed(f0, x[0], S_e, x[1])[0], z_ref)
+        return [rho.real, rho.imag]
+
+    lo = np.array([ELECTRICAL_BOUNDS[0][0] * L_e, 1e-3 * S_e])
+    hi = np.array([ELECTRICAL_BOUNDS[0][1] * L_e, 0.999 * S_e])
+    starts = [(L_e, T_e)]
+    try:
+        starts.append((model.resonant_length(f0), T_e))
+    except ValueError:
+        pass
+    best = None
+    with np.errstate(all="ignore"):
+        for L0, T0 in starts:
+            x0 = np.clip([L0, T0], lo * (1 + 1e-9), hi * (1 - 1e-9))
+            sol = least_squares(residual, x0, bounds=(lo, hi), method="trf", x_scale=[1e-3 * L_e, 1e-3 * S_e],
+                                xtol=1e-12, ftol=1e-14, gtol=1e-14, max_nfev=200)
+            if best is None or sol.cost < best.cost:
+                best = sol
+            if math.sqrt(2.0 * best.cost) <= 1e-9:
+                break
+    L_t, T_t = (float(v) for v in best.x)
+    return (L_t, S_e, T_t), math.sqrt(2.0 * best.cost)
 
 
 def _model(design: Design, cal: Calibration) -> _Model:
@@ -424,8 +487,16 @@ def fit_sweep(design: Design, sweep: Sweep, built: Dimensions | None = None, at:
     z_fit = model0.z_feed(f, *E)
 
     explained(sweep, z_ref, rho_meas, reflection(z_fit, z_ref), w)
+    # a `tube` build's short is soldered or bolted: the target keeps the fitted stub (docstring, step 3)
+    fixed = design.construction == "tube"
+    target_swr = 1.0
     try:
-        target = model0.resolve(f0, z_ref) if retune else (E[0], *model0.match(f0, z_ref, E[0]))
+        if fixed:
+            retune = True
+            target, rho_t = fixed_short_target(model0, f0, z_ref, E)
+            target_swr = float(swr_of(rho_t))
+        else:
+            target = model0.resolve(f0, z_ref) if retune else (E[0], *model0.match(f0, z_ref, E[0]))
     except ValueError as exc:
         raise SweepError(f"gives an antenna the model cannot match at "
                          f"{units.format_frequency(f0)} ({exc})", file=sweep.path) from None
@@ -447,10 +518,15 @@ def fit_sweep(design: Design, sweep: Sweep, built: Dimensions | None = None, at:
     u = design.output.units
     moves = {"radiator": advised[0] - D0.radiator, "short": D0.stub - advised[1],
              "tap": (D0.stub - D0.tap) - (advised[1] - advised[2])}
+    if fixed:
+        # the target keeps the stub as built; what is left is the calibration's rounding (under
+        # CALIBRATION_TOLERANCE_M, well under the tape's smallest move): not a move of a fixed short,
+        # and the tap is measured from where the short is
+        moves.update(short=0.0, tap=advised[2] - D0.tap)
     rounded = {key: _tape_move(m, u) for key, m in moves.items()}
     steps = []
     done = {"radiator": 0.0, "short": 0.0, "tap": 0.0}
-    for part in STEP_ORDER:
+    for part in (TUBE_STEP_ORDER if fixed else STEP_ORDER):
         if rounded[part] == 0:
             continue
         done[part] = rounded[part]
@@ -470,12 +546,16 @@ def fit_sweep(design: Design, sweep: Sweep, built: Dimensions | None = None, at:
         fit_rms_reflection=float(np.sqrt(np.mean(np.abs(reflection(z_fit, z_ref) - rho_meas) ** 2))),
         swr_before=swr_before, best_hz=float(f[i_best]), best_swr=float(swr_of(abs(rho_meas[i_best]))),
         swr_after=swr_after, built_from=built_from, already_calibrated=already, steps=tuple(steps),
-        dip_tolerance_hz=dip_tolerance_hz(solve(design)), measured_at=at, coax_note=coax_note)
+        dip_tolerance_hz=dip_tolerance_hz(solve(design)), measured_at=at, coax_note=coax_note,
+        short_fixed=fixed, target_swr=target_swr)
 
 
 #: the order of the moves (the sheet's tuning procedure: X with the short first, then R with the
 #: tap, the radiator only once the match is made)
 STEP_ORDER = ("short", "tap", "radiator")
+#: the order on a `tube` build (the sheet's: the long element's top for the dip and X, then R with the
+#: tap); the short is fixed
+TUBE_STEP_ORDER = ("radiator", "tap")
 
 
 def _tape_move(m: float, u: str) -> float:
@@ -658,6 +738,14 @@ def fit_text(fit: Fit, written: dict | None = None) -> str:
         "over the sweep, weighted to the match")
     radiator = f"radiator {fmt(E[0])}, " if fit.radiator_fitted else ""
     add(f"  the antenna behaves as the model with {radiator}stub {fmt(E[1])} and tap {fmt(E[2])}")
+    if fit.short_fixed:
+        add("  the short is fixed on this build (soldered or bolted; construction: tube): the long "
+            "element's top and the tap do the matching, with the stub as it is")
+        if not fit.target_matched:
+            add(f"  no match at {f0} lies within reach with the short where it is (the long element "
+                f"within {100 * (1 - ELECTRICAL_BOUNDS[0][0]):.0f} % of its fitted length, the tap on the "
+                f"stub): the moves below go to the lowest SWR the model finds there, {fit.target_swr:.2f}; "
+                "check the short's place and the stub's spacing against the sheet")
     if not fit.radiator_retuned:
         follow = ("; it moves only as far as the stub's correction moves its resonance (step below)"
                   if mv["radiator"] != 0 else "")
@@ -694,15 +782,20 @@ def fit_text(fit: Fit, written: dict | None = None) -> str:
             add(f"  {n}. Tap: move the clamp {fmt(abs(m))} {'up, toward' if m > 0 else 'down, away from'} "
                 f"the top; it then sits {fmt(tap_now + m)} above the short ({fmt(tap_now)} {was}){then}.")
             tap_now += m
+        elif fit.short_fixed:
+            add(f"  {n}. {long_element_step(m, tape(D0.radiator), u)}{then}.")
         else:
             why = "" if fit.radiator_retuned else (", a small change that follows the stub's correction "
                                                    "(the radiator works against the stub's common mode)")
             add(f"  {n}. Radiator: {'add' if m > 0 else 'trim'} {fmt(abs(m))} "
                 f"({fmt(tape(D0.radiator))} -> {fmt(tape(D0.radiator) + m)}){why}{then}.")
-    left = [p for p in STEP_ORDER if mv[p] == 0]
+    left = [p for p in (TUBE_STEP_ORDER if fit.short_fixed else STEP_ORDER) if mv[p] == 0]
     if fit.steps and left:
-        names = {"short": "the short", "tap": "the tap", "radiator": "the radiator"}
+        names = {"short": "the short", "tap": "the tap", "radiator": "the long element's top"
+                 if fit.short_fixed else "the radiator"}
         add(f"  Leave {' and '.join(names[p] for p in left)} as {'it is' if len(left) == 1 else 'they are'}.")
+    if fit.short_fixed:
+        add("  The short stays where it is: it is fixed on this build.")
     if fit.steps:
         add(f"Predicted SWR at {f0} after these moves: {fit.swr_after:.2f}. Sweep again to check.")
     add("")
@@ -717,6 +810,17 @@ def fit_text(fit: Fit, written: dict | None = None) -> str:
     else:
         add(f"Calibration: {fit.calibration_note}.")
     return "\n".join(rows) + "\n"
+
+
+def long_element_step(m: float, radiator: float, u: str) -> str:
+    """The radiator's move on a `tube` build, the sheet's words: trim the long element's top, or, when
+    it must grow, a sliding sleeve or a new long element (pipe or rod cannot be lengthened)."""
+    fmt = lambda x: units.format_length(x, u)  # noqa: E731
+    top = f"(radiator {fmt(radiator)} -> {fmt(radiator + m)})"
+    if m < 0:
+        return f"Long element: trim its top by {fmt(abs(m))} {top}"
+    return (f"Long element: its top must be {fmt(m)} longer {top}: pipe or rod cannot be lengthened, "
+            "so fit a sliding sleeve over its top or cut a new long element")
 
 
 # ----------------------------------------------------------------------------------------------

@@ -24,7 +24,9 @@ Method.
    radiator as read, from the best points of a grid; fit.py's step 2 with magnitudes only), as
    `fit` does with phase, and the moves are made as `fit` makes them with the radiator left as it
    is (the sheet's rule: the match with the short and the tap first): the stub and the tap matched
-   at f0, in the sheet's order, each with the model's SWR after it. Readings the model cannot follow
+   at f0, in the sheet's order, each with the model's SWR after it. On a `construction: tube` build
+   the short is fixed: as in `fit` (fit.py's docstring, step 3), the stub stays as fitted and the long
+   element's top and the tap make the match (fit.fixed_short_target), the top first. Readings the model cannot follow
    (rms |rho| residual above fit.FIT_GATE) are refused. The old advice here (the dip moved by the
    sheet's rate, the tap by R = 50 SWR or 50/SWR) took a reactance at the dip for a resistance and
    the tap's shift of the dip for the radiator's: NEC-2 readings of the tap 40 % long gave SWR 1.64
@@ -85,6 +87,10 @@ class SwrAdvice:
     settle: tuple | None
     measured_at: str = "tap"
     coax_note: str | None = None
+    #: a `construction: tube` build: the short is fixed, the long element's top and the tap make the
+    #: match (fit.fixed_short_target); target_swr: the model's SWR at f0 at that target
+    short_fixed: bool = False
+    target_swr: float = 1.0
 
 
 def parse_reading(text: str, key: str = "--swr") -> tuple[float, float]:
@@ -190,7 +196,8 @@ def advise(design: Design, readings: list[tuple[float, float]], at: str = "tap",
                      electrical=best["electrical"], fit_rms=best["fit_rms"],
                      moves_rounded_m=best["moves_rounded_m"], steps=best["steps"],
                      swr_after=best["swr_after"], alternative=other, settle=settle,
-                     measured_at=at, coax_note=coax_note)
+                     measured_at=at, coax_note=coax_note, short_fixed=design.construction == "tube",
+                     target_swr=best["target_swr"])
 
 
 #: the grid the magnitude fit starts from: stub and tap as fractions of the antenna read, and how
@@ -241,23 +248,30 @@ def _advise_fit(g: dict, model, design: Design, D0, source, key) -> None:
     step 3): the stub and the tap matched to the radiator at f0; added to g."""
     f0, z_ref = design.frequency_hz, design.feed.impedance_ohm
     E = g["electrical"]
+    fixed = design.construction == "tube"       # the short is fixed: fit.py's docstring, step 3
     try:
-        target = (E[0], *model.match(f0, z_ref, E[0]))
+        if fixed:
+            target, rho_t = fitmod.fixed_short_target(model, f0, z_ref, E)
+        else:
+            target, rho_t = (E[0], *model.match(f0, z_ref, E[0])), 0.0
     except ValueError as exc:
         raise SweepError(f"give an antenna the model cannot match ({exc})", file=source, key=key) from None
     advised = np.array([D0.radiator, D0.stub, D0.tap]) + np.array(target) - np.array(E)
     u = design.output.units
-    moves = {"radiator": 0.0, "short": D0.stub - advised[1],
-             "tap": (D0.stub - D0.tap) - (advised[1] - advised[2])}
+    if fixed:
+        moves = {"radiator": advised[0] - D0.radiator, "short": 0.0, "tap": advised[2] - D0.tap}
+    else:
+        moves = {"radiator": 0.0, "short": D0.stub - advised[1],
+                 "tap": (D0.stub - D0.tap) - (advised[1] - advised[2])}
     rounded = {k: fitmod._tape_move(m, u) for k, m in moves.items()}
     done = {"radiator": 0.0, "short": 0.0, "tap": 0.0}
     steps = []
-    for part in fitmod.STEP_ORDER:
+    for part in (fitmod.TUBE_STEP_ORDER if fixed else fitmod.STEP_ORDER):
         if rounded[part] == 0:
             continue
         done[part] = rounded[part]
         steps.append((part, rounded[part], fitmod._swr_after(model, f0, z_ref, E, done)))
-    g.update(moves_rounded_m=rounded, steps=tuple(steps),
+    g.update(moves_rounded_m=rounded, steps=tuple(steps), target_swr=float(swr_of(rho_t)),
              swr_after=steps[-1][2] if steps else fitmod._swr_after(model, f0, z_ref, E, done))
 
 
@@ -268,6 +282,7 @@ def advice_text(adv: SwrAdvice) -> str:
     f0 = units.format_frequency(d.frequency_hz)
     ohm = units.format_impedance(d.feed.impedance_ohm)
     D0 = adv.built
+    fixed = adv.short_fixed
     rows = [f"{d.title}  [{d.name}, document {d.document_id}]",
             f"{len(adv.frequency_hz)} SWR readings, {units.format_frequency(adv.frequency_hz[0])} to "
             f"{units.format_frequency(adv.frequency_hz[-1])} (no phase), taken at the {adv.measured_at}"]
@@ -285,7 +300,10 @@ def advice_text(adv: SwrAdvice) -> str:
         rows.append(f"  Nothing to move ({units.length_rounding(u)}): predicted SWR at {f0} "
                     f"{adv.swr_after:.2f}.")
     else:
-        rows.append(f"To match at {f0}, in this order ({units.length_rounding(u)}; the radiator is left "
+        rows.append(f"To match at {f0}, in this order ({units.length_rounding(u)}; the short is fixed "
+                    "on this build: the long element's top and the tap make the match):"
+                    if fixed else
+                    f"To match at {f0}, in this order ({units.length_rounding(u)}; the radiator is left "
                     "as it is, as the sheet's rule says until the match is made):")
     stub_now, tap_now = D0.stub, D0.tap
     for n, (part, m, after) in enumerate(adv.steps, 1):
@@ -298,6 +316,14 @@ def advice_text(adv: SwrAdvice) -> str:
             rows.append(f"  {n}. Tap: move the clamp {fmt(m)} {'up' if m > 0 else 'down'}; it then sits "
                         f"{fmt(tap_now + m)} above the short{then}.")
             tap_now += m
+        elif part == "radiator":
+            rows.append(f"  {n}. {fitmod.long_element_step(m, D0.radiator, u)}{then}.")
+    if fixed:
+        if adv.target_swr > swr_of(fitmod.MATCH_RHO):
+            rows.append(f"  No match at {f0} lies within reach with the short where it is: the moves go to "
+                        f"the lowest SWR the model finds, {adv.target_swr:.2f}; check the short's place and "
+                        "the stub's spacing against the sheet.")
+        rows.append("  The short stays where it is: it is fixed on this build.")
     rows.append(f"SWR alone cannot tell which side of {ohm} R is, nor the sign of X: the readings "
                 "are the same for an antenna and its mirror image about the match to first order.")
     if adv.settle is not None:
