@@ -54,7 +54,7 @@ from buildsheet.errors import SweepError
 from buildsheet.physics.lines import reflection, swr_of
 from buildsheet.sheet import LOG_COLUMNS
 from buildsheet.solver import solve
-from buildsheet.touchstone import FREQUENCY_RANGE_HZ
+from buildsheet.touchstone import FREQUENCY_RANGE_HZ, csv_rows
 
 #: readings the parabola passes through: the lowest and its neighbours (module docstring, step 2)
 PARABOLA_POINTS = 3
@@ -366,8 +366,6 @@ def read_readings(path: str) -> tuple[list, str]:
     the last such row on are used (the antenna as it stands: write the change on the first reading
     after it). SweepError naming the file and line otherwise. A Touchstone file always carries phase
     and is a SWEEP, not readings."""
-    import csv
-    import io
     import os
 
     from buildsheet.design import Reading
@@ -380,21 +378,10 @@ def read_readings(path: str) -> tuple[list, str]:
         raise SweepError(f"has the extension '{ext or '(none)'}'; readings are a CSV file (.csv) of "
                          f"frequency and SWR or return loss{hint}", file=path)
     text = _read_text(path)
-    reader = csv.reader(io.StringIO(text, newline=None))
     header = None
     rows = []
     cols: dict = {}
-    while True:
-        try:
-            fields = next(reader)
-        except StopIteration:
-            break
-        except csv.Error as exc:
-            raise SweepError(f"is not a CSV table the reader can take ({exc})", file=path,
-                             line=reader.line_num or None) from None
-        line = reader.line_num
-        if not fields or all(not x.strip() for x in fields):
-            continue
+    for line, fields in csv_rows(text, path):
         if fields[0].lstrip().startswith("#") and fields[0].strip() != "#":
             continue        # a comment line
         if header is None:

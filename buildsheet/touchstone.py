@@ -269,18 +269,8 @@ def parse_csv(text: str, file: str | None = None) -> Sweep:
     columns: tuple[int, int, int] = (0, 1, 2)
     factor = 1.0
     rows: list[tuple[int, float, float, float]] = []
-    # newline=None: CR, LF and CRLF line ends all end a line (csv refuses a bare CR inside a field)
-    reader = csv.reader(io.StringIO(text, newline=None))
-    while True:
-        try:
-            fields = next(reader)
-        except StopIteration:
-            break
-        except csv.Error as exc:
-            raise SweepError(f"is not a CSV table the reader can take ({exc})", file=file,
-                             line=reader.line_num or None) from None
-        line_no = reader.line_num
-        if not fields or all(not s.strip() for s in fields) or fields[0].lstrip().startswith("#"):
+    for line_no, fields in csv_rows(text, file):
+        if fields[0].lstrip().startswith("#"):
             continue
         if header is None:
             header = [s.strip().lower() for s in fields]
@@ -305,6 +295,23 @@ def parse_csv(text: str, file: str | None = None) -> Sweep:
     z = data[:, 1] + 1j * data[:, 2]
     _check_passive(z, CSV_REFERENCE_OHM, lines, file)
     return Sweep(frequency_hz=f, z_ohm=z, path=file or "", lines=lines)
+
+
+def csv_rows(text: str, file):
+    """(line number, fields) of each non-blank row of a CSV text; a text the csv module cannot
+    take is a SweepError naming the line. CR, LF and CRLF line ends all end a line (newline=None;
+    csv refuses a bare CR inside a field)."""
+    reader = csv.reader(io.StringIO(text, newline=None))
+    while True:
+        try:
+            fields = next(reader)
+        except StopIteration:
+            return
+        except csv.Error as exc:
+            raise SweepError(f"is not a CSV table the reader can take ({exc})", file=file,
+                             line=reader.line_num or None) from None
+        if fields and any(s.strip() for s in fields):
+            yield reader.line_num, fields
 
 
 def _csv_columns(header: list[str], file, line_no) -> tuple[tuple[int, int, int], float]:
