@@ -539,8 +539,9 @@ class _Context:
                                  f"velocity factor {s.stub_line.velocity_factor:.3f}" +
                                  (f" (sources {velocity_factor_text(*d.stub.velocity_factor_spread)})"
                                   if d.stub.velocity_factor_spread is not None else ""))),
-                ("feed", _e(f"{d.feed.coax}, {self.length(d.feed.length_m, coarse=True)} from the tap to the "
-                            "station, choked at the tap")),
+                ("feed", _e(f"{d.feed.coax}, a {self.length(d.feed.length_m, coarse=True)} run from the tap "
+                            f"to the station, choked at the tap ({self.length(s.feed_coax_m, coarse=True)} "
+                            "cut, the choke's turns and a pigtail included)")),
                 ("power", _e(f"{self.pep}, {MODE_NAMES.get(d.power.mode, d.power.mode)}")),
             )),
             Para(_e(f"Cut lengths include the allowances ({units.length_rounding(self.u)}; coax and rope "
