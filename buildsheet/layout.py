@@ -124,7 +124,7 @@ def describe(layout: SiteLayout, length) -> str:
                 "(or a weight of about 1 kg, common practice) so it hangs straight, clear of the "
                 "trunk.")
     if layout.orientation == "horizontal":
-        return (f"Supports {length(layout.span_m)} apart: the antenna's wire, an end insulator and "
+        return (f"Supports {length(layout.span_m)} apart: the antenna wire, an end insulator and "
                 f"{length(layout.standoff_m)} of rope at each end.")
     return (f"The far end insulator is {length(layout.far_end_height_m)} up and "
             f"{length(layout.far_end_distance_m)} out from the open top; the anchor rope runs on down "
