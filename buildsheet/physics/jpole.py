@@ -720,15 +720,13 @@ def design_stack(f0: float, ant: Antenna, radiator_length: float, line: Line, sp
                  conductor_d=conductor_d, sigma=sigma)
 
 
-def stacked_radiator_length(f0: float, ant: Antenna, stack: Stack, stub_length: float | None = None,
-                            prepared: _Prepared | None = None) -> float:
+def stacked_radiator_length(f0: float, ant: Antenna, stack: Stack,
+                            stub_length: float | None = None) -> float:
     """The length (m) of both elements of the stacked version (radiator and second element cut
     alike, the phasing stub as `stack` gives it) at which the radiator's own arm (no junction
     term, as resonant_radiator_length), loaded by the phasing stub and the second element, has a
     resistive input impedance at f0 (Hz): the high-impedance resonance of the pair, the crossing of
-    zero reactance with the largest resistance within 15 % of the single radiator's length.
-    prepared: at_frequency(f0, ant) of the antenna with its stack."""
-    prep = _at(f0, ant, prepared)
+    zero reactance with the largest resistance within 15 % of the single radiator's length."""
     S = _quarter_wave(ant.stub_line, f0) if stub_length is None else float(stub_length)
     single = _resonant_length(_Prepared(dataclasses.replace(ant, stack=None), float(f0), CAL), S)
 

@@ -198,7 +198,7 @@ def mutual_impedances(c1, t1, h1, seconds, k):
     mutual_impedance(c1, t1, h1, c2, t2, h2, k, one_sided, nodes) gives."""
     k = np.asarray(k, dtype=float)
     c1, t1 = np.asarray(c1, dtype=float), np.asarray(t1, dtype=float)
-    pts, dirs, us, spans, wts, starts = [], [], [], [], [], []
+    pts, dirs, us, wts, starts = [], [], [], [], []
     n = 0
     for c2, t2, h2, one_sided, nodes in seconds:
         gl_x, gl_w = _GL[nodes]
