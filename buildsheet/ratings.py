@@ -357,7 +357,7 @@ def _feed_mismatch(design, s) -> list[Finding]:
     ratio = max(zf, z0) / min(zf, z0)
     best, left = nearest_ratio(ratio)
     fix = (f"a 1:{best:g} current balun at the tap would leave SWR {left:.2f}" if best > 1 else "")
-    exact = f"a {ratio:.3g}:1 impedance transformer would bring it to 1"
+    exact = f"{units.article(f'{ratio:.3g}')} {ratio:.3g}:1 impedance transformer would bring it to 1"
     return [Finding(
         part="feed", anchor="feed",
         figure=(f"the tap is matched to {units.format_impedance(zf)} but the {design.feed.coax} is "

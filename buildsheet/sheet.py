@@ -539,7 +539,8 @@ class _Context:
                                  f"velocity factor {s.stub_line.velocity_factor:.3f}" +
                                  (f" (sources {velocity_factor_text(*d.stub.velocity_factor_spread)})"
                                   if d.stub.velocity_factor_spread is not None else ""))),
-                ("feed", _e(f"{d.feed.coax}, a {self.length(d.feed.length_m, coarse=True)} run from the tap "
+                ("feed", _e(f"{d.feed.coax}, "
+                            f"{units.article(run := self.length(d.feed.length_m, coarse=True))} {run} run from the tap "
                             f"to the station, choked at the tap ({self.length(s.feed_coax_m, coarse=True)} "
                             "cut, the choke's turns and a pigtail included)")),
                 ("power", _e(f"{self.pep}, {MODE_NAMES.get(d.power.mode, d.power.mode)}")),
@@ -587,7 +588,8 @@ class _Context:
         """A cut item's note, with its tuning margin (solver.FirstCut) where it has one."""
         if not self.shown(item.margin_m):
             return item.note
-        return (f"{item.note}, and a {self.length(item.margin_m)} tuning margin: the first cut starts "
+        margin = self.length(item.margin_m)
+        return (f"{item.note}, and {units.article(margin)} {margin} tuning margin: the first cut starts "
                 "long (see the tuning procedure)")
 
     # -- 6. predicted performance ------------------------------------------------------------
@@ -636,7 +638,8 @@ class _Context:
             *self.sleeve_facts(),
             Facts((
                 ("coil", _e(f"{c.turns} turn{'s' if c.turns != 1 else ''} of {d.feed.coax} close-wound "
-                            f"on a {self.length(c.form_diameter_m)} form, {self.length(c.coil_length_m)} "
+                            f"on {units.article(form := self.length(c.form_diameter_m))} {form} form, "
+                            f"{self.length(c.coil_length_m)} "
                             "long")),
                 ("inductance", _e(f"{c.inductance_h * 1e6:.3g} µH")),
                 ("self-resonance", _e(f"{_freq(c.self_resonance_hz)} "

@@ -24,6 +24,7 @@ from buildsheet.physics.coax import matched_loss_db, through_coax, total_loss_db
 from buildsheet.physics.lines import DB_PER_NEPER, Line, reflection, swr
 from buildsheet.schema import RULES, deg, metres
 from buildsheet.stock import rigid_kind
+from buildsheet.units import article
 
 FT = 0.3048
 SWEEP_POINTS = 241
@@ -834,7 +835,8 @@ def check_far_end_clearance(design: Design, radiator: float, solved: bool = True
     clearance = RULES["far_end_clears_ground"].value
     far = site.height_m - radiator * math.sin(site.slope_rad)
     if site.orientation == "sloper" and far < clearance:
-        raise design.fail("site.slope", f"a {deg(site.slope_rad)} slope from {metres(site.height_m)} puts "
+        slope = deg(site.slope_rad)
+        raise design.fail("site.slope", f"{article(slope)} {slope} slope from {metres(site.height_m)} puts "
                           f"the radiator's far end {metres(far)} above ground (the "
                           f"{'solved radiator is' if solved else 'radiator is about'} {metres(radiator)}); "
                           "use a smaller slope or a higher top")

@@ -96,8 +96,15 @@ _AWG = re.compile(r"#\s*(?P<a>\d+(?:/0)?)\s*(?:awg)?|(?P<b>\d+(?:/0)?)\s*awg|awg
                   re.I)
 
 
-def _article(word: str) -> str:
-    return "an" if word[0] in "aeiou" else "a"
+def article(text: str) -> str:
+    """'a' or 'an' before `text` as it is read aloud: a word by its first letter, a number by how it
+    is spoken (an 8, an 11, an 18, an 82' 0", an 18.6 m; a 1, a 110, a 25 m)."""
+    digits = re.match(r"\d[\d,]*", text)
+    if digits is None:
+        return "an" if text[:1].lower() in tuple("aeiou") else "a"
+    whole = digits.group().replace(",", "")
+    # eight..., or eleven/eighteen (thousand, million ...): a group of two leading digits
+    return "an" if whole[0] == "8" or (len(whole) % 3 == 2 and whole[:2] in ("11", "18")) else "a"
 
 
 def _needs_unit(kind: str, text: str) -> str:
@@ -105,7 +112,7 @@ def _needs_unit(kind: str, text: str) -> str:
 
 
 def _needs_unit_got(kind: str, got: str) -> str:
-    return f"must be {_article(kind)} {kind} with a unit ({_HINTS[kind]}), got {got}"
+    return f"must be {article(kind)} {kind} with a unit ({_HINTS[kind]}), got {got}"
 
 
 def _text_of(value, kind: str) -> str:
@@ -151,13 +158,13 @@ def _unit_factor(unit: str, kind: str, text: str, hint_kinds: tuple[str, ...]) -
     if canon is None:
         best = _suggest(unit, hint_kinds)
         if best is None:
-            raise UnitError(f"'{text}' has an unknown unit '{unit}'; {_article(kind)} {kind} needs one of "
+            raise UnitError(f"'{text}' has an unknown unit '{unit}'; {article(kind)} {kind} needs one of "
                             f"{_HINTS[kind]}")
         note = " (m is metre or milli, M is mega)" if best.casefold() == unit.casefold() else ""
         raise UnitError(f"'{text}' has an unknown unit '{unit}'; did you mean '{best}'?{note}")
     unit_kind, factor = _UNITS[canon]
     if unit_kind != kind:
-        raise UnitError(f"'{text}' is {_article(unit_kind)} {unit_kind}, not {_article(kind)} {kind}")
+        raise UnitError(f"'{text}' is {article(unit_kind)} {unit_kind}, not {article(kind)} {kind}")
     return factor
 
 

@@ -12,7 +12,7 @@ from hypothesis import given
 from hypothesis import strategies as st
 
 from buildsheet.errors import UnitError
-from buildsheet.units import (awg_diameter, format_angle, format_complex_impedance, format_current,
+from buildsheet.units import (article, awg_diameter, format_angle, format_complex_impedance, format_current,
                               format_distance, format_frequency, format_impedance, format_length,
                               format_percent, format_power, format_voltage, length_rounding,
                               parse_quantity, parse_wire)
@@ -358,3 +358,16 @@ def test_three_figure_formats_parse_back(function, unit, value):
         value /= 1e4
     back = parse_quantity(function(value), unit)
     assert back == pytest.approx(value, rel=5e-3)      # 3 significant figures: at most 0.5 % off
+
+
+@pytest.mark.parametrize("text, expected", [
+    ("8", "an"), ("82' 0\"", "an"), ("800 mm", "an"), ("8.5 m", "an"),
+    ("11 m", "an"), ("18.6 m", "an"), ("11,000", "an"), ("18000", "an"),
+    ("1 m", "a"), ("110 m", "a"), ("1,100", "a"), ("25 m", "a"), ("3.2", "a"), ("1:4", "a"),
+    ("length", "a"), ("inductance", "an"),
+])
+def test_article_follows_the_spoken_number(text, expected):
+    # English usage (common practice): the article goes by the sound of the word that follows, so a
+    # figure takes 'an' when read aloud it starts with a vowel: eight..., eleven, eighteen (and their
+    # thousands); 'an 82 ft run' on the sheet, never 'a 82 ft run'
+    assert article(text) == expected

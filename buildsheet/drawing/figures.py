@@ -922,7 +922,8 @@ def _tube(ctx: _Context) -> Drawing:
               "measured on your fittings." if parts.fittings else
               "the conductors pass through the short bar by the length shown."),
              "Tuning: the tap and the long element's top; the short stays where it is."
-             + (f" The top includes a {fmt(m_rad)} tuning margin." if m_rad > 0 else ""),
+             + (f" The top includes {units.article(fmt(m_rad))} {fmt(m_rad)} tuning margin."
+                if m_rad > 0 else ""),
              ctx.rounding_note()]
     return _finish(ctx, "Long element and pieces: as cut and assembled", sheet.items, body_h, notes)
 
