@@ -3,7 +3,7 @@ owns wire-antenna physics only: no I/O, no design keys, nothing about the stub o
 
 Symbols (SI throughout; functions broadcast over numpy arrays of f; loop_radiation_resistance,
 loop_reactance(_slope), schelkunoff_z0 and wavenumber also take plain floats > 0 and then return
-floats, computed with math and one scipy call: the solves' scalar path, see jpole._Prepared):
+floats, computed with math alone: the solves' scalar path, see jpole._Prepared):
 
     f        frequency, Hz;  lam = c/f free-space wavelength, m;  k = 2 pi/lam, rad/m
     eta0     free-space wave impedance, ohm (eta0/(4 pi) = 29.98 ohm)
@@ -24,9 +24,8 @@ from __future__ import annotations
 import math
 
 import numpy as np
-from scipy.special import sici
-
 from buildsheet.physics.constants import C0, epsilon_0, mu_0
+from buildsheet.physics.special import sici
 
 ETA0 = float(np.sqrt(mu_0 / epsilon_0))
 _ETA_4PI = ETA0 / (4.0 * np.pi)
@@ -48,14 +47,14 @@ def _si(x):
 
 
 def _scalar(x) -> bool:
-    """Whether x takes the scalar path: a finite float > 0 (math functions and one scipy call)."""
+    """Whether x takes the scalar path: a finite float > 0 (math functions and special.sici)."""
     return isinstance(x, float) and 0.0 < x < math.inf
 
 
 def _sici_pair(x):
     """(Si(x), Ci(x), Si(2x), Ci(2x)): floats for a scalar x (_scalar), else arrays."""
     if _scalar(x):
-        (si1, si2), (ci1, ci2) = (v.tolist() for v in sici(np.array([x, 2.0 * x])))
+        (si1, ci1), (si2, ci2) = sici(x), sici(2.0 * x)
         return si1, ci1, si2, ci2
     x = np.asarray(x, dtype=float)
     return (*sici(x), *sici(2 * x))
@@ -93,8 +92,7 @@ def loop_reactance(kl, ka):
     """
     if _scalar(kl) and _scalar(ka):
         m = math
-        si, ci = (v.tolist() for v in sici(np.array([kl, 2 * kl, 2 * ka**2 / kl])))
-        (si1, si2, _), (ci1, ci2, ci_a) = si, ci
+        (si1, ci1), (si2, ci2), (_, ci_a) = sici(kl), sici(2 * kl), sici(2 * ka**2 / kl)
     else:
         m = np
         kl = np.asarray(kl, dtype=float)
