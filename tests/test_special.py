@@ -140,3 +140,13 @@ def test_elliptic_refuses_outside_zero_to_one():
     for m in (-0.1, 1.0, 1.5):
         with pytest.raises(ValueError):
             special.ellipk(m)
+
+
+@settings(max_examples=200, deadline=None)
+@given(st.lists(st.floats(-1e9, 1e9), max_size=40), st.lists(st.floats(-1e9, 1e9), max_size=5))
+def test_union1d_as_numpy(a, b):
+    """physics.union1d (the sweep's grid with f0 added) against numpy.union1d."""
+    from buildsheet.physics import union1d
+
+    got, ref = union1d(a, b), np.union1d(np.array(a, dtype=float), np.array(b, dtype=float))
+    assert got.dtype == ref.dtype and np.array_equal(got, ref)

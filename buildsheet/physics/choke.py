@@ -26,7 +26,7 @@ from dataclasses import dataclass
 
 import numpy as np
 
-from buildsheet.physics import ModelError
+from buildsheet.physics import ModelError, union1d
 from buildsheet.physics.conductors import surface_resistance
 from buildsheet.physics.constants import C0, epsilon_0, inch, mu_0
 from buildsheet.physics.special import ellipke
@@ -308,7 +308,7 @@ def design_coax_choke(f_design, f_band_high, form_od, cable_od, z_target=1000.0,
         raise ModelError(f"choke target must be positive with a margin >= 1 and at least one turn, "
                           f"got {z_target} ohm, margin {srf_margin}, {max_turns} turns")
 
-    band = np.union1d(np.linspace(f_low, f_band_high, _BAND_POINTS), [f_design])
+    band = union1d(np.linspace(f_low, f_band_high, _BAND_POINTS), [f_design])
     d_mean = form_od + cable_od
     pitch = cable_od
     turns = np.arange(1, int(max_turns) + 1)
@@ -463,7 +463,7 @@ def design_sleeve_choke(f_design, f_band_low, f_band_high, cable_od, shield_d, j
         raise ModelError(f"the braid's diameter {shield_d} m must be positive and under the cable's "
                          f"outer diameter {cable_od} m")
     centre = float(np.sqrt(f_band_low * f_band_high))
-    band = np.union1d(np.linspace(f_band_low, f_band_high, _BAND_POINTS), [f_design])
+    band = union1d(np.linspace(f_band_low, f_band_high, _BAND_POINTS), [f_design])
     best = None
     for ratio in ratios:
         d_sleeve = ratio * cable_od

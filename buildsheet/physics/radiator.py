@@ -24,6 +24,8 @@ from __future__ import annotations
 import math
 
 import numpy as np
+
+from buildsheet.physics import resonance_table
 from buildsheet.physics.constants import C0, epsilon_0, mu_0
 from buildsheet.physics.special import sici
 
@@ -113,22 +115,40 @@ def _resonance_factor_newton(ka):
     ka = np.asarray(ka, dtype=float)
     kl = np.full_like(ka, 0.97 * np.pi)
     h = 1e-6
-    for _ in range(10):
+    for _ in range(6):      # from kl = 0.97 pi the table is exact to the last bit after 6 (as after 10)
         x = loop_reactance(kl, ka)
         dx = (loop_reactance(kl + h, ka) - x) / h
         kl = kl - x / dx
     return kl / np.pi
 
 
-# K depends on ka alone and smoothly on ln(ka): tabulate the Newton root once, interpolate after.
+# K depends on ka alone and smoothly on ln(ka): the Newton root tabulated once, interpolated after.
+# The table is stored as literals in resonance_table.py (written by write_resonance_table(); working
+# it out at import cost a build about 20 ms); tests/test_radiator_table.py checks that it is what
+# _resonance_factor_newton gives.
 _LN_KA_TABLE = np.linspace(np.log(1e-7), np.log(0.2), 2000)
-_K_TABLE = _resonance_factor_newton(np.exp(_LN_KA_TABLE))
+_K_TABLE = np.array(resonance_table.K)
+
+
+def write_resonance_table(path=None) -> None:
+    """Write physics/resonance_table.py: K at the nodes _LN_KA_TABLE, as _resonance_factor_newton
+    gives it (repr round-trips a float exactly)."""
+    import pathlib
+
+    k = _resonance_factor_newton(np.exp(_LN_KA_TABLE))
+    lines = ['"""K = (resonant length of a thin centre-fed dipole)/(lam/2) at ka = exp(radiator._LN_KA_TABLE):',
+             "radiator._resonance_factor_newton's roots, written by radiator.write_resonance_table() (do not",
+             'edit; tests/test_radiator_table.py checks them)."""', "", "K = ("]
+    lines += [f"    {v!r}," for v in k.tolist()]
+    lines.append(")")
+    path = pathlib.Path(__file__).with_name("resonance_table.py") if path is None else path
+    pathlib.Path(path).write_text("\n".join(lines) + "\n")
 
 
 def resonance_factor(ka):
     """K = (resonant length of a centre-fed dipole)/(lam/2): the root of the induced-EMF input
-    reactance (Carter 1932; Balanis eq. 4-71) near kl = pi (vectorised; tabulated in ln(ka) at
-    import; linear interpolation between nodes is good to 1e-6 in K).
+    reactance (Carter 1932; Balanis eq. 4-71) near kl = pi (vectorised; tabulated in ln(ka),
+    resonance_table.py; linear interpolation between nodes is good to 1e-6 in K).
 
     ka: electrical radius k a, rad, 1e-7..0.2. Gives K = 0.9728 for (lam/2)/d = 6485, against
     0.9712 from NEC-2 (CHECK_VALUES §3d): the induced-EMF end effect from the length-to-diameter ratio.
