@@ -38,8 +38,11 @@ def _face(bold: bool):
     return pdfmetrics.getFont(FONT_BOLD if bold else FONT).face
 
 
+@functools.lru_cache(maxsize=8192)
 def text_width(text: str, size: float, bold: bool = False) -> float:
-    """Advance width in points of `text` set in Vera (bold: Vera Bold) at `size` points."""
+    """Advance width in points of `text` set in Vera (bold: Vera Bold) at `size` points (kept per
+    text: the placement of labels and the sheet's tables ask for the same texts many times, and
+    reportlab measures in Python, glyph by glyph)."""
     register_fonts()
     return pdfmetrics.stringWidth(text, FONT_BOLD if bold else FONT, size)
 
