@@ -1,4 +1,4 @@
-"""The physics of the antenna: numpy/scipy only, no I/O, no design keys.
+"""The physics of the antenna: numpy and math only (no scipy: physics/special.py), no I/O, no design keys.
 
 One error policy: a refusal is ModelError (a ValueError) with a plain message and no file or key;
 the solver, which knows the design, turns it into a DesignError naming the file.
