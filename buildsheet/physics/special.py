@@ -21,13 +21,12 @@ import numpy as np
 EULER_GAMMA = 0.5772156649015329
 
 # Si/Ci: the power series below this x, the continued fraction of E1(ix) above it (Abramowitz &
-# Stegun 5.2.14 for the series; 5.1.22 for the fraction, evaluated by the modified Lentz method).
+# Stegun 5.2.14 for the series; 5.1.22 for the fraction, evaluated from its tail: _e1_cf).
 # At x = 4 the series' largest term is 2.7 (Ci) against a result of order 0.1-1: about one digit
-# lost to cancellation, and 17 terms reach 1e-19; the fraction needs at most 40 terms from x = 4 up.
+# lost to cancellation, and 17 terms reach 1e-19; the fraction needs at most 62 terms from x = 4 up.
 _SICI_SERIES_MAX = 4.0
 _SICI_TERMS = 18
-_CF_MAX_TERMS = 200
-_EPS = 2.0 ** -51     # a fraction has converged when a step changes it by under 2 ulp
+_EPS = 2.0 ** -51     # J1/J0's fraction has converged when a step changes it by under 2 ulp
 _TINY = 1e-300
 
 # Series coefficients: Si(x) = sum_n (-1)^n x^(2n+1) / ((2n+1) (2n+1)!),
@@ -43,39 +42,21 @@ def _horner(coef, t):
     return s
 
 
-def _e1_cf(z):
-    """E1(z) e^z for Re z >= 0, |z| >= 4, by the continued fraction
-    E1(z) = e^-z (1/(z+1-) 1/(z+3-) 4/(z+5-) 9/(z+7-) ...) (A&S 5.1.22, even form), modified Lentz.
-    z: a Python complex (scalar) or a complex array (iterated until every element has converged)."""
-    if isinstance(z, complex):
-        b = z + 1.0
-        c = 1.0 / _TINY
-        d = 1.0 / b
-        h = d
-        for i in range(1, _CF_MAX_TERMS):
-            a = -float(i * i)
-            b += 2.0
-            d = 1.0 / (a * d + b)
-            c = b + a / c
-            delta = c * d
-            h *= delta
-            if abs(delta - 1.0) < _EPS:
-                return h
-        raise ArithmeticError(f"E1 continued fraction did not converge at {z}")
-    b = z + 1.0
-    c = np.full_like(z, 1.0 / _TINY)
-    d = 1.0 / b
-    h = d.copy()
-    for i in range(1, _CF_MAX_TERMS):
-        a = -float(i * i)
-        b = b + 2.0
-        d = 1.0 / (a * d + b)
-        c = b + a / c
-        delta = c * d
-        h *= delta
-        if np.all(np.abs(delta - 1.0) < _EPS):
-            return h
-    raise ArithmeticError("E1 continued fraction did not converge")
+def _e1_terms(x_min: float) -> int:
+    """Terms of the E1(ix) continued fraction that reach 1e-16 relative for every x >= x_min >= 4:
+    about 200/x (found by evaluating it against 2000 terms from x = 2 to 200), with a margin."""
+    return math.ceil(260.0 / x_min) + 6
+
+
+def _e1_cf(z, x_min: float):
+    """E1(z) e^z for z = ix, x >= x_min >= 4, by the continued fraction
+    E1(z) = e^-z (1/(z+1-) 1/(z+3-) 4/(z+5-) 9/(z+7-) ...) (A&S 5.1.22, even form), evaluated from
+    its tail backwards over _e1_terms(x_min) terms (a fixed count, so that an array is done in one
+    pass). z: a Python complex or a complex array."""
+    t = 0.0
+    for i in range(_e1_terms(x_min), 0, -1):
+        t = (i * i) / (z + (2 * i + 1) - t)
+    return 1.0 / (z + 1.0 - t)
 
 
 def _sici_scalar(x: float) -> tuple[float, float]:
@@ -87,7 +68,7 @@ def _sici_scalar(x: float) -> tuple[float, float]:
     if x == math.inf:
         return math.pi / 2, 0.0
     # -E1(ix) = Ci(x) - j (Si(x) - pi/2)  (A&S 5.2.23)
-    e1 = _e1_cf(complex(0.0, x)) * complex(math.cos(x), -math.sin(x))
+    e1 = _e1_cf(complex(0.0, x), x) * complex(math.cos(x), -math.sin(x))
     return math.pi / 2 + e1.imag, -e1.real
 
 
@@ -127,7 +108,7 @@ def sici(x):
         xl = flat[large]
         finite = np.isfinite(xl)
         xf = np.where(finite, xl, 1.0e3)
-        e1 = _e1_cf(1j * xf) * (np.cos(xf) - 1j * np.sin(xf))
+        e1 = _e1_cf(1j * xf, float(np.min(xf))) * (np.cos(xf) - 1j * np.sin(xf))
         si[large] = np.where(finite, np.pi / 2 + e1.imag, np.pi / 2)
         ci[large] = np.where(finite, -e1.real, 0.0)
     return si.reshape(x.shape), ci.reshape(x.shape)
