@@ -12,8 +12,8 @@ import math
 import numpy as np
 
 from buildsheet import fonts
-from buildsheet.drawing import shapes
-from buildsheet.drawing.shapes import TEXT_GAP, TEXT_SIZE, Arc, Box, Circle, Leader, Line, Polyline, Text
+from buildsheet.drawing.shapes import (TEXT_GAP, TEXT_SIZE, Arc, Box, Circle, Leader, Line, Polyline, Text,
+                                       segment_meets)
 
 LABEL = 7.5            # size of callout texts
 PAD = 6.0              # clearance to the drawing's edge
@@ -113,27 +113,6 @@ def _any_overlap(box: Box, boxes: list[Box], tol: float = 0.01) -> bool:
     return False
 
 
-def _meets(p, q, x0: float, y0: float, x1: float, y1: float) -> bool:
-    """Whether segment p-q has a part inside the box x0..x1, y0..y1: clip_segment(p, q, box) is not
-    None, by the same arithmetic (Liang-Barsky 1984) without building the clipped segment."""
-    dx, dy = q[0] - p[0], q[1] - p[1]
-    t0, t1 = 0.0, 1.0
-    for den, num in ((-dx, p[0] - x0), (dx, x1 - p[0]), (-dy, p[1] - y0), (dy, y1 - p[1])):
-        if abs(den) < shapes._EPS:     # as clip_segment
-            if num < 0:
-                return False
-            continue
-        t = num / den
-        if den < 0:
-            if t > t0:
-                t0 = t
-        elif t < t1:
-            t1 = t
-        if t0 > t1:
-            return False
-    return True
-
-
 def _cross(p1, p2, q1, q2) -> bool:
     """True when segments p1-p2 and q1-q2 cross each other (touching does not count)."""
     def orient(a, b, c):
@@ -189,13 +168,12 @@ class Layout:
             return False
         if not strict:
             return True
-        x0, y0, x1, y1 = grown.x0, grown.y0, grown.x1, grown.y1
-        return not any(_meets(p, q, x0, y0, x1, y1) for p, q in self._near(grown))
+        return not any(segment_meets(p, q, grown) for p, q in self._near(grown))
 
     def _leader_ok(self, p, q) -> bool:
         """A leader p-q crosses no text, runs along no line and crosses no other leader."""
         reach = Box(min(p[0], q[0]) - 2, min(p[1], q[1]) - 2, max(p[0], q[0]) + 2, max(p[1], q[1]) + 2)
-        if any(_meets(p, q, b.x0, b.y0, b.x1, b.y1) for b in self._texts
+        if any(segment_meets(p, q, b) for b in self._texts
                if b.x0 <= reach.x1 and b.x1 >= reach.x0 and b.y0 <= reach.y1 and b.y1 >= reach.y0):
             return False
         if any(_runs_along(p, q, a, b) for a, b in self._near(reach)):

@@ -24,7 +24,7 @@ import numpy as np
 from buildsheet import fonts
 from buildsheet.physics.lines import reflection
 from buildsheet.drawing.shapes import (Arc, Box, Circle, Drawing, Line, Polyline, Text, clip_polyline,
-                                       clip_segment, text_centered_at)
+                                       segment_meets, text_centered_at)
 
 TICK_SIZE = 7.0
 TITLE_SIZE = 9.0
@@ -393,7 +393,7 @@ def _covered(box: Box, segments: list, boxes: list[Box]) -> bool:
     """True when any segment crosses `box` (grown by 1 pt) or any of `boxes` overlaps it."""
     grown = Box(box.x0 - 1, box.y0 - 1, box.x1 + 1, box.y1 + 1)
     return (any(b.overlaps(grown) for b in boxes)
-            or any(clip_segment(p, q, grown) is not None for p, q in segments))
+            or any(segment_meets(p, q, grown) for p, q in segments))
 
 
 def _place_label(x: float, y: float, label: str, taken: list[Box], segments: list, area: Box) -> Text:
@@ -410,7 +410,7 @@ def _place_label(x: float, y: float, label: str, taken: list[Box], segments: lis
         if not box.within(area) or any(box.overlaps(t) for t in taken):
             continue
         grown = Box(box.x0 - 1, box.y0 - 1, box.x1 + 1, box.y1 + 1)
-        crossings = sum(1 for p, q in segments if clip_segment(p, q, grown) is not None)
+        crossings = sum(1 for p, q in segments if segment_meets(p, q, grown))
         if best is None or crossings < best[0]:
             best = (crossings, text)
     if best is None:
