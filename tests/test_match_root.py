@@ -73,7 +73,7 @@ def _random_antennas(n, seed=20261205):
             spacing=spacing, stub_conductor_d=d, stub_sigma=CU, wire_d=d, wire_sigma=CU,
             wire_vf=float(rng.uniform(0.93, 1.0)), orientation=orientation,
             slope=float(np.radians(rng.uniform(10, 70))),
-            height=float(rng.uniform(0.6, 1.5) * lam if orientation != "vertical" else rng.uniform(0.05, 1) * lam),
+            height=float(lam * (rng.uniform(0.6, 1.5) if orientation != "vertical" else rng.uniform(0.05, 1))),
             ground_kind=ground, ground_eps_r=float(rng.uniform(3, 40)),
             ground_sigma=float(10 ** rng.uniform(-4, -1)))
         yield f0, float(rng.choice([50.0, 50.0, 75.0, 25.0, 100.0])), ant
