@@ -114,6 +114,9 @@ def _nice_ticks(lo: float, hi: float, room: float, size: float) -> tuple[list[fl
                                              math.floor(hi / step + 1e-9) + 1)]
             if len(ticks) <= 2:
                 return ticks, decimals
+            # one label's width is at most the widest: a spacing too narrow for it is too narrow
+            if step / span * room < fonts.text_width(f"{ticks[0]:.{decimals}f}", size) + 6.0:
+                continue
             widest = max(fonts.text_width(f"{t:.{decimals}f}", size) for t in ticks)
             if step / span * room >= widest + 6.0:
                 return ticks, decimals
