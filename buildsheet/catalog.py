@@ -23,6 +23,7 @@ from __future__ import annotations
 
 import difflib
 import functools
+import hashlib
 import importlib.resources
 import math
 from collections.abc import Mapping
@@ -412,12 +413,45 @@ def _build(raw: dict) -> Catalog:
     )
 
 
-@functools.cache
-def _raw() -> dict:
-    text = importlib.resources.files("buildsheet").joinpath("data/catalog.yaml").read_text(encoding="utf-8")
+def _text() -> str:
+    return importlib.resources.files("buildsheet").joinpath("data/catalog.yaml").read_text(encoding="utf-8")
+
+
+def _read(text: str) -> dict:
     # libyaml's parser where PyYAML has it: the same safe constructors, a tenth of the time (the
     # catalogue was 0.08 s of every build); tests/test_catalog.py checks both read it alike
     return yaml.load(text, Loader=getattr(yaml, "CSafeLoader", yaml.SafeLoader))
+
+
+@functools.cache
+def _raw() -> dict:
+    """data/catalog.yaml as read: from catalog_data.py (the same data as Python literals, written by
+    write_catalog_data) when that was written from this very text, else by the YAML reader (reading
+    the YAML was about 8 ms of every build; tests/test_catalog.py checks the two alike)."""
+    text = _text()
+    from buildsheet import catalog_data
+
+    if catalog_data.SHA256 == hashlib.sha256(text.encode("utf-8")).hexdigest():
+        return catalog_data.DATA
+    return _read(text)
+
+
+def write_catalog_data(path=None) -> None:
+    """Write buildsheet/catalog_data.py: data/catalog.yaml as the YAML reader gives it, as Python
+    literals (pprint: repr of every value, so floats and strings come back exactly), with the
+    SHA-256 of the text it was read from. Run after editing data/catalog.yaml (tests fail until)."""
+    import pathlib
+    import pprint
+
+    text = _text()
+    data = _read(text)
+    body = pprint.pformat(data, width=100, sort_dicts=False)
+    out = pathlib.Path(__file__).with_name("catalog_data.py") if path is None else pathlib.Path(path)
+    out.write_text('"""data/catalog.yaml as read by catalog._read, as Python literals: written by '
+                   'catalog.write_catalog_data()\n(do not edit; used only while SHA256 is that of '
+                   'data/catalog.yaml)."""\n\n'
+                   f"SHA256 = {hashlib.sha256(text.encode('utf-8')).hexdigest()!r}\n\nDATA = {body}\n",
+                   encoding="utf-8")
 
 
 @functools.cache

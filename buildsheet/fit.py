@@ -43,7 +43,12 @@ Method.
    A sweep with |rho| above touchstone.MAX_REFLECTION anywhere is refused as from an uncalibrated
    analyzer (the readers refuse such files already; this covers sweeps given to fit_sweep directly).
 3. Advice. Target: the model's own match at f0, (L_t, S_t, T_t). The radiator is retuned to
-   resonance only if fitting L_e cut the rms residual to RADIATOR_EVIDENCE of the fit without it;
+   resonance only if fitting L_e cut the rms residual to RADIATOR_EVIDENCE of the fit without it,
+   the two residuals compared only if the fit without it left one an analyzer could show (above
+   RESOLVABLE_RMS). Below that (a sweep the model itself made: both residuals at rounding level,
+   and comparing them would decide by the last bits of the arithmetic) the sweep says nothing
+   about the radiator, and the radiator as built decides: it is retuned if bringing it to
+   resonance is a move the tape makes (at least the smallest move, as the steps round them);
    otherwise it is left as it is (L_t = L_e) and the stub and tap are matched to it. At the feed the
    radiator is seen only through the stub, so a model error is easily taken for a radiator error:
    against NEC-2 sweeps of 20 m antennas (tests/test_fit.py, measured while writing this module) the
@@ -116,6 +121,12 @@ MIN_RISE = 0.1
 #: the advice retunes the radiator only if fitting its length makes the rms residual at most this
 #: share of the residual with the radiator as built
 RADIATOR_EVIDENCE = 0.1
+#: a weighted rms |rho| residual below this is no evidence of anything: 100 times below the trace
+#: noise of the best calibrated analyzers (about 1e-4 in |rho|, -80 dB; common practice, from
+#: memory), 1e-6 is far beyond what a measured sweep resolves, and far above the rounding level
+#: (1e-15) that a sweep made by the model itself leaves. Below it the fits' residuals are not
+#: compared (step 3 of the module docstring)
+RESOLVABLE_RMS = 1e-6
 MAX_NFEV = 100
 #: the weight of a point is (1 - |rho_meas|^2) to this power. Against NEC-2 sweeps of mis-cut 20 m
 #: antennas (free space / perfect ground) 1 left SWR 1.31 / 1.25 after the moves, 2 left 1.29 / 1.22
@@ -483,6 +494,10 @@ def fit_sweep(design: Design, sweep: Sweep, built: Dimensions | None = None, at:
     # a radiator fitted to the edge of its range is no description: keep it as built
     x = x3 if not edge3 else np.array([x2[0], x2[1], 1.0])
     retune = not edge3 and rms3 <= RADIATOR_EVIDENCE * rms2
+    # both residuals below what an analyzer resolves (a sweep the model made): the sweep cannot say
+    # whether the radiator is off, and rms3 <= 0.1 rms2 would compare rounding errors; decided below
+    # by the radiator as built instead
+    unresolved = not edge3 and rms2 <= RESOLVABLE_RMS
     E = (D0.radiator * x[2], D0.stub * x[0], D0.tap * x[1])
     z_fit = model0.z_feed(f, *E)
 
@@ -496,7 +511,12 @@ def fit_sweep(design: Design, sweep: Sweep, built: Dimensions | None = None, at:
             target, rho_t = fixed_short_target(model0, f0, z_ref, E)
             target_swr = float(swr_of(rho_t))
         else:
-            target = model0.resolve(f0, z_ref) if retune else (E[0], *model0.match(f0, z_ref, E[0]))
+            resolved = model0.resolve(f0, z_ref) if retune or unresolved else None
+            if unresolved:
+                # the radiator as fitted (its length as built: nothing in the sweep moved it) is
+                # retuned if bringing it to resonance is a move the tape makes (_tape_move)
+                retune = _tape_move(resolved[0] - E[0], design.output.units) != 0.0
+            target = resolved if retune else (E[0], *model0.match(f0, z_ref, E[0]))
     except ValueError as exc:
         raise SweepError(f"gives an antenna the model cannot match at "
                          f"{units.format_frequency(f0)} ({exc})", file=sweep.path) from None

@@ -19,16 +19,29 @@ FONT = "Vera"
 FONT_BOLD = "VeraBd"
 FONT_ITALIC = "VeraIt"
 
-# reportlab resolves these bare names through rl_config.TTFSearchPath, which includes its own
-# fonts folder, so no install path is written here.
+# the files of reportlab's own fonts folder (the package ships Vera), found by _font_file
 _FILES = {FONT: "Vera.ttf", FONT_BOLD: "VeraBd.ttf", FONT_ITALIC: "VeraIt.ttf"}
+
+
+def _font_file(file: str) -> str:
+    """The full path of `file` in reportlab's fonts folder, or the bare name if it is not there
+    (reportlab then searches rl_config.TTFSearchPath, which includes that folder). Given a bare
+    name, reportlab first tries it as a file in the current folder and then as a URL, importing
+    urllib.request, http.client and ssl on the way (about 25 ms of every build), and a Vera.ttf in
+    the user's current folder would be taken before its own."""
+    import os
+
+    import reportlab
+
+    path = os.path.join(os.path.dirname(reportlab.__file__), "fonts", file)
+    return path if os.path.isfile(path) else file
 
 
 @functools.cache
 def register_fonts() -> None:
     """Register Vera, Vera Bold and Vera Italic with reportlab (once per process)."""
     for name, file in _FILES.items():
-        pdfmetrics.registerFont(TTFont(name, file))
+        pdfmetrics.registerFont(TTFont(name, _font_file(file)))
     pdfmetrics.registerFontFamily(FONT, normal=FONT, bold=FONT_BOLD, italic=FONT_ITALIC,
                                   boldItalic=FONT_BOLD)
 
@@ -38,8 +51,11 @@ def _face(bold: bool):
     return pdfmetrics.getFont(FONT_BOLD if bold else FONT).face
 
 
+@functools.lru_cache(maxsize=8192)
 def text_width(text: str, size: float, bold: bool = False) -> float:
-    """Advance width in points of `text` set in Vera (bold: Vera Bold) at `size` points."""
+    """Advance width in points of `text` set in Vera (bold: Vera Bold) at `size` points (kept per
+    text: the placement of labels and the sheet's tables ask for the same texts many times, and
+    reportlab measures in Python, glyph by glyph)."""
     register_fonts()
     return pdfmetrics.stringWidth(text, FONT_BOLD if bold else FONT, size)
 

@@ -15,7 +15,7 @@ import numpy as np
 from buildsheet.design import Design
 from buildsheet.errors import BuildsheetError, DesignError
 from buildsheet.layout import TIE_OFF_M, site_layout
-from buildsheet.physics import ModelError
+from buildsheet.physics import ModelError, union1d
 from buildsheet.physics import choke as choke_physics
 from buildsheet.physics import exposure as exposure_physics
 from buildsheet.physics import jpole
@@ -570,7 +570,7 @@ def _solve(design: Design) -> Solution:
 
     low, high = design.band_hz
     f = np.linspace(low * (1 - SWEEP_MARGIN), high * (1 + SWEEP_MARGIN), SWEEP_POINTS)
-    f = np.union1d(f, [f0])
+    f = union1d(f, [f0])
     z = jpole.feed_impedance(f, ant, radiator, stub, tap)
     swr_feed = swr(z, z_feed)
     ch = choke_physics.design_coax_choke(f0, high, design.feed.choke_form_m,
@@ -654,7 +654,7 @@ def _stack_data(design: Design, ant, state, pattern) -> "StackData":
         r1 = radiation_physics.radiation(at_single, radiator, stub, st1.efficiency)
     low, high = design.band_hz
     f = np.linspace(low * (1 - SWEEP_MARGIN), high * (1 + SWEEP_MARGIN), SWEEP_POINTS)
-    f = np.union1d(f, [f0])
+    f = union1d(f, [f0])
     swr1 = swr(jpole.feed_impedance(f, single, radiator, stub, tap), design.feed.impedance_ohm)
     st = ant.stack
     return StackData(element_m=st.element, phasing_m=st.phasing, phasing_spacing_m=st.spacing,

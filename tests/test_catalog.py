@@ -372,3 +372,23 @@ def test_the_catalogue_reads_alike_with_libyaml_and_pyyaml():
         pytest.skip("this PyYAML has no libyaml: _raw reads with the pure-Python loader itself")
     assert catalog_module._raw() == python
     assert repr(catalog_module._raw()) == repr(python)      # types too (1 and 1.0, True and 'yes')
+
+
+def test_stored_catalogue_data_is_todays_catalogue(tmp_path):
+    """catalog_data.py (the catalogue as Python literals, what a build reads) was written from
+    today's data/catalog.yaml and holds what the YAML reader gives, type for type (PyYAML itself is
+    the reference); write_catalog_data() writes the same file again."""
+    import hashlib
+
+    import yaml
+
+    from buildsheet import catalog as catalog_module
+    from buildsheet import catalog_data
+
+    text = catalog_module._text()
+    assert catalog_data.SHA256 == hashlib.sha256(text.encode("utf-8")).hexdigest(), \
+        "data/catalog.yaml changed: run catalog.write_catalog_data()"
+    assert repr(catalog_data.DATA) == repr(yaml.load(text, Loader=yaml.SafeLoader))
+    catalog_module.write_catalog_data(tmp_path / "again.py")
+    stored = (catalog_module.__file__.rsplit("/", 1)[0] + "/catalog_data.py")
+    assert (tmp_path / "again.py").read_text() == open(stored, encoding="utf-8").read()

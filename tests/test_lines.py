@@ -377,3 +377,25 @@ def test_swr_never_nan_for_finite_z(z):
     s = swr(z)
     assert not np.isnan(s)
     assert s >= 1.0
+
+
+def test_two_column_nnls_as_scipy_nnls():
+    """lines._nnls_two_columns (the loss law's sqrt(f) + f fit) against scipy.optimize.nnls (the
+    reference library, Lawson & Hanson's active-set method) on random problems, both signs of data."""
+    from scipy.optimize import nnls
+
+    from buildsheet.physics.lines import _nnls_two_columns
+
+    rng = np.random.default_rng(14)
+    for _ in range(500):
+        n = int(rng.integers(2, 8))
+        f = np.sort(rng.uniform(0.01, 1.0, n))
+        a = np.column_stack([np.sqrt(f), f])
+        b = rng.normal(size=n) * rng.choice([0.01, 1.0, 100.0])
+        ours = np.array(_nnls_two_columns(a, b))
+        ref, _ = nnls(a, b)
+        assert np.all(ours >= 0)
+        # same minimum; the same point where the minimum is unique (a has full rank here)
+        floor = n * (1e-14 * np.max(np.abs(b))) ** 2     # rounding level of a residual
+        assert np.sum((a @ ours - b) ** 2) <= np.sum((a @ ref - b) ** 2) * (1 + 1e-12) + floor
+        np.testing.assert_allclose(ours, ref, rtol=1e-9, atol=1e-12 * np.max(np.abs(b)))

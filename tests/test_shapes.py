@@ -348,3 +348,20 @@ def test_touching_text_boxes_do_not_count_as_overlap():
     assert Drawing(100, 40, [a, b]).check_layout() == []
     c = Text(10 + a.advance - 0.5, 20, "cd")
     assert [p.kind for p in Drawing(100, 40, [a, c]).check_layout()] == ["overlap"]
+
+
+def test_segment_meets_is_clip_segment_not_none():
+    """shapes.segment_meets (the placement's quick test) decides as clip_segment (Liang-Barsky 1984)
+    on random segments and boxes, axis-parallel and touching ones included."""
+    import random
+
+    from buildsheet.drawing.shapes import Box, clip_segment, segment_meets
+
+    rng = random.Random(5)
+    for _ in range(20000):
+        x0, y0 = rng.choice([0.0, rng.uniform(-5, 5)]), rng.uniform(-5, 5)
+        box = Box(x0, y0, x0 + rng.choice([0.0, 1.0, rng.uniform(0, 4)]), y0 + rng.uniform(0, 4))
+        p = (rng.choice([box.x0, box.x1, rng.uniform(-8, 8)]), rng.uniform(-8, 8))
+        q = rng.choice([(p[0], rng.uniform(-8, 8)), (rng.uniform(-8, 8), p[1]),
+                        (rng.uniform(-8, 8), rng.uniform(-8, 8)), p])
+        assert segment_meets(p, q, box) == (clip_segment(p, q, box) is not None)

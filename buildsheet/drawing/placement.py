@@ -13,7 +13,7 @@ import numpy as np
 
 from buildsheet import fonts
 from buildsheet.drawing.shapes import (TEXT_GAP, TEXT_SIZE, Arc, Box, Circle, Leader, Line, Polyline, Text,
-                                       clip_segment)
+                                       segment_meets)
 
 LABEL = 7.5            # size of callout texts
 PAD = 6.0              # clearance to the drawing's edge
@@ -103,15 +103,14 @@ def _runs_along(p1, p2, q1, q2) -> bool:
     return min(t[1], n) - max(t[0], 0.0) > 2.0
 
 
-def _box_array(boxes: list[Box]) -> np.ndarray:
-    return np.array([(b.x0, b.y0, b.x1, b.y1) for b in boxes]).reshape(-1, 4)
-
-
-def _any_overlap(box: Box, a: np.ndarray, tol: float = 0.01) -> bool:
-    """True when `box` overlaps any of the boxes (rows x0, y0, x1, y1 of `a`) by more than `tol`,
-    as Box.overlaps."""
-    return bool(np.any((np.minimum(a[:, 2], box.x1) - np.maximum(a[:, 0], box.x0) > tol)
-                       & (np.minimum(a[:, 3], box.y1) - np.maximum(a[:, 1], box.y0) > tol)))
+def _any_overlap(box: Box, boxes: list[Box], tol: float = 0.01) -> bool:
+    """True when `box` overlaps any of `boxes` by more than `tol`, as Box.overlaps (in Python: a
+    figure has a few dozen boxes, fewer than numpy's overhead pays for)."""
+    x0, y0, x1, y1 = box.x0, box.y0, box.x1, box.y1
+    for b in boxes:
+        if (min(b.x1, x1) - max(b.x0, x0) > tol) and (min(b.y1, y1) - max(b.y0, y0) > tol):
+            return True
+    return False
 
 
 def _cross(p1, p2, q1, q2) -> bool:
@@ -135,10 +134,8 @@ class Layout:
         self._solids: list[Box] = []
         self._leaders: list = []
         self._index = None
-        self._arrays = None
 
     def add(self, *items) -> None:
-        self._arrays = None
         for item in items:
             self.items.append(item)
             for p in item.primitives():
@@ -161,28 +158,23 @@ class Layout:
         hits = np.flatnonzero((x0 <= box.x1) & (x1 >= box.x0) & (y0 <= box.y1) & (y1 >= box.y0))
         return [self._segments[i] for i in hits]
 
-    def _text_array(self) -> np.ndarray:
-        if self._arrays is None:
-            self._arrays = (_box_array(self._texts), _box_array(self._solids))
-        return self._arrays[0]
-
     def free(self, box: Box, strict: bool = True) -> bool:
         """True when `box` lies in the body, overlaps no text or filled area, and (strict) no line
         passes within 1 point of it."""
         if not box.within(self.area):
             return False
         grown = Box(box.x0 - 1, box.y0 - 1, box.x1 + 1, box.y1 + 1)
-        if _any_overlap(grown, self._text_array()) or _any_overlap(box, self._arrays[1]):
+        if _any_overlap(grown, self._texts) or _any_overlap(box, self._solids):
             return False
-        return not strict or all(clip_segment(p, q, grown) is None for p, q in self._near(grown))
+        if not strict:
+            return True
+        return not any(segment_meets(p, q, grown) for p, q in self._near(grown))
 
     def _leader_ok(self, p, q) -> bool:
         """A leader p-q crosses no text, runs along no line and crosses no other leader."""
         reach = Box(min(p[0], q[0]) - 2, min(p[1], q[1]) - 2, max(p[0], q[0]) + 2, max(p[1], q[1]) + 2)
-        texts = self._text_array()
-        near = np.flatnonzero((texts[:, 0] <= reach.x1) & (texts[:, 2] >= reach.x0)
-                              & (texts[:, 1] <= reach.y1) & (texts[:, 3] >= reach.y0))
-        if any(clip_segment(p, q, self._texts[i]) is not None for i in near):
+        if any(segment_meets(p, q, b) for b in self._texts
+               if b.x0 <= reach.x1 and b.x1 >= reach.x0 and b.y0 <= reach.y1 and b.y1 >= reach.y0):
             return False
         if any(_runs_along(p, q, a, b) for a, b in self._near(reach)):
             return False

@@ -24,7 +24,7 @@ import numpy as np
 from buildsheet import fonts
 from buildsheet.physics.lines import reflection
 from buildsheet.drawing.shapes import (Arc, Box, Circle, Drawing, Line, Polyline, Text, clip_polyline,
-                                       clip_segment, text_centered_at)
+                                       segment_meets, text_centered_at)
 
 TICK_SIZE = 7.0
 TITLE_SIZE = 9.0
@@ -114,6 +114,9 @@ def _nice_ticks(lo: float, hi: float, room: float, size: float) -> tuple[list[fl
                                              math.floor(hi / step + 1e-9) + 1)]
             if len(ticks) <= 2:
                 return ticks, decimals
+            # one label's width is at most the widest: a spacing too narrow for it is too narrow
+            if step / span * room < fonts.text_width(f"{ticks[0]:.{decimals}f}", size) + 6.0:
+                continue
             widest = max(fonts.text_width(f"{t:.{decimals}f}", size) for t in ticks)
             if step / span * room >= widest + 6.0:
                 return ticks, decimals
@@ -393,7 +396,7 @@ def _covered(box: Box, segments: list, boxes: list[Box]) -> bool:
     """True when any segment crosses `box` (grown by 1 pt) or any of `boxes` overlaps it."""
     grown = Box(box.x0 - 1, box.y0 - 1, box.x1 + 1, box.y1 + 1)
     return (any(b.overlaps(grown) for b in boxes)
-            or any(clip_segment(p, q, grown) is not None for p, q in segments))
+            or any(segment_meets(p, q, grown) for p, q in segments))
 
 
 def _place_label(x: float, y: float, label: str, taken: list[Box], segments: list, area: Box) -> Text:
@@ -410,7 +413,7 @@ def _place_label(x: float, y: float, label: str, taken: list[Box], segments: lis
         if not box.within(area) or any(box.overlaps(t) for t in taken):
             continue
         grown = Box(box.x0 - 1, box.y0 - 1, box.x1 + 1, box.y1 + 1)
-        crossings = sum(1 for p, q in segments if clip_segment(p, q, grown) is not None)
+        crossings = sum(1 for p, q in segments if segment_meets(p, q, grown))
         if best is None or crossings < best[0]:
             best = (crossings, text)
     if best is None:

@@ -25,11 +25,11 @@ import functools
 from dataclasses import dataclass
 
 import numpy as np
-from scipy.special import ellipe, ellipk
 
-from buildsheet.physics import ModelError
+from buildsheet.physics import ModelError, union1d
 from buildsheet.physics.conductors import surface_resistance
 from buildsheet.physics.constants import C0, epsilon_0, inch, mu_0
+from buildsheet.physics.special import ellipke
 
 # Copper: the shield's outer surface taken as a smooth copper tube. Real braid loses more, so the
 # resulting |Z| near self-resonance is an upper bound; sizing keeps the band well below resonance.
@@ -57,7 +57,7 @@ def nagaoka_coefficient(d_mean, length):
     """Nagaoka's coefficient K_N of a uniform current sheet (H. Nagaoka 1909; journal from memory).
 
     K_N = 4/(3 pi k') [(k'^2/k^2)(K(k) - E(k)) + E(k) - k], k^2 = D^2/(D^2 + l^2), k' = l/sqrt(D^2 + l^2),
-    with complete elliptic integrals K, E of modulus k (scipy's ellipk/ellipe take m = k^2).
+    with complete elliptic integrals K, E of modulus k (special.ellipke takes m = k^2, as scipy's do).
 
     d_mean: coil diameter D, m; length: coil length l, m (only D/l matters).
     """
@@ -66,7 +66,7 @@ def nagaoka_coefficient(d_mean, length):
     k2 = d**2 / (d**2 + l**2)
     k = np.sqrt(k2)
     kp = l / np.sqrt(d**2 + l**2)
-    big_k, big_e = ellipk(k2), ellipe(k2)
+    big_k, big_e = ellipke(k2)
     return 4.0 / (3.0 * np.pi * kp) * ((kp**2 / k2) * (big_k - big_e) + big_e - k)
 
 
@@ -308,7 +308,7 @@ def design_coax_choke(f_design, f_band_high, form_od, cable_od, z_target=1000.0,
         raise ModelError(f"choke target must be positive with a margin >= 1 and at least one turn, "
                           f"got {z_target} ohm, margin {srf_margin}, {max_turns} turns")
 
-    band = np.union1d(np.linspace(f_low, f_band_high, _BAND_POINTS), [f_design])
+    band = union1d(np.linspace(f_low, f_band_high, _BAND_POINTS), [f_design])
     d_mean = form_od + cable_od
     pitch = cable_od
     turns = np.arange(1, int(max_turns) + 1)
@@ -463,7 +463,7 @@ def design_sleeve_choke(f_design, f_band_low, f_band_high, cable_od, shield_d, j
         raise ModelError(f"the braid's diameter {shield_d} m must be positive and under the cable's "
                          f"outer diameter {cable_od} m")
     centre = float(np.sqrt(f_band_low * f_band_high))
-    band = np.union1d(np.linspace(f_band_low, f_band_high, _BAND_POINTS), [f_design])
+    band = union1d(np.linspace(f_band_low, f_band_high, _BAND_POINTS), [f_design])
     best = None
     for ratio in ratios:
         d_sleeve = ratio * cable_od

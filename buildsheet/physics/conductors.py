@@ -18,10 +18,10 @@ Symbols (SI throughout):
 from __future__ import annotations
 
 import numpy as np
-from scipy.special import jve
 
 from buildsheet.physics import ModelError
 from buildsheet.physics.constants import mu_0
+from buildsheet.physics.special import j1_over_j0
 
 # From this |ka| = sqrt(2) a/delta up, J0(ka)/J1(ka) is computed from Hankel's asymptotic expansion
 # (Abramowitz & Stegun 9.2.7-9.2.10; from memory, checked against scipy's jve in the tests): with
@@ -95,7 +95,7 @@ def wire_internal_impedance(f, d, sigma):
         k = (1.0 - 1.0j) / float(skin_depth(f, sigma))
         ka = k * a
         ratio = complex(_j0_over_j1_large(ka)) if abs(ka) >= _KA_ASYMPTOTIC \
-            else complex(jve(0, ka) / jve(1, ka))
+            else 1.0 / j1_over_j0(complex(ka))
         return k / (2.0 * np.pi * a * sigma) * ratio
     f, d, sigma = np.broadcast_arrays(np.asarray(f, float), np.asarray(d, float),
                                       np.asarray(sigma, float))
@@ -110,8 +110,8 @@ def wire_internal_impedance(f, d, sigma):
         ratio = np.empty(ka.shape, dtype=complex)
         large = ~small.reshape(ka.shape)
         ratio[large] = _j0_over_j1_large(ka[large])
-        # jve is J scaled by exp(-|Im z|); the scale cancels in the ratio and J0, J1 cannot overflow.
-        ratio[~large] = jve(0, ka[~large]) / jve(1, ka[~large])
+        # the recurrence's continued fraction gives the ratio itself: nothing to overflow
+        ratio[~large] = 1.0 / j1_over_j0(ka[~large])
         ratio = ratio.reshape(np.shape(k))
     return k / (2.0 * np.pi * a * sigma) * ratio
 

@@ -1,7 +1,6 @@
 """Physical constants of the model, as literals with their source, so that physics/ does not import
-scipy.constants (about 0.1 s) for four numbers. (scipy.optimize, which the stub/tap match uses, imports
-scipy.constants itself; a build loads it through that.) tests/test_constants.py checks the values
-against scipy.constants.
+scipy.constants (about 0.1 s) for four numbers (a build imports no scipy module at all).
+tests/test_constants.py checks the values against scipy.constants.
 """
 
 #: speed of light in vacuum, m/s: exact (SI 2019, the definition of the metre)

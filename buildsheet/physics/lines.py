@@ -195,14 +195,35 @@ class Line:
                 # scale the columns so nnls sees a well-conditioned matrix (sqrt(f) ~ 1e4, f ~ 1e8)
                 f_ref = float(np.max(f_pts))
                 basis = np.column_stack([np.sqrt(f_pts / f_ref), f_pts / f_ref])
-                from scipy.optimize import nnls     # imported where used: slow to import
-
-                (c1, c2), _ = nnls(basis, alpha_pts)
+                c1, c2 = _nnls_two_columns(basis, alpha_pts)
                 k1, k2 = float(c1 / np.sqrt(f_ref)), float(c2 / f_ref)
         L = z0 / (vf * C0)
         C = 1.0 / (z0 * vf * C0)
         return cls(L=L, C=C, z_int=_ScaledAttenuation(k1, k2, float(z0)),
                    G=_ScaledAttenuation(k1, k2, 1.0 / z0))
+
+
+def _nnls_two_columns(a: np.ndarray, b: np.ndarray) -> tuple[float, float]:
+    """argmin |a x - b| over x >= 0 for a matrix a of two columns (non-negative least squares,
+    exactly: the problem is convex, so its minimum is the least-squares solution on one face of the
+    quadrant, x1 = 0, x2 = 0, both free or both 0, whichever is feasible and leaves the least
+    residual). Replaces scipy.optimize.nnls here (tests/test_lines.py checks it against that), whose
+    module costs a build about 0.3 s to import."""
+    a = np.asarray(a, dtype=float)
+    b = np.asarray(b, dtype=float)
+    candidates = [np.zeros(2)]
+    x, *_ = np.linalg.lstsq(a, b, rcond=None)
+    if np.all(x >= 0):
+        candidates.append(x)
+    for j in (0, 1):
+        col = a[:, j]
+        norm2 = float(col @ col)
+        if norm2 > 0:
+            one = np.zeros(2)
+            one[j] = max(0.0, float(col @ b) / norm2)
+            candidates.append(one)
+    best = min(candidates, key=lambda c: float(np.sum((a @ c - b) ** 2)))
+    return float(best[0]), float(best[1])
 
 
 def reflection(z, z_ref=50.0) -> np.ndarray:

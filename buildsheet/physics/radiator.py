@@ -3,7 +3,7 @@ owns wire-antenna physics only: no I/O, no design keys, nothing about the stub o
 
 Symbols (SI throughout; functions broadcast over numpy arrays of f; loop_radiation_resistance,
 loop_reactance(_slope), schelkunoff_z0 and wavenumber also take plain floats > 0 and then return
-floats, computed with math and one scipy call: the solves' scalar path, see jpole._Prepared):
+floats, computed with math alone: the solves' scalar path, see jpole._Prepared):
 
     f        frequency, Hz;  lam = c/f free-space wavelength, m;  k = 2 pi/lam, rad/m
     eta0     free-space wave impedance, ohm (eta0/(4 pi) = 29.98 ohm)
@@ -24,9 +24,10 @@ from __future__ import annotations
 import math
 
 import numpy as np
-from scipy.special import sici
 
+from buildsheet.physics import resonance_table
 from buildsheet.physics.constants import C0, epsilon_0, mu_0
+from buildsheet.physics.special import sici
 
 ETA0 = float(np.sqrt(mu_0 / epsilon_0))
 _ETA_4PI = ETA0 / (4.0 * np.pi)
@@ -48,14 +49,14 @@ def _si(x):
 
 
 def _scalar(x) -> bool:
-    """Whether x takes the scalar path: a finite float > 0 (math functions and one scipy call)."""
+    """Whether x takes the scalar path: a finite float > 0 (math functions and special.sici)."""
     return isinstance(x, float) and 0.0 < x < math.inf
 
 
 def _sici_pair(x):
     """(Si(x), Ci(x), Si(2x), Ci(2x)): floats for a scalar x (_scalar), else arrays."""
     if _scalar(x):
-        (si1, si2), (ci1, ci2) = (v.tolist() for v in sici(np.array([x, 2.0 * x])))
+        (si1, ci1), (si2, ci2) = sici(x), sici(2.0 * x)
         return si1, ci1, si2, ci2
     x = np.asarray(x, dtype=float)
     return (*sici(x), *sici(2 * x))
@@ -93,8 +94,7 @@ def loop_reactance(kl, ka):
     """
     if _scalar(kl) and _scalar(ka):
         m = math
-        si, ci = (v.tolist() for v in sici(np.array([kl, 2 * kl, 2 * ka**2 / kl])))
-        (si1, si2, _), (ci1, ci2, ci_a) = si, ci
+        (si1, ci1), (si2, ci2), (_, ci_a) = sici(kl), sici(2 * kl), sici(2 * ka**2 / kl)
     else:
         m = np
         kl = np.asarray(kl, dtype=float)
@@ -115,22 +115,40 @@ def _resonance_factor_newton(ka):
     ka = np.asarray(ka, dtype=float)
     kl = np.full_like(ka, 0.97 * np.pi)
     h = 1e-6
-    for _ in range(10):
+    for _ in range(6):      # from kl = 0.97 pi the table is exact to the last bit after 6 (as after 10)
         x = loop_reactance(kl, ka)
         dx = (loop_reactance(kl + h, ka) - x) / h
         kl = kl - x / dx
     return kl / np.pi
 
 
-# K depends on ka alone and smoothly on ln(ka): tabulate the Newton root once, interpolate after.
+# K depends on ka alone and smoothly on ln(ka): the Newton root tabulated once, interpolated after.
+# The table is stored as literals in resonance_table.py (written by write_resonance_table(); working
+# it out at import cost a build about 20 ms); tests/test_radiator_table.py checks that it is what
+# _resonance_factor_newton gives.
 _LN_KA_TABLE = np.linspace(np.log(1e-7), np.log(0.2), 2000)
-_K_TABLE = _resonance_factor_newton(np.exp(_LN_KA_TABLE))
+_K_TABLE = np.array(resonance_table.K)
+
+
+def write_resonance_table(path=None) -> None:
+    """Write physics/resonance_table.py: K at the nodes _LN_KA_TABLE, as _resonance_factor_newton
+    gives it (repr round-trips a float exactly)."""
+    import pathlib
+
+    k = _resonance_factor_newton(np.exp(_LN_KA_TABLE))
+    lines = ['"""K = (resonant length of a thin centre-fed dipole)/(lam/2) at ka = exp(radiator._LN_KA_TABLE):',
+             "radiator._resonance_factor_newton's roots, written by radiator.write_resonance_table() (do not",
+             'edit; tests/test_radiator_table.py checks them)."""', "", "K = ("]
+    lines += [f"    {v!r}," for v in k.tolist()]
+    lines.append(")")
+    path = pathlib.Path(__file__).with_name("resonance_table.py") if path is None else path
+    pathlib.Path(path).write_text("\n".join(lines) + "\n")
 
 
 def resonance_factor(ka):
     """K = (resonant length of a centre-fed dipole)/(lam/2): the root of the induced-EMF input
-    reactance (Carter 1932; Balanis eq. 4-71) near kl = pi (vectorised; tabulated in ln(ka) at
-    import; linear interpolation between nodes is good to 1e-6 in K).
+    reactance (Carter 1932; Balanis eq. 4-71) near kl = pi (vectorised; tabulated in ln(ka),
+    resonance_table.py; linear interpolation between nodes is good to 1e-6 in K).
 
     ka: electrical radius k a, rad, 1e-7..0.2. Gives K = 0.9728 for (lam/2)/d = 6485, against
     0.9712 from NEC-2 (CHECK_VALUES §3d): the induced-EMF end effect from the length-to-diameter ratio.

@@ -1,0 +1,21 @@
+# handout-safety.j2 compiled by jinja2 3.1.6: written by sheet.write_compiled_templates(), do not edit
+from jinja2.runtime import LoopContext, Macro, Markup, Namespace, TemplateNotFound, TemplateReference, TemplateRuntimeError, Undefined, escape, identity, internalcode, markup_join, missing, str_join
+name = 'handout-safety.j2'
+
+def root(context, missing=missing):
+    resolve = context.resolve_or_missing
+    undefined = environment.undefined
+    concat = environment.concat
+    cond_expr_undefined = Undefined
+    if 0: yield None
+    l_0_v_peak = resolve('v_peak')
+    l_0_v_where = resolve('v_where')
+    pass
+    yield 'Read this page before you cut, climb or transmit. Every build sheet in this handout repeats these\ncautions with its own figures: the voltages at its open ends, the current in its short and its\nRF-exposure distances.\n\n## Overhead power lines\n\n! <b>Contact with a power line kills.</b> Treat every overhead line, including service drops to houses, as\nlive and uninsulated. Place the antenna, its ropes, the coax and the supports so that nothing can\nreach a line if anything breaks, slips or falls: at the least as far from any line, measured across\nthe ground, as the top of the antenna is high, and farther where your codes say so. Never throw a\nline, fly a rope or raise a support toward or near a power line.\n\n## Ladders, trees and climbing\n\nFalls are the commonest injury in antenna work. Set ladders on firm, level ground at a safe angle,\ntie them off and keep three points of contact; do not work alone. Raise ropes with a throw weight\nfrom the ground rather than climbing where you can, and do not climb trees, roofs or towers without\nthe training, the fall protection and the permission the work needs. Keep people out from under\nanyone working overhead and from under a rope while an antenna is hoisted.\n\n## High RF voltage at the open ends\n\n! <b>High voltage.</b> The open end of the stub and the far end of the radiator carry a high RF\nvoltage whenever the transmitter is on: up to '
+    yield escape((undefined(name='v_peak') if l_0_v_peak is missing else l_0_v_peak))
+    yield ' peak at an open end in this handout\n('
+    yield escape((undefined(name='v_where') if l_0_v_where is missing else l_0_v_where))
+    yield ").\nBoth ends can arc, burn through rope and tape and set dry leaves alight. Keep them out of reach of\npeople and animals, away from foliage and buildings, and on insulators rated for the voltage.\n\n## RF burns\n\nNever touch the antenna, the stub, the tap or the coax braid near the tap while a transmitter is\nconnected, even at low power: an RF burn goes deep and heals slowly. Disconnect the coax at the\nstation before every adjustment, and transmit only when everybody is clear.\n\n## RF exposure\n\nKeep people at least the distances each sheet gives from any part of its antenna. They are\nscreening estimates, not measurements; where a distance lies inside its antenna's reactive near\nfield (most HF sheets; each sheet says so), the far-field formula behind it does not strictly apply;\nyour regulator's rules and methods decide whether a station complies.\n\n## Lightning, grounding and disconnecting\n\nDo not work on an antenna, or stay near it, when thunder can be heard. Disconnect the coax from the\nstation when it is not in use and when storms are near. Bond the coax braid and any arrester to the\nbuilding's grounding electrode system as your electrical code requires; an arrester does not make a\ndirect strike safe.\n\n## Weather and wind load\n\nWind swings wires and stubs, saws ropes on limbs and loads masts; ice adds weight and sun degrades\nplastics. Leave slack or a counterweight on wire antennas, guy or brace masts, and inspect ropes,\ninsulators, clamps and the tap's weatherproofing every season and after storms.\n\n## Local codes and licensed practice come first\n\nThese cautions are a reminder, not a complete safety plan, and they do not replace local building and\nelectrical codes, your regulator's rules, the landowner's permission or licensed practice. Where they\ndiffer from this handout, they come first. If in doubt, ask a licensed electrician, a qualified\nclimber or your national amateur radio society."
+
+blocks = {}
+debug_info = '27=14&28=16'
