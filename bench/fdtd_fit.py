@@ -10,6 +10,10 @@ test. Run with the venv's python.
                                                  plus the FDTD training designs; held-out reported;
                                                  terms: candidate arm terms (QTERMS) fitted as well;
                                                  train+: more NEC-2 data, even seeds train too
+  python bench/fdtd_fit.py fit-arm [OUT.json] [terms=q_rc] [train+=...] [base=CAL.json]
+                                                 the radiator arm's constants (ARM) only, from and
+                                                 anchored to jpole.CAL (or base); the stub's and the
+                                                 rigid constants kept (how CAL's q_rc was fitted)
   python bench/fdtd_fit.py ablate                each diameter term switched off, the rest refitted:
                                                  what the held-out errors do without it
   python bench/fdtd_fit.py verify RUNS.json...   FDTD SWR at f0 of runs made at the model's own
@@ -278,6 +282,43 @@ def cmd_fit(out=None, terms=(), extra=()):
             indent=1))
 
 
+# The radiator arm's constants (jpole.Calibration): what `fit-arm` refits; the stub's (short_bar,
+# tap_bar, open_top) and the rigid terms stay as they are, and with them the tuning rates of
+# tests/test_jpole_nec.py that hang on the stub (dX per short move, the dip per short move).
+ARM = ("r_scale", "r_w", "r_c", "q_scale", "q_w", "q_c", "x_rc", "r_rc", "x_img", "r_img", "c_j",
+       "arm_dd")
+
+
+def cmd_fit_arm(out=None, terms=(), extra=(), base_file=None):
+    """The arm's constants (and the candidate terms asked for) refitted jointly on the NEC-2 and
+    FDTD training data, from base (jpole.CAL, or the constants of base_file) and anchored to it by
+    the prior ANCHOR_WEIGHT; the other constants kept at base's values."""
+    base = jpole.CAL
+    if base_file:
+        stored = json.loads(Path(base_file).read_text())      # a fit's output, or the constants
+        base = jpole.Calibration(**stored.get("calibration", stored))
+    runs = load_runs()
+    train_nec, held_nec = nec_rows()
+    for path in extra:
+        t, _ = nec_rows(path if Path(path).is_absolute() else DATA / path)
+        train_nec = train_nec + t
+    before = describe(base, runs, held_nec, "base")
+    cal = joint_fit(runs, train_nec, free=ARM + tuple(terms), base=base)
+    after = describe(cal, runs, held_nec, "fitted")
+    shape = (heldout_shape(base, held_nec), heldout_shape(cal, held_nec))
+    print(_cal_text(cal))
+    if out:
+        Path(out).write_text(json.dumps(dict(
+            script="bench/fdtd_fit.py", command=" ".join(["fit-arm", out] + [f"terms={','.join(terms)}"] * bool(terms)
+                                                        + [f"train+={','.join(extra)}"] * bool(extra)
+                                                        + [f"base={base_file}"] * bool(base_file)),
+            date=time.strftime("%Y-%m-%dT%H:%M:%SZ", time.gmtime()), train_designs=TRAIN_DESIGNS,
+            band=BAND, fdtd_weight=FDTD_WEIGHT, nec_data=NEC_DATA.name, nec_extra=list(extra),
+            anchor_weight=ANCHOR_WEIGHT, base=dataclasses.asdict(base), free=list(ARM + tuple(terms)),
+            fdtd_files=FDTD_FILES, calibration=dataclasses.asdict(cal), before=before, after=after,
+            heldout_shape_before=shape[0], heldout_shape_after=shape[1]), indent=1))
+
+
 def cmd_ablate():
     """Each diameter term off (0), the other constants refitted: held-out errors without it."""
     runs = load_runs()
@@ -314,6 +355,12 @@ def main(argv):
         extra = [t for a in argv[1:] if a.startswith("train+=") for t in a[7:].split(",")]
         rest = [a for a in argv[1:] if not a.startswith(("terms=", "train+="))]
         cmd_fit(rest[0] if rest else None, terms, extra)
+    elif cmd == "fit-arm":
+        terms = [t for a in argv[1:] if a.startswith("terms=") for t in a[6:].split(",")]
+        extra = [t for a in argv[1:] if a.startswith("train+=") for t in a[7:].split(",")]
+        base = next((a[5:] for a in argv[1:] if a.startswith("base=")), None)
+        rest = [a for a in argv[1:] if not a.startswith(("terms=", "train+=", "base="))]
+        cmd_fit_arm(rest[0] if rest else None, terms, extra, base)
     elif cmd == "ablate":
         cmd_ablate()
     elif cmd == "verify":
