@@ -544,36 +544,15 @@ class Hatch(_Composite):
 
 # ---------------------------------------------------------------- geometry helpers
 
-def clip_segment(p: Point, q: Point, box: Box) -> tuple[Point, Point] | None:
-    """Part of segment p-q inside `box` (Liang-Barsky 1984), or None if none."""
-    dx, dy = q[0] - p[0], q[1] - p[1]
-    t0, t1 = 0.0, 1.0
-    for den, num in ((-dx, p[0] - box.x0), (dx, box.x1 - p[0]),
-                     (-dy, p[1] - box.y0), (dy, box.y1 - p[1])):
-        if abs(den) < _EPS:
-            if num < 0:
-                return None
-            continue
-        t = num / den
-        if den < 0:
-            t0 = max(t0, t)
-        else:
-            t1 = min(t1, t)
-        if t0 > t1:
-            return None
-    return ((p[0] + t0 * dx, p[1] + t0 * dy), (p[0] + t1 * dx, p[1] + t1 * dy))
-
-
-def segment_meets(p: Point, q: Point, box: Box) -> bool:
-    """Whether segment p-q has a part inside `box`: clip_segment(p, q, box) is not None, by the same
-    arithmetic without building the clipped segment (the label placement asks this thousands of
-    times a build)."""
+def _clip_range(p: Point, q: Point, box: Box) -> tuple[float, float] | None:
+    """The parameters (t0, t1) of the part of segment p-q inside `box` (Liang-Barsky 1984), or None
+    if none (the label placement asks this thousands of times a build: plain comparisons)."""
     dx, dy = q[0] - p[0], q[1] - p[1]
     t0, t1 = 0.0, 1.0
     for den, num in ((-dx, p[0] - box.x0), (dx, box.x1 - p[0]), (-dy, p[1] - box.y0), (dy, box.y1 - p[1])):
         if abs(den) < _EPS:
             if num < 0:
-                return False
+                return None
             continue
         t = num / den
         if den < 0:
@@ -582,8 +561,23 @@ def segment_meets(p: Point, q: Point, box: Box) -> bool:
         elif t < t1:
             t1 = t
         if t0 > t1:
-            return False
-    return True
+            return None
+    return t0, t1
+
+
+def clip_segment(p: Point, q: Point, box: Box) -> tuple[Point, Point] | None:
+    """Part of segment p-q inside `box` (Liang-Barsky 1984), or None if none."""
+    span = _clip_range(p, q, box)
+    if span is None:
+        return None
+    (t0, t1), dx, dy = span, q[0] - p[0], q[1] - p[1]
+    return ((p[0] + t0 * dx, p[1] + t0 * dy), (p[0] + t1 * dx, p[1] + t1 * dy))
+
+
+def segment_meets(p: Point, q: Point, box: Box) -> bool:
+    """Whether segment p-q has a part inside `box`: clip_segment(p, q, box) is not None, without
+    building the clipped segment."""
+    return _clip_range(p, q, box) is not None
 
 
 def clip_polyline(points: Iterable[Point], box: Box) -> list[tuple[Point, ...]]:
