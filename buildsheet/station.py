@@ -36,8 +36,8 @@ Method.
    and velocity factor are taken as exact; a cable that differs from its datasheet turns the
    de-embedded sweep's phase by 2 beta l times the relative error of its velocity factor, which the
    text states per per cent (turn_deg_per_percent). bench/fit_field.py measures what that costs: a
-   cable 2 % slow and 20 % lossier than the catalogue's left SWR up to 1.59 after one round on NEC-2's
-   mis-cut 20 m antennas (1.19 with the catalogue's cable), 1.12 after two.
+   cable 2 % slow and 20 % lossier than the catalogue's left SWR up to 1.63 after one round on NEC-2's
+   mis-cut 20 m antennas (1.22 with the catalogue's cable), 1.11 after two.
 """
 
 from __future__ import annotations
