@@ -286,7 +286,7 @@ TABLE: tuple = (
          "inverted: the radiator's far end (the short's height less the stub and the radiator) at least "
          "{value} m above ground",
          "the radiator hangs below the stub; its far end must clear the ground (checked on the solved "
-         "stub and radiator; NEC-2 SWR 1.09 with the far end 0.37 m up on 10 m, bench/inverted_nec.py)", 0.3),
+         "stub and radiator; NEC-2 SWR 1.08 with the far end 0.37 m up on 10 m, bench/inverted_nec.py)", 0.3),
     Key("site.ground", "form", "average", choices="ground", unit="name or mapping",
         unknown="is not a key of a ground",
         meaning="free-space, perfect, poor, average, very-good, sea-water, or "
