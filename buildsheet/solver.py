@@ -569,8 +569,7 @@ def _solve(design: Design) -> Solution:
     ant = at_f0.ant          # with its stack, for the stacked version
 
     low, high = design.band_hz
-    f = np.linspace(low * (1 - SWEEP_MARGIN), high * (1 + SWEEP_MARGIN), SWEEP_POINTS)
-    f = union1d(f, [f0])
+    f = _sweep_frequencies(design)
     z = jpole.feed_impedance(f, ant, radiator, stub, tap)
     swr_feed = swr(z, z_feed)
     ch = choke_physics.design_coax_choke(f0, high, design.feed.choke_form_m,
@@ -642,6 +641,14 @@ def _solve(design: Design) -> Solution:
     )
 
 
+def _sweep_frequencies(design: Design) -> np.ndarray:
+    """The frequencies a solve sweeps: the band with SWEEP_MARGIN beyond each edge, SWEEP_POINTS
+    apart, with the design frequency among them."""
+    low, high = design.band_hz
+    return union1d(np.linspace(low * (1 - SWEEP_MARGIN), high * (1 + SWEEP_MARGIN), SWEEP_POINTS),
+                   [design.frequency_hz])
+
+
 def _stack_data(design: Design, ant, state, pattern) -> "StackData":
     """The stacked version's figures: its parts, voltages and currents at the power reaching the tap
     (jpole.state_at), and the single version's maximum gain and 2:1 band (solved here as the
@@ -652,9 +659,7 @@ def _stack_data(design: Design, ant, state, pattern) -> "StackData":
     st1 = jpole.state_at(f0, single, radiator, stub, tap, 1.0, prepared=at_single)
     with np.errstate(all="ignore"):
         r1 = radiation_physics.radiation(at_single, radiator, stub, st1.efficiency)
-    low, high = design.band_hz
-    f = np.linspace(low * (1 - SWEEP_MARGIN), high * (1 + SWEEP_MARGIN), SWEEP_POINTS)
-    f = union1d(f, [f0])
+    f = _sweep_frequencies(design)
     swr1 = swr(jpole.feed_impedance(f, single, radiator, stub, tap), design.feed.impedance_ohm)
     st = ant.stack
     return StackData(element_m=st.element, phasing_m=st.phasing, phasing_spacing_m=st.spacing,

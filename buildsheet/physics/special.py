@@ -4,7 +4,7 @@ layer: about 0.15-0.25 s of a build's start-up). Owns numerics only: no physics,
 
     sici(x)              Si(x), Ci(x) of real x > 0 (sine and cosine integrals)
     j1_over_j0(z)        J1(z)/J0(z) of a complex z (Bessel functions of the first kind)
-    ellipk(m), ellipe(m) complete elliptic integrals K, E of parameter m = k^2, 0 <= m < 1
+    ellipke(m)           complete elliptic integrals (K, E) of parameter m = k^2, 0 <= m < 1
 
 Each takes a Python float (or complex) and returns one, or takes an array and broadcasts. They are
 checked against scipy.special on many points across the ranges the model uses and against values of
@@ -196,18 +196,8 @@ def _check_m(m):
     return m
 
 
-def ellipk(m):
-    """Complete elliptic integral of the first kind K(m), parameter m = k^2 in [0, 1) (as
-    scipy.special.ellipk takes it), by the arithmetic-geometric mean (A&S 17.6.1)."""
-    return _agm_k_e(_check_m(m))[0]
-
-
-def ellipe(m):
-    """Complete elliptic integral of the second kind E(m), parameter m = k^2 in [0, 1) (as
-    scipy.special.ellipe takes it), by the arithmetic-geometric mean (A&S 17.6.3, 17.6.4)."""
-    return _agm_k_e(_check_m(m))[1]
-
-
 def ellipke(m):
-    """(K(m), E(m)) in one AGM (see ellipk, ellipe)."""
+    """(K(m), E(m)), the complete elliptic integrals of the first and second kind of parameter
+    m = k^2 in [0, 1) (as scipy.special.ellipk and ellipe take it), by one arithmetic-geometric mean
+    (A&S 17.6.1, 17.6.3, 17.6.4)."""
     return _agm_k_e(_check_m(m))
