@@ -1,5 +1,6 @@
 """Benchmark: the whole `solve` of each demo design against a NEC-2 wire-model sweep at the same
-frequencies, meshed by the same rules as the tests (tests/necref.py).
+frequencies, meshed by the same rules as the tests (tests/necref.py; a stacked design with its second
+element and phasing stub, necref.stacked_model).
 
 Prints, per design: solve time (median and best of repeated runs), NEC sweep time, their ratios,
 and the NEC SWR at the design frequency on the feed impedance. Stub lines with a solid dielectric
@@ -66,7 +67,13 @@ def main(argv=None) -> int:
         f = solution.sweep.frequency_hz
         dims = nec_dims(design, solution)
         t = time.perf_counter()
-        result = necref.jpole_model(dims, f)
+        if solution.stack is None:
+            result = necref.jpole_model(dims, f)
+        else:       # the stacked version: its element and phasing stub (of the stub's line) as well
+            st = solution.stack
+            result = necref.stacked_model(dims, necref.StackDims(
+                st.element_m, st.phasing_m, st.phasing_spacing_m, design.stub.conductor_diameter_m,
+                design.stub.conductivity_s_m), f)
         t_nec = time.perf_counter() - t
         i0 = int(np.argmin(np.abs(f - design.frequency_hz)))
         nec_swr = float(swr(result.z_feed[i0], design.feed.impedance_ohm))
