@@ -681,7 +681,8 @@ class _Context:
                 *((("phasing stub's open end", _e(f"{_volts(s.stack.voltage_phasing_open_v_rms)} rms, "
                                                   f"{_volts(s.stack.voltage_phasing_open_v_peak)} peak, "
                                                   f"across the gap ({PHASING_NOTE})")),
-                   ("element's far end", _e(f"{_volts(s.stack.voltage_element_end_v_rms)} rms")),
+                   ("element's far end", _e(f"{_volts(s.stack.voltage_element_end_v_rms)} rms, "
+                                            f"{_volts(s.stack.voltage_element_end_v_peak)} peak")),
                    ("current in the phasing short",
                     _e(f"{_amps(s.stack.current_phasing_short_a_rms)} rms")))
                   if s.stack is not None else ()),
@@ -1045,6 +1046,7 @@ class _Context:
             phasing_note=PHASING_NOTE,
             v_phasing_pk=_volts(s.stack.voltage_phasing_open_v_peak) if s.stack else "",
             v_element_rms=_volts(s.stack.voltage_element_end_v_rms) if s.stack else "",
+            v_element_pk=_volts(s.stack.voltage_element_end_v_peak) if s.stack else "",
             low_point=self.length(low_point) if low_point is not None else "", low_point_what=low_what,
             # within 3 m of the ground: a standing person's reach (2.5 m, ratings.py) and a little more
             low_point_near=low_point is not None and low_point < 3.0,

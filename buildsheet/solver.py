@@ -704,6 +704,10 @@ class StackData:
     def voltage_phasing_open_v_peak(self) -> float:
         return math.sqrt(2.0) * self.voltage_phasing_open_v_rms
 
+    @property
+    def voltage_element_end_v_peak(self) -> float:
+        return math.sqrt(2.0) * self.voltage_element_end_v_rms
+
     def to_dict(self) -> dict:
         d = self.single_dimensions
         return {"phasing": "stub", "element_m": self.element_m, "phasing_m": self.phasing_m,
@@ -712,6 +716,7 @@ class StackData:
                 "voltage_phasing_open_v_peak": self.voltage_phasing_open_v_peak,
                 "current_phasing_short_a_rms": self.current_phasing_short_a_rms,
                 "voltage_element_end_v_rms": self.voltage_element_end_v_rms,
+                "voltage_element_end_v_peak": self.voltage_element_end_v_peak,
                 "element_current_ratio": self.element_current_ratio,
                 "element_phase_deg": self.element_phase_deg,
                 "single_max_gain_dbi": self.single_max_gain_dbi,
@@ -1177,8 +1182,8 @@ def _cut_list(design: Design, d: Dimensions, wrap: float, ch, first: FirstCut,
         vertical = design.site.orientation == "vertical"
         hardware.append(HardwareItem(
             "gap insulator", 1,
-            f"elements {stack.spacing * 1e3:.0f} mm apart in line (high RF voltage)"
-            + ("; holds the phasing stub level" if vertical else ""),
+            "keeps the elements in line across the gap shown in the overview (high RF voltage)"
+            + ("; also holds the phasing stub level" if vertical else ""),
             fits_m=design.radiator.diameter_m if rigid_radiator else None))
         if design.stub.kind == "geometry" and not rigid_stub:
             hardware.append(HardwareItem("line spreaders for the phasing stub",

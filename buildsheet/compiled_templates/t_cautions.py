@@ -20,6 +20,7 @@ def root(context, missing=missing):
     l_0_v_phasing_pk = resolve('v_phasing_pk')
     l_0_phasing_note = resolve('phasing_note')
     l_0_v_element_rms = resolve('v_element_rms')
+    l_0_v_element_pk = resolve('v_element_pk')
     l_0_low_point = resolve('low_point')
     l_0_low_point_what = resolve('low_point_what')
     l_0_inverted = resolve('inverted')
@@ -71,7 +72,9 @@ def root(context, missing=missing):
         yield escape((undefined(name='phasing_note') if l_0_phasing_note is missing else l_0_phasing_note))
         yield "), and the upper element's\nfar end about "
         yield escape((undefined(name='v_element_rms') if l_0_v_element_rms is missing else l_0_v_element_rms))
-        yield " rms; the gap insulator and the phasing stub's support must be rated\nfor it."
+        yield ' rms ('
+        yield escape((undefined(name='v_element_pk') if l_0_v_element_pk is missing else l_0_v_element_pk))
+        yield " peak); the gap insulator and the phasing stub's support must be rated\nfor it."
     yield '\n'
     if (undefined(name='stack') if l_0_stack is missing else l_0_stack):
         pass
@@ -150,4 +153,4 @@ def root(context, missing=missing):
     yield " Ice adds weight; sun degrades plastics. Inspect the antenna, the ropes, the insulators\nand the tap's weatherproofing every season and after storms; water in the coax raises the SWR.\n\n## Local codes and licensed practice come first\n\nThese cautions are a reminder, not a complete safety plan, and they do not replace local building and\nelectrical codes, your regulator's rules, the landowner's permission or licensed practice. Where they\ndiffer from this sheet, they come first. If in doubt, ask a licensed electrician, a qualified climber\nor your national amateur radio society."
 
 blocks = {}
-debug_info = '3=38&6=41&7=45&17=51&30=53&31=59&32=66&33=70&34=72&36=75&37=82&38=89&39=94&41=97&43=100&44=108&52=111&57=115&58=119&59=123&60=125&61=128&62=135&75=140&80=143'
+debug_info = '3=39&6=42&7=46&17=52&30=54&31=60&32=67&33=71&34=73&36=78&37=85&38=92&39=97&41=100&43=103&44=111&52=114&57=118&58=122&59=126&60=128&61=131&62=138&75=143&80=146'

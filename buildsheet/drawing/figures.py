@@ -759,7 +759,7 @@ def _radiator(ctx: _Context) -> Drawing:
     sheet.callout(x_other, y1 + 22.0, ["the stub's open top:", "the radiator joins",
                                        "one conductor only"], angles=(0, 330, 30), radii=(16, 24, 34))
     if rigid:
-        join = "pipe joined or clamped to it"
+        join = "pipe or rod joined or clamped to it"
     elif s.parts.rigid_stub:
         join = "wire clamped to it"
     else:
@@ -790,7 +790,7 @@ def _radiator(ctx: _Context) -> Drawing:
     sheet.callout(x_m1, y2 + 5.0, ["mark the attachment points"], angles=(315, 290, 340),
                   radii=(30, 42, 56))
     sheet.place_text([(x_c0, y2 + 40.0), (PAD + 2.0, y2 + 40.0)],
-                     [f"wire: {ctx.wire_text()}"], size=LABEL)
+                     [f"{'material' if rigid else 'wire'}: {ctx.wire_text()}"], size=LABEL)
     if margin > 0:
         sheet.callout(x_t, y2 + 5.0, ["first attachment point (long):", "take up wire from here to tune"],
                       angles=(300, 280, 320, 260), radii=(30, 42, 56))
