@@ -635,7 +635,7 @@ class _Context:
         if (item.part in ("radiator", "upper element") and self.s.parts.rigid_radiator and "awg" not in label
                 and not label.startswith("#") and r.insulation == "bare"):
             return conductor_name(r.diameter_m, self.u, r.material)
-        return item.material
+        return item.material_text(self.length)
 
     def cut_list_margin(self) -> str:
         """One sentence on the pieces cut long for tuning (solver.FirstCut), or ''."""

@@ -99,6 +99,14 @@ class CutItem:
     note: str
     margin_m: float = 0.0
     coarse: bool = False      # cut roughly to length (coax, rope): printed to the inch or the cm
+    diameter_m: float | None = None   # the stock's outside diameter, where it sets what to buy
+
+    def material_text(self, length) -> str:
+        """What the piece is cut from, with the stock's outside diameter formatted by `length`
+        (metres to the sheet's units) where it matters."""
+        if self.diameter_m is None:
+            return self.material
+        return f"{self.material}, {length(self.diameter_m)} outside diameter"
 
 
 @dataclass(frozen=True)
@@ -1182,8 +1190,8 @@ def _cut_list(design: Design, d: Dimensions, wrap: float, ch, first: FirstCut,
         vertical = design.site.orientation == "vertical"
         hardware.append(HardwareItem(
             "gap insulator", 1,
-            "keeps the elements in line across the gap shown in the overview (high RF voltage)"
-            + ("; also holds the phasing stub level" if vertical else ""),
+            "elements in line across the gap (high RF voltage)"
+            + ("; holds the phasing stub level" if vertical else ""),
             fits_m=design.radiator.diameter_m if rigid_radiator else None))
         if design.stub.kind == "geometry" and not rigid_stub:
             hardware.append(HardwareItem("line spreaders for the phasing stub",
@@ -1213,8 +1221,9 @@ def _feed_pieces(design: Design, ch, parts: Parts, sleeve) -> list:
                      "run to the station, plus the choke turns and a pigtail at the tap" if sleeve is None
                      else "run to the station, plus a pigtail at the tap", coarse=True)]
     if sleeve is None:
-        items.append(CutItem("choke form", "pipe of the choke form's outside diameter", parts.choke_form_m,
-                             1, CHOKE_FORM_EXTRA_M, "the feed coax is close-wound on it"))
+        items.append(CutItem("choke form", "plastic pipe", parts.choke_form_m, 1, CHOKE_FORM_EXTRA_M,
+                             "the feed coax is close-wound on it; not metal pipe, which would be a "
+                             "shorted turn inside the coil", diameter_m=ch.form_diameter_m))
     else:
         trim = 0.1 * sleeve.length_m
         items.append(CutItem("choke sleeve", "copper or aluminium tube, inside diameter "

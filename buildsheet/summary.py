@@ -68,7 +68,7 @@ def summary_text(design: Design, s: Solution) -> str:
     for item in s.cut_list:
         qty = f"{item.quantity} x" if item.quantity > 1 else ""
         length = units.format_length(item.length_m, u, "coarse" if item.coarse else "fine")
-        add(f"  [ ] {item.part:<14} {qty:>3} {length:>12}  {item.material}; {item.note}")
+        add(f"  [ ] {item.part:<14} {qty:>3} {length:>12}  {item.material_text(L)}; {item.note}")
     fc = s.first_cut
     margins = [(what, m, span) for what, m, span in (("stub line", fc.stub_margin_m, fc.stub_m),
                                                      ("radiator", fc.radiator_margin_m, fc.radiator_m))
