@@ -208,11 +208,6 @@ class Calibration:
     tap_bar_d: float = 0.0
     c_j_d: float = 0.0
     q_rc: float = 0.0
-    top_kd: float = 0.0
-    short_kd: float = 0.0
-    cj_kd: float = 0.0
-    cj_ang: float = 0.0
-    x_rcf: float = 0.0
 
     def bars(self, ant: "Antenna") -> tuple[float, float, float]:
         """(short bar, tap bar, open top): the electrical lengths they add, m (see the class)."""
@@ -497,16 +492,8 @@ class _Prepared:
         electrical length c_j D to the radiator arm (the arm as the stub's open top sees it)."""
         ant, cal = self.ant, self.cal
         if junction:
-            x_rc = cal.x_rc
-            if cal.x_rcf:
-                # a radiator folded back toward the stub (sloper): its own weight (Calibration)
-                x_rc = x_rc + cal.x_rcf * max(self._junction_cos(L, S), 0.0)
-            l_e, z_img, z_rc = self._own_length(L, S, geometry, cal.x_img, x_rc)
+            l_e, z_img, z_rc = self._own_length(L, S, geometry, cal.x_img, cal.x_rc)
             l_e = l_e + cal.junction(ant)
-            if cal.cj_kd:
-                l_e = l_e + cal.cj_kd * ant.spacing * (self.k * ant.spacing) ** 2
-            if cal.cj_ang:
-                l_e = l_e + cal.cj_ang * ant.spacing * self._junction_cos(L, S)
         else:
             l_e, z_img, z_rc = self._own_length(L, S, geometry)
         r_free = self._loop_resistance(l_e)
@@ -526,12 +513,6 @@ class _Prepared:
         r_rad = 2 * z0_q ** 2 / (r_ant * l_e)
         arm_r = _open_arm(self.omega, z0_q, ant.wire_vf, r_rad, self.z_wire, l_e)
         return arm_r, self._common_mode_arm(S, z0c)
-
-    def _junction_cos(self, L, S):
-        """Cosine of the angle between the radiator and the stub, both leaving the junction: -1 for
-        a vertical (the radiator continues the stub's line), 0 for a horizontal, sin(slope) for a
-        sloper (folded back toward the stub)."""
-        return float(np.dot(_radiator_geometry(self.ant, L, S)[1], _stub_direction(self.ant)))
 
     def _loop_resistance(self, l_e):
         """Carter's loop radiation resistance of the radiator arm of electrical length l_e (m),
@@ -648,11 +629,6 @@ class _Prepared:
     def sections(self, S, T):
         """(lower, upper) electrical lengths of the stub sections with the bar and open-top effects, m."""
         short, _, top = self.cal.bars(self.ant)
-        cal = self.cal
-        if cal.short_kd or cal.top_kd:
-            # the ends of a line whose spacing is not small against the wavelength (Calibration)
-            d3 = self.ant.spacing * (self.k * self.ant.spacing) ** 2
-            short, top = short + cal.short_kd * d3, top + cal.top_kd * d3
         return T + short, S - T + top
 
     def z_feed(self, L, S, T, z_top=None):
