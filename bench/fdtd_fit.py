@@ -10,12 +10,15 @@ test. Run with the venv's python.
                                                  plus the FDTD training designs; held-out reported;
                                                  terms: candidate arm terms (QTERMS) fitted as well;
                                                  train+: more NEC-2 data, even seeds train too
-  python bench/fdtd_fit.py fit-arm [OUT.json] [terms=q_rc] [train+=...] [base=CAL.json]
+  python bench/fdtd_fit.py fit-arm [OUT.json] [terms=q_rc] [train+=...] [base=CAL.json] [shape=W]
                                                  the radiator arm's constants (ARM) only, from and
                                                  anchored to jpole.CAL (or base); the stub's and the
                                                  rigid constants kept (how CAL's q_rc was fitted)
   python bench/fdtd_fit.py ablate                each diameter term switched off, the rest refitted:
                                                  what the held-out errors do without it
+  python bench/fdtd_fit.py judge [CAL.json...]   stored candidates (or jpole.CAL) on the held-out data:
+                                                 |rho| at NEC's match, acceptance-style 2:1 edges
+                                                 (heldout_accept), band shape, FDTD held-out rms
   python bench/fdtd_fit.py verify RUNS.json...   FDTD SWR at f0 of runs made at the model's own
                                                  dimensions (fdtd_ref.py plan + jpole), fitted and
                                                  held-out designs apart
@@ -146,6 +149,34 @@ def thin_heldout(cal, held):
     return float(np.median(at)), float(np.quantile(at, 0.9))
 
 
+def band_shape(cal, r):
+    """(width ratio model / NEC, centre offset in NEC's 2:1 widths) of one stored design at NEC's
+    match, linearised (see heldout_shape)."""
+    c, p = r["case"], np.asarray(r["points"])
+    f, zn = p[:5, 3], p[:5, 4] + 1j * p[:5, 5]
+    key = ("shape", r["seed"])
+    prep = ns._PREPARED.get(key)
+    if prep is None:
+        prep = ns._PREPARED[key] = jpole._Prepared(ns.case_from_dict(c).antenna(), f, cal)
+    prep.cal = cal
+    zm = prep.z_feed(r["L_model"], r["S_nec"], r["T_nec"])
+    rn, rm = _rho(zn), _rho(zm)
+    step = (f[3] - f[1]) / c["f0"]
+    a, b, e = (rn[3] - rn[1]) / step, (rm[3] - rm[1]) / step, rm[2] - rn[2]
+    return abs(a) / abs(b), -(e * np.conj(b)).real / abs(b) ** 2 / (2 / 3 / abs(a))
+
+
+#: weight of the training designs' 2:1 band shape in the fit (`shape=W`; 0: not fitted, as CAL's
+#: fits before c5): per design the centre offset in NEC's widths and the log width ratio, at
+#: NEC's match (band_shape), what the acceptance's edge error follows
+SHAPE_WEIGHT = 0.0
+
+
+def shape_residuals(cal, rows):
+    out = np.array([band_shape(cal, r) for r in rows])
+    return SHAPE_WEIGHT * np.concatenate([out[:, 1], np.log(out[:, 0])])
+
+
 def heldout_shape(cal, held, quiet=False):
     """The 2:1 band of the model against NEC-2's on the held-out thin-wire designs, at NEC's match
     (radiator, stub and tap as NEC matched them), from the reflection coefficients one frequency
@@ -153,17 +184,7 @@ def heldout_shape(cal, held, quiet=False):
     the width ratio |a|/|b| (model / NEC) and the model's |rho|-minimum offset in NEC's 2:1 widths
     (2:1 width 2 (1/3) / |a|). Prints and returns the medians and 90th percentiles of |ln ratio|
     and |offset|: what the acceptance's edge error follows, without new NEC runs."""
-    wr, dc = [], []
-    for r in held:
-        c, p = r["case"], np.asarray(r["points"])
-        f, zn = p[:5, 3], p[:5, 4] + 1j * p[:5, 5]
-        zm = jpole._Prepared(ns.case_from_dict(c).antenna(), f, cal).z_feed(r["L_model"], r["S_nec"],
-                                                                          r["T_nec"])
-        rn, rm = _rho(zn), _rho(zm)
-        step = (f[3] - f[1]) / c["f0"]
-        a, b, e = (rn[3] - rn[1]) / step, (rm[3] - rm[1]) / step, rm[2] - rn[2]
-        wr.append(abs(a) / abs(b))
-        dc.append(-(e * np.conj(b)).real / abs(b) ** 2 / (2 / 3 / abs(a)))
+    wr, dc = np.array([band_shape(cal, r) for r in held]).T
     lw, dc = np.abs(np.log(wr)), np.abs(dc)
     out = dict(width_log_median=float(np.median(lw)), width_log_q90=float(np.quantile(lw, 0.9)),
                centre_median=float(np.median(dc)), centre_q90=float(np.quantile(dc, 0.9)),
@@ -173,6 +194,79 @@ def heldout_shape(cal, held, quiet=False):
               f"{out['width_log_median']:.3f}, 90 % {out['width_log_q90']:.3f}; |centre offset| / NEC "
               f"width median {out['centre_median']:.3f}, 90 % {out['centre_q90']:.3f}, over 0.1: "
               f"{out['centre_over_0_1']} of {out['n']}")
+    return out
+
+
+def heldout_accept(cal, held, quiet=False, label="held-out"):
+    """The acceptance's edge error emulated on stored NEC-2 designs, no new NEC runs: the model's own
+    first cut (radiator, stub and tap solved with cal), NEC-2's impedance at those dimensions from
+    the stored points (a polynomial through the five frequencies at NEC's match, moved at each
+    frequency by the change of the model's own impedance from NEC's dimensions to the model's: the
+    model's derivatives are what tests/test_jpole_nec.py holds within 15 % of NEC-2's), and the
+    2:1 edges of both as `nec_study.py accept` takes them (fraction of NEC's 2:1 width). Returns
+    (within 10 %, of N, median NEC-2 SWR at f0 of the model's cut); designs whose NEC 2:1 band does
+    not close inside the stored frequencies or that the model refuses are left out (counted)."""
+    saved = jpole.CAL
+    jpole.CAL = cal
+    errs, swrs, skipped = [], [], 0
+    try:
+        for r in held:
+            c, p = r["case"], np.asarray(r["points"])
+            case = ns.case_from_dict(c)
+            ant = case.antenna()
+            f0 = c["f0"]
+            try:
+                L = jpole.resonant_radiator_length(f0, ant)
+                S, T = jpole.solve_match(f0, 50.0, ant, L)
+            except ValueError:
+                skipped += 1
+                continue
+            z = p[:, 4] + 1j * p[:, 5]
+            L0, S0, T0 = p[2, 0], p[2, 1], p[2, 2]
+            x = p[:5, 3] / f0 - 1
+            poly_r, poly_i = np.polyfit(x, z[:5].real, 4), np.polyfit(x, z[:5].imag, 4)
+            xf = np.linspace(x[0], x[-1], 801)
+            # NEC-2 at the model's dimensions: NEC-2's sweep at its own match moved by what the
+            # model's impedance does between the two sets of dimensions, frequency by frequency
+            zm = jpole.feed_impedance(f0 * (1 + xf), ant, L, S, T)
+            zn = np.polyval(poly_r, xf) + 1j * np.polyval(poly_i, xf) \
+                + zm - jpole.feed_impedance(f0 * (1 + xf), ant, L0, S0, T0)
+            s_n, s_m = acc.swr(zn, 50.0), acc.swr(zm, 50.0)
+            b_n, b_m = acc.band_2to1(xf, s_n), acc.band_2to1(xf, s_m)
+            swrs.append(float(s_n[400]))
+            if (b_n is None or b_m is None or min(b_n[0], b_m[0]) <= xf[0] + 1e-12
+                    or max(b_n[1], b_m[1]) >= xf[-1] - 1e-12):
+                skipped += 1
+                continue
+            errs.append(max(abs(b_n[0] - b_m[0]), abs(b_n[1] - b_m[1])) / (b_n[1] - b_n[0]))
+    finally:
+        jpole.CAL = saved
+    errs = np.array(errs)
+    n_ok = int(np.sum(errs <= 0.1))
+    if not quiet:
+        print(f"  {label}: acceptance-style 2:1 edges (model's cut, NEC-2 linearised from the stored "
+              f"points): within 10 % of NEC's width {n_ok} of {len(errs)} ({skipped} left out), "
+              f"median {np.median(errs):.3f}, 90 % {np.quantile(errs, 0.9):.3f}; NEC-2 SWR at f0 "
+              f"median {np.median(swrs):.3f}, 90 % {np.quantile(swrs, 0.9):.3f}")
+    return n_ok, len(errs), float(np.median(swrs))
+
+
+HELD_EXTRA = DATA / "nec-c2-envelope.json.gz"
+
+
+def heldout_report(cal, held_nec, label=""):
+    """The held-out figures a candidate is judged by (no fit sees them): |rho| at NEC's match on
+    nec-c1's and nec-c2-envelope's odd seeds, and the acceptance-style 2:1 edges (heldout_accept)
+    on those inside the envelope."""
+    out = {}
+    for name, rows in (("nec-c1", held_nec), ("nec-c2", nec_rows(HELD_EXTRA)[1])):
+        med, q90 = thin_heldout(cal, rows)
+        env = [r for r in rows if ns.inside_envelope(r)]
+        n_ok, n, swr_med = heldout_accept(cal, env, quiet=True)
+        out[name] = dict(rho_median=med, rho_q90=q90, edges_within_10=n_ok, edges_n=n, swr_median=swr_med)
+        print(f"  {label}{name} held-out ({len(rows)}): |rho| at NEC's match median {med:.4f}, 90 % "
+              f"{q90:.4f}; inside the envelope, acceptance-style 2:1 edges within 10 %: {n_ok} of {n}, "
+              f"NEC-2 SWR at f0 of the model's cut median {swr_med:.3f}")
     return out
 
 
@@ -225,6 +319,7 @@ def joint_fit(runs, train_nec, free=FIELDS, base=None, max_nfev=60):
         cal = make(x)
         ns._PREPARED.clear()
         return np.concatenate([ns.residuals(cal, train_nec),
+                               shape_residuals(cal, train_nec) if SHAPE_WEIGHT else [],
                                FDTD_WEIGHT * np.concatenate([r.residual(cal) for r in train]),
                                [ns.PRIOR_WEIGHT * (v - ns.PRIOR[k]) for k, v in zip(free, x)
                                 if k in ns.PRIOR],
@@ -276,7 +371,7 @@ def cmd_fit(out=None, terms=(), extra=()):
                                                                                  time.gmtime()),
             train_designs=TRAIN_DESIGNS, band=BAND, fdtd_weight=FDTD_WEIGHT, nec_data=NEC_DATA.name,
             nec_extra=list(extra),
-            anchor_weight=ANCHOR_WEIGHT, thin_only=dataclasses.asdict(THIN_ONLY),
+            anchor_weight=ANCHOR_WEIGHT, shape_weight=SHAPE_WEIGHT, thin_only=dataclasses.asdict(THIN_ONLY),
             fdtd_files=FDTD_FILES, terms=list(terms), calibration=dataclasses.asdict(cal), before=before,
             after=after, heldout_shape=heldout_shape(cal, held_nec, quiet=True)),
             indent=1))
@@ -306,17 +401,20 @@ def cmd_fit_arm(out=None, terms=(), extra=(), base_file=None):
     cal = joint_fit(runs, train_nec, free=ARM + tuple(terms), base=base)
     after = describe(cal, runs, held_nec, "fitted")
     shape = (heldout_shape(base, held_nec), heldout_shape(cal, held_nec))
+    judged = dict(base=heldout_report(base, held_nec), fitted=heldout_report(cal, held_nec))
     print(_cal_text(cal))
     if out:
         Path(out).write_text(json.dumps(dict(
             script="bench/fdtd_fit.py", command=" ".join(["fit-arm", out] + [f"terms={','.join(terms)}"] * bool(terms)
                                                         + [f"train+={','.join(extra)}"] * bool(extra)
-                                                        + [f"base={base_file}"] * bool(base_file)),
+                                                        + [f"base={base_file}"] * bool(base_file)
+                                                        + [f"shape={SHAPE_WEIGHT:g}"] * bool(SHAPE_WEIGHT)),
             date=time.strftime("%Y-%m-%dT%H:%M:%SZ", time.gmtime()), train_designs=TRAIN_DESIGNS,
             band=BAND, fdtd_weight=FDTD_WEIGHT, nec_data=NEC_DATA.name, nec_extra=list(extra),
-            anchor_weight=ANCHOR_WEIGHT, base=dataclasses.asdict(base), free=list(ARM + tuple(terms)),
+            anchor_weight=ANCHOR_WEIGHT, shape_weight=SHAPE_WEIGHT, base=dataclasses.asdict(base),
+            free=list(ARM + tuple(terms)),
             fdtd_files=FDTD_FILES, calibration=dataclasses.asdict(cal), before=before, after=after,
-            heldout_shape_before=shape[0], heldout_shape_after=shape[1]), indent=1))
+            heldout_shape_before=shape[0], heldout_shape_after=shape[1], heldout=judged), indent=1))
 
 
 def cmd_ablate():
@@ -326,6 +424,26 @@ def cmd_ablate():
     for name in FAT:
         cal = joint_fit(runs, train_nec, free=tuple(k for k in FIELDS if k != name))
         describe(cal, runs, held_nec, f"without {name}")
+
+
+def cmd_judge(paths):
+    """Each stored candidate (a fit's output or bare constants; none: jpole.CAL) on the held-out data:
+    heldout_report, the linearised band shape and the FDTD held-out sweeps; no fitting (seconds)."""
+    runs = load_runs()
+    _, held_nec = nec_rows()
+    train_nec = nec_rows()[0]
+    for path in paths or [None]:
+        cal = jpole.CAL
+        if path:
+            stored = json.loads(Path(path).read_text())
+            cal = jpole.Calibration(**{**dataclasses.asdict(jpole.CAL), **stored.get("calibration", stored)})
+        print(f"{path or 'jpole.CAL'}: {_cal_text(cal)}")
+        med, q90 = thin_heldout(cal, train_nec)
+        print(f"  nec-c1 training ({len(train_nec)}): |rho| at NEC's match median {med:.4f}, 90 % {q90:.4f}")
+        heldout_report(cal, held_nec)
+        heldout_shape(cal, held_nec)
+        held = [r for r in runs if r.held]
+        print(f"  FDTD held-out rms {fdtd_rms(cal, held):.3f}, training {fdtd_rms(cal, [r for r in runs if not r.held]):.3f}")
 
 
 def cmd_verify(paths):
@@ -346,6 +464,10 @@ def cmd_verify(paths):
 
 def main(argv):
     cmd = argv[0] if argv else ""
+    global SHAPE_WEIGHT
+    for a in [a for a in argv if a.startswith("shape=")]:
+        SHAPE_WEIGHT = float(a[6:])
+        argv = [b for b in argv if b != a]
     if cmd == "eval":
         cmd_eval()
     elif cmd == "fit":
@@ -363,6 +485,8 @@ def main(argv):
         cmd_fit_arm(rest[0] if rest else None, terms, extra, base)
     elif cmd == "ablate":
         cmd_ablate()
+    elif cmd == "judge":
+        cmd_judge(argv[1:])
     elif cmd == "verify":
         cmd_verify(argv[1:])
     else:
