@@ -8,6 +8,9 @@ against NEC-2. Prints figures; not a test.
                                                              tests/test_stacked_nec.py and the bench's
                                                              own: NEC SWR at f0, 2:1 bands, gain
                                                              over the single version (NEC patterns)
+  python3 bench/stack_study.py rates OUT.json                the tuning table's rates of the same
+                                                             designs against NEC-2's central
+                                                             differences (tests/test_stacked_nec.py)
 
 Data (collect): for each random design (bench/nec_study.py's random_case, slopers made horizontal:
 a stacked sloper is not modelled), the model designs the stacked antenna with the constants of that
@@ -234,6 +237,27 @@ def accept(out: str):
         json.dump(dict(provenance=prov, rows=rows), fh, indent=1)
 
 
+def rates(out: str):
+    """tests/test_stacked_nec.py's tuning-rate comparison (its `rates` fixture: the model's
+    jpole.sensitivities against NEC-2 central differences), printed and stored with the constants
+    and provenance: the figures the README and the tuning procedure quote."""
+    import test_stacked_nec as tsn
+    t0 = time.time()
+    found = tsn.rates.__wrapped__()
+    rows = []
+    for name, by_rate in found.items():
+        for rate, (model, nec) in by_rate.items():
+            rows.append(dict(case=name, rate=rate, model=model, nec=nec))
+            print(f"{name:24s} {rate:13s} model {model:11.4g}  NEC-2 {nec:11.4g}  NEC-2/model {nec / model:.3f}")
+    prov = nec_study.provenance(command="python bench/stack_study.py " + " ".join(sys.argv[1:]),
+                                cal=dataclasses.asdict(jpole.CAL),
+                                stack_cal=dataclasses.asdict(jpole.STACK_CAL),
+                                seconds=round(time.time() - t0))
+    prov["script"] = "bench/stack_study.py"
+    with open(out, "w") as fh:
+        json.dump(dict(provenance=prov, rows=rows), fh, indent=1)
+
+
 if __name__ == "__main__":
     cmd = sys.argv[1]
     if cmd == "collect":
@@ -246,5 +270,7 @@ if __name__ == "__main__":
         report(sys.argv[2])
     elif cmd == "accept":
         accept(sys.argv[2])
+    elif cmd == "rates":
+        rates(sys.argv[2])
     else:
         raise SystemExit(__doc__)
