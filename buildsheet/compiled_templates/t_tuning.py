@@ -240,7 +240,7 @@ def root(context, missing=missing):
         yield escape((undefined(name='gap') if l_0_gap is missing else l_0_gap))
         yield " gap held by the insulator; the phasing stub's conductors from the\n   radiator's end and from the element's start, its short's centre line "
         yield escape((undefined(name='phasing') if l_0_phasing is missing else l_0_phasing))
-        yield " out from the\n   gap. These are cut to the sheet and are not tuning points: tune with the short and the tap as\n   below. If the radiator must be trimmed, trim the upper element by the same amount. The tables'\n   element moves are the model's; NEC-2 moves the dip 1.3 to 1.7 times as far per trim on the\n   stacked designs checked, so trim half the move first and read again.\n"
+        yield " out from the\n   gap. These are cut to the sheet and are not tuning points: tune with the short and the tap as\n   below. If the radiator must be trimmed, trim the upper element by the same amount. The tables'\n   element moves are the model's; NEC-2 moves the dip 1.3 to 1.8 times as far per trim on the\n   stacked designs checked, so trim half the move first and read again.\n"
     if (undefined(name='sleeve') if l_0_sleeve is missing else l_0_sleeve):
         pass
         yield '4. Choke: the sleeve slid over the coax with its open end right at the tap, its far end bonded to\n   the braid, trimmed to resonance first as in the choke detail.'
