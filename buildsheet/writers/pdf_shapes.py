@@ -8,10 +8,10 @@ mapped onto the canvas with y flipped, and texts are set in the embedded Vera me
 from __future__ import annotations
 
 from reportlab.pdfgen.canvas import FILL_NON_ZERO
-from reportlab.platypus import Flowable
 
 from buildsheet import fonts
 from buildsheet.drawing.shapes import Arc, Circle, Drawing, Line, Polyline, Text
+from buildsheet.writers.platypus import Flowable
 
 
 def _stroke_style(canvas, width: float, stroke: float, dash, scale: float) -> None:
