@@ -108,6 +108,7 @@ import numpy as np
 
 from buildsheet.physics import ModelError
 from buildsheet.physics.constants import C0, epsilon_0
+from buildsheet.physics.quadrature import gauss_legendre
 from buildsheet.physics.radiator import ETA0, wavenumber
 
 GROUND_KINDS = ("free-space", "perfect", "real")
@@ -325,9 +326,9 @@ def far_field(wires, f: float, theta, phi, ground_kind: str = "free-space", eps_
     return e_th, e_ph
 
 
-# Gauss-Legendre nodes on [0, 1] for the polar angle and for kappa
+# Gauss-Legendre nodes on [0, 1] for the polar angle and for kappa (the stored rules of quadrature.py)
 def _gl01(n):
-    x, w = np.polynomial.legendre.leggauss(n)
+    x, w = gauss_legendre(n)
     return (x + 1) / 2, w / 2
 
 
