@@ -36,6 +36,7 @@ class Steps:
 
 @dataclass(frozen=True)
 class KeyFigure:
+    """One key dimension: its label, value and what it means."""
     label: str
     value: str
     meaning: str
@@ -82,6 +83,7 @@ class Figures:
 
 @dataclass(frozen=True)
 class Section:
+    """A titled section of blocks, optionally starting a new page."""
     key: str
     title: str
     blocks: tuple
@@ -119,6 +121,7 @@ class PageRef:
 
 @dataclass(frozen=True)
 class ContentsEntry:
+    """One line of the contents: a part's title, its detail and its key."""
     title: str
     detail: str
     key: str

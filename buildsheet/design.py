@@ -92,6 +92,8 @@ class StubLine:
 
 @dataclass(frozen=True)
 class Feed:
+    """The feed: the coax (name, Z0, velocity factor, outer diameter, matched loss), the feed
+    impedance, the coax length and the choke form, SI."""
     coax: str
     coax_z0_ohm: float
     coax_velocity_factor: float
@@ -104,6 +106,8 @@ class Feed:
 
 @dataclass(frozen=True)
 class Site:
+    """Where the antenna goes: orientation, height and slope, and the ground (name, kind,
+    permittivity, conductivity)."""
     orientation: str
     height_m: float
     slope_rad: float
@@ -115,6 +119,7 @@ class Site:
 
 @dataclass(frozen=True)
 class Power:
+    """The transmitter power, mode, duty factor, time on the air and the exposure standard."""
     transmitter_w: float
     mode: str
     duty_factor: float
@@ -124,6 +129,7 @@ class Power:
 
 @dataclass(frozen=True)
 class Output:
+    """The sheet's units and paper."""
     units: str
     paper: str
 
@@ -182,6 +188,7 @@ class Stack:
 
 @dataclass(frozen=True)
 class Design:
+    """A validated design file in SI units (frozen): what the solver and the outputs read."""
     schema: int
     name: str
     title: str

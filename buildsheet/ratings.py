@@ -81,6 +81,8 @@ class Rated:
 
 @dataclass(frozen=True)
 class Ratings:
+    """The catalogue's ratings: coax, connectors, stub lines, insulators, the corona factor and the
+    wire current limits, with their sources."""
     coax: dict
     connectors: dict
     stub_lines: dict

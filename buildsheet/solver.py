@@ -150,6 +150,8 @@ class Sweep:
 
 @dataclass(frozen=True)
 class Exposure:
+    """The RF exposure estimate: power, gain, EIRP, the distances to the controlled and general
+    limits, the limits and the near-field distance."""
     standard: str
     average_power_w: float
     gain_dbi: float
@@ -194,6 +196,8 @@ class Parts:
 
 @dataclass(frozen=True)
 class Solution:
+    """The solved design: dimensions, cut list, sweep, voltages, exposure and the parts' facts;
+    numbers only (SI)."""
     name: str
     design_id: str
     frequency_hz: float

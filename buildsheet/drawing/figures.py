@@ -114,6 +114,7 @@ def _station(x0: float, y_g: float, w: float = 46.0, h: float = 24.0) -> list:
 
 @dataclass(frozen=True)
 class _Context:
+    """The design, its solution and the revision date a figure is drawn for."""
     design: Design
     solution: Solution
     date: str

@@ -109,6 +109,7 @@ def _left_normal(u: Point) -> Point:
 
 @dataclass(frozen=True)
 class Line:
+    """A straight line from (x1, y1) to (x2, y2)."""
     x1: float
     y1: float
     x2: float
@@ -158,6 +159,7 @@ class Polyline:
 
 @dataclass(frozen=True)
 class Circle:
+    """A circle of radius r about (cx, cy), stroked and/or filled."""
     cx: float
     cy: float
     r: float
@@ -305,6 +307,7 @@ class _Composite:
 
 @dataclass(frozen=True)
 class Rect(_Composite):
+    """A rectangle, top left corner (x, y), w wide and h high."""
     x: float
     y: float
     w: float
