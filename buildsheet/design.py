@@ -12,13 +12,11 @@ ground clearance of the stub and of the radiator's far end) are in solver.py.
 from __future__ import annotations
 
 import dataclasses
-import difflib
 import functools
 import hashlib
 import json
 import os
 import re
-import subprocess
 import unicodedata
 from dataclasses import dataclass, field
 from datetime import date, datetime, timezone
@@ -290,6 +288,8 @@ def design_from_text(text: str, path: str | None = None) -> Design:
 
 def closest(word: str, choices) -> str | None:
     """The closest of `choices` to `word`, for "did you mean" hints."""
+    import difflib      # only on a mistake
+
     choices = list(choices)
     lowered = {c.lower(): c for c in choices}
     match = difflib.get_close_matches(str(word).lower(), list(lowered), n=1, cutoff=0.5)
@@ -882,8 +882,11 @@ def parse_date(value) -> str | None:
     if isinstance(value, date):
         return value.isoformat() if value.year >= FIRST_YEAR else None
     if isinstance(value, str) and re.fullmatch(r"\d{4}-\d{2}-\d{2}", value.strip()):
-        try:
-            day = datetime.strptime(value.strip(), "%Y-%m-%d").date()
+        text = value.strip()
+        try:    # as strptime(text, "%Y-%m-%d") reads it (ASCII digits), without importing _strptime
+            if not text.isascii():
+                raise ValueError(text)
+            day = date(int(text[:4]), int(text[5:7]), int(text[8:]))
         except ValueError:
             return None
         return day.isoformat() if day.year >= FIRST_YEAR else None
@@ -911,6 +914,8 @@ def revision_date(path: str | None, override: str | None = None) -> str:
             raise BuildsheetError(f"must be seconds since 1970, got '{epoch}'",
                                   key="SOURCE_DATE_EPOCH") from None
     if path:
+        import subprocess
+
         directory = os.path.dirname(os.path.abspath(path))
         try:
             out = subprocess.run(["git", "log", "-1", "--format=%cs", "--", os.path.basename(path)],

@@ -662,7 +662,7 @@ def _reproducible(date: str):
     restored afterwards."""
     saved = os.environ.get("SOURCE_DATE_EPOCH")
     saved_a85 = rl_config.useA85
-    day = datetime.datetime.strptime(date, "%Y-%m-%d").replace(tzinfo=datetime.timezone.utc)
+    day = datetime.datetime(*(int(part) for part in date.split("-")), tzinfo=datetime.timezone.utc)
     os.environ["SOURCE_DATE_EPOCH"] = str(int(day.timestamp()))
     rl_config.useA85 = 0
     try:
