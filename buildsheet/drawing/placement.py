@@ -9,8 +9,6 @@ from __future__ import annotations
 import functools
 import math
 
-import numpy as np
-
 from buildsheet import fonts
 from buildsheet.drawing.shapes import (TEXT_GAP, TEXT_SIZE, Arc, Box, Circle, Leader, Line, Polyline, Text,
                                        segment_meets)
@@ -103,12 +101,13 @@ def _runs_along(p1, p2, q1, q2) -> bool:
     return min(t[1], n) - max(t[0], 0.0) > 2.0
 
 
-def _any_overlap(box: Box, boxes: list[Box], tol: float = 0.01) -> bool:
-    """True when `box` overlaps any of `boxes` by more than `tol`, as Box.overlaps (in Python: a
-    figure has a few dozen boxes, fewer than numpy's overhead pays for)."""
-    x0, y0, x1, y1 = box.x0, box.y0, box.x1, box.y1
-    for b in boxes:
-        if (min(b.x1, x1) - max(b.x0, x0) > tol) and (min(b.y1, y1) - max(b.y0, y0) > tol):
+def _any_overlap(box, boxes, tol: float = 0.01) -> bool:
+    """True when `box` overlaps any of `boxes` by more than `tol`, as Box.overlaps (boxes as
+    (x0, y0, x1, y1) tuples; in Python: a figure has a few dozen boxes, fewer than numpy's overhead
+    pays for)."""
+    x0, y0, x1, y1 = box
+    for bx0, by0, bx1, by1 in boxes:
+        if (min(bx1, x1) - max(bx0, x0) > tol) and (min(by1, y1) - max(by0, y0) > tol):
             return True
     return False
 
@@ -122,61 +121,101 @@ def _cross(p1, p2, q1, q2) -> bool:
     return d1 * d2 < 0 and d3 * d4 < 0
 
 
+#: side of the cells of the segment index, points (a label's box spans one to three)
+_CELL = 24.0
+
+
+def _tuple(box: Box) -> tuple[float, float, float, float]:
+    return box.x0, box.y0, box.x1, box.y1
+
+
 class Layout:
     """The items of one figure body, with what they occupy, so that callouts can be put where they
-    cross nothing already drawn."""
+    cross nothing already drawn.
+
+    The drawn segments are kept in a grid of _CELL-point cells (each segment in every cell its
+    bounding box touches), so that the boxes tried for a label are tested against the few segments
+    near them, not all of a figure's hundreds; boxes are kept as (x0, y0, x1, y1) tuples (the
+    placement tries thousands of them a build)."""
 
     def __init__(self, width: float, height: float):
         self.items: list = []
         self.area = Box(PAD / 2, PAD / 2, width - PAD / 2, height - PAD / 2)
+        self._area = _tuple(self.area)
         self._segments: list = []
-        self._texts: list[Box] = []
-        self._solids: list[Box] = []
+        self._bounds: list = []     # per segment: (x0, x1, y0, y1) of its bounding box
+        self._cells: dict = {}      # (column, row) -> indices of the segments in that cell
+        self._texts: list = []
+        self._solids: list = []
         self._leaders: list = []
-        self._index = None
 
     def add(self, *items) -> None:
         for item in items:
             self.items.append(item)
             for p in item.primitives():
                 if isinstance(p, Text):
-                    self._texts.append(p.bbox())
+                    self._texts.append(_tuple(p.bbox()))
                     continue
-                self._segments += _segments_of(p)
-                self._index = None
+                for seg in _segments_of(p):
+                    self._index(seg)
                 fill = getattr(p, "fill", None)
                 if fill is not None and fill < 0.999:
-                    self._solids.append(p.bbox())
+                    self._solids.append(_tuple(p.bbox()))
 
-    def _near(self, box: Box) -> list:
-        """The segments whose bounding boxes meet `box` (a quick filter before exact tests)."""
-        if self._index is None:
-            a = np.array([(p[0], p[1], q[0], q[1]) for p, q in self._segments]).reshape(-1, 4)
-            self._index = (np.minimum(a[:, 0], a[:, 2]), np.maximum(a[:, 0], a[:, 2]),
-                           np.minimum(a[:, 1], a[:, 3]), np.maximum(a[:, 1], a[:, 3]))
-        x0, x1, y0, y1 = self._index
-        hits = np.flatnonzero((x0 <= box.x1) & (x1 >= box.x0) & (y0 <= box.y1) & (y1 >= box.y0))
-        return [self._segments[i] for i in hits]
+    def _index(self, seg) -> None:
+        (px, py), (qx, qy) = seg
+        i = len(self._segments)
+        self._segments.append(seg)
+        x0, x1, y0, y1 = min(px, qx), max(px, qx), min(py, qy), max(py, qy)
+        self._bounds.append((x0, x1, y0, y1))
+        cells = self._cells
+        for cx in range(math.floor(x0 / _CELL), math.floor(x1 / _CELL) + 1):
+            for cy in range(math.floor(y0 / _CELL), math.floor(y1 / _CELL) + 1):
+                cells.setdefault((cx, cy), []).append(i)
+
+    def _near(self, box) -> list:
+        """The segments whose bounding boxes meet `box` (x0, y0, x1, y1), in the order they were
+        added (a quick filter before exact tests)."""
+        bx0, by0, bx1, by1 = box
+        cells = self._cells
+        found: set = set()
+        for cx in range(math.floor(bx0 / _CELL), math.floor(bx1 / _CELL) + 1):
+            for cy in range(math.floor(by0 / _CELL), math.floor(by1 / _CELL) + 1):
+                found.update(cells.get((cx, cy), ()))
+        bounds, segments = self._bounds, self._segments
+        out = []
+        for i in sorted(found):
+            x0, x1, y0, y1 = bounds[i]
+            if x0 <= bx1 and x1 >= bx0 and y0 <= by1 and y1 >= by0:
+                out.append(segments[i])
+        return out
 
     def free(self, box: Box, strict: bool = True) -> bool:
         """True when `box` lies in the body, overlaps no text or filled area, and (strict) no line
         passes within 1 point of it."""
-        if not box.within(self.area):
+        return self._free(_tuple(box), strict)
+
+    def _free(self, box, strict: bool = True) -> bool:
+        x0, y0, x1, y1 = box
+        ax0, ay0, ax1, ay1 = self._area
+        if not (x0 >= ax0 - 0.01 and y0 >= ay0 - 0.01 and x1 <= ax1 + 0.01 and y1 <= ay1 + 0.01):
             return False
-        grown = Box(box.x0 - 1, box.y0 - 1, box.x1 + 1, box.y1 + 1)
+        grown = (x0 - 1, y0 - 1, x1 + 1, y1 + 1)
         if _any_overlap(grown, self._texts) or _any_overlap(box, self._solids):
             return False
         if not strict:
             return True
-        return not any(segment_meets(p, q, grown) for p, q in self._near(grown))
+        gbox = Box(*grown)
+        return not any(segment_meets(p, q, gbox) for p, q in self._near(grown))
 
     def _leader_ok(self, p, q) -> bool:
         """A leader p-q crosses no text, runs along no line and crosses no other leader."""
-        reach = Box(min(p[0], q[0]) - 2, min(p[1], q[1]) - 2, max(p[0], q[0]) + 2, max(p[1], q[1]) + 2)
-        if any(segment_meets(p, q, b) for b in self._texts
-               if b.x0 <= reach.x1 and b.x1 >= reach.x0 and b.y0 <= reach.y1 and b.y1 >= reach.y0):
+        rx0, ry0 = min(p[0], q[0]) - 2, min(p[1], q[1]) - 2
+        rx1, ry1 = max(p[0], q[0]) + 2, max(p[1], q[1]) + 2
+        if any(segment_meets(p, q, Box(*b)) for b in self._texts
+               if b[0] <= rx1 and b[2] >= rx0 and b[1] <= ry1 and b[3] >= ry0):
             return False
-        if any(_runs_along(p, q, a, b) for a, b in self._near(reach)):
+        if any(_runs_along(p, q, a, b) for a, b in self._near((rx0, ry0, rx1, ry1))):
             return False
         return not any(_cross(p, q, a, b) for a, b in self._leaders)
 
@@ -184,7 +223,7 @@ class Layout:
         u = (q[0] - p[0], q[1] - p[1])
         n = math.hypot(*u) or 1.0
         start = (p[0] + u[0] / n * 2.5, p[1] + u[1] / n * 2.5)    # past the target's own line
-        reach = Box(min(p[0], q[0]), min(p[1], q[1]), max(p[0], q[0]), max(p[1], q[1]))
+        reach = (min(p[0], q[0]), min(p[1], q[1]), max(p[0], q[0]), max(p[1], q[1]))
         return sum(1 for a, b in self._near(reach) if _cross(start, q, a, b))
 
     def callout(self, x: float, y: float, lines, angles=(135, 225, 45, 315, 180, 0, 90, 270),
@@ -202,7 +241,7 @@ class Layout:
                     tx = x + r * math.cos(math.radians(a))
                     ty = y - r * math.sin(math.radians(a))
                     boxes = _callout_boxes(tx, ty, tx >= x, widths, size)
-                    if not all(self.free(b, strict) for b in boxes):
+                    if not all(self._free(b, strict) for b in boxes):
                         continue
                     if not self._leader_ok((x, y), (tx, ty)):
                         continue
@@ -242,16 +281,16 @@ class Layout:
         raise ValueError(f"no room for the text {lines[0]!r}")
 
 
-def _callout_boxes(tx: float, ty: float, rightward: bool, widths, size: float) -> list[Box]:
-    """The text boxes of _callout_items for lines of the given widths (computed without building
-    the shapes, for trying many positions quickly)."""
+def _callout_boxes(tx: float, ty: float, rightward: bool, widths, size: float) -> list[tuple]:
+    """The text boxes, (x0, y0, x1, y1), of _callout_items for lines of the given widths (computed
+    without building the shapes, for trying many positions quickly)."""
     asc, desc = fonts.ascent(size), fonts.descent(size)
     base = ty + (asc - desc) / 2
     out = []
     for k, w in enumerate(widths):
         x0 = tx + TEXT_GAP if rightward else tx - TEXT_GAP - w
         yk = base + k * line_height(size)
-        out.append(Box(x0, yk - asc, x0 + w, yk + desc))
+        out.append((x0, yk - asc, x0 + w, yk + desc))
     return out
 
 
