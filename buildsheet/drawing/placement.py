@@ -121,7 +121,8 @@ def _cross(p1, p2, q1, q2) -> bool:
     return d1 * d2 < 0 and d3 * d4 < 0
 
 
-#: side of the cells of the segment index, points (a label's box spans one to three)
+#: side of the cells of the grids that index a figure's segments and boxes, points (a label's box
+#: spans one to three)
 _CELL = 24.0
 
 
@@ -129,24 +130,63 @@ def _tuple(box: Box) -> tuple[float, float, float, float]:
     return box.x0, box.y0, box.x1, box.y1
 
 
+def _cell_range(lo: float, hi: float) -> range:
+    return range(math.floor(lo / _CELL), math.floor(hi / _CELL) + 1)
+
+
+class _Grid:
+    """Items, each with its bounding box (x0, y0, x1, y1), kept in every _CELL-point cell the box
+    touches: `near(box)` gives those whose boxes meet `box` (touching counts), in the order they
+    were added, from the cells `box` touches instead of from all of them."""
+
+    def __init__(self):
+        self.items: list = []
+        self.boxes: list = []
+        self._cells: dict = {}      # (column, row) -> indices of the items in that cell
+
+    def add(self, box, item) -> None:
+        i = len(self.items)
+        self.items.append(item)
+        self.boxes.append(box)
+        cells = self._cells
+        rows = _cell_range(box[1], box[3])
+        for cx in _cell_range(box[0], box[2]):
+            for cy in rows:
+                cells.setdefault((cx, cy), []).append(i)
+
+    def near(self, box) -> list:
+        bx0, by0, bx1, by1 = box
+        cells = self._cells
+        found: set = set()
+        rows = _cell_range(by0, by1)
+        for cx in _cell_range(bx0, bx1):
+            for cy in rows:
+                found.update(cells.get((cx, cy), ()))
+        boxes, items = self.boxes, self.items
+        out = []
+        for i in sorted(found):
+            x0, y0, x1, y1 = boxes[i]
+            if x0 <= bx1 and x1 >= bx0 and y0 <= by1 and y1 >= by0:
+                out.append(items[i])
+        return out
+
+
 class Layout:
     """The items of one figure body, with what they occupy, so that callouts can be put where they
     cross nothing already drawn.
 
-    The drawn segments are kept in a grid of _CELL-point cells (each segment in every cell its
-    bounding box touches), so that the boxes tried for a label are tested against the few segments
-    near them, not all of a figure's hundreds; boxes are kept as (x0, y0, x1, y1) tuples (the
-    placement tries thousands of them a build)."""
+    The drawn segments, texts and filled areas are kept in grids of _CELL-point cells (_Grid), so
+    that the boxes tried for a label are tested against the few things near them, not all of a
+    figure's hundreds; boxes are kept as (x0, y0, x1, y1) tuples (the placement tries thousands of
+    them a build)."""
 
     def __init__(self, width: float, height: float):
         self.items: list = []
         self.area = Box(PAD / 2, PAD / 2, width - PAD / 2, height - PAD / 2)
         self._area = _tuple(self.area)
-        self._segments: list = []
-        self._bounds: list = []     # per segment: (x0, x1, y0, y1) of its bounding box
-        self._cells: dict = {}      # (column, row) -> indices of the segments in that cell
-        self._texts: list = []
-        self._solids: list = []
+        self._segments = _Grid()    # segments ((x, y), (x, y))
+        self._texts = _Grid()       # text boxes (x0, y0, x1, y1)
+        self._solids = _Grid()      # boxes of filled primitives
         self._leaders: list = []
 
     def add(self, *items) -> None:
@@ -154,41 +194,21 @@ class Layout:
             self.items.append(item)
             for p in item.primitives():
                 if isinstance(p, Text):
-                    self._texts.append(_tuple(p.bbox()))
+                    box = _tuple(p.bbox())
+                    self._texts.add(box, box)
                     continue
                 for seg in _segments_of(p):
-                    self._index(seg)
+                    (px, py), (qx, qy) = seg
+                    self._segments.add((min(px, qx), min(py, qy), max(px, qx), max(py, qy)), seg)
                 fill = getattr(p, "fill", None)
                 if fill is not None and fill < 0.999:
-                    self._solids.append(_tuple(p.bbox()))
-
-    def _index(self, seg) -> None:
-        (px, py), (qx, qy) = seg
-        i = len(self._segments)
-        self._segments.append(seg)
-        x0, x1, y0, y1 = min(px, qx), max(px, qx), min(py, qy), max(py, qy)
-        self._bounds.append((x0, x1, y0, y1))
-        cells = self._cells
-        for cx in range(math.floor(x0 / _CELL), math.floor(x1 / _CELL) + 1):
-            for cy in range(math.floor(y0 / _CELL), math.floor(y1 / _CELL) + 1):
-                cells.setdefault((cx, cy), []).append(i)
+                    box = _tuple(p.bbox())
+                    self._solids.add(box, box)
 
     def _near(self, box) -> list:
         """The segments whose bounding boxes meet `box` (x0, y0, x1, y1), in the order they were
         added (a quick filter before exact tests)."""
-        bx0, by0, bx1, by1 = box
-        cells = self._cells
-        found: set = set()
-        for cx in range(math.floor(bx0 / _CELL), math.floor(bx1 / _CELL) + 1):
-            for cy in range(math.floor(by0 / _CELL), math.floor(by1 / _CELL) + 1):
-                found.update(cells.get((cx, cy), ()))
-        bounds, segments = self._bounds, self._segments
-        out = []
-        for i in sorted(found):
-            x0, x1, y0, y1 = bounds[i]
-            if x0 <= bx1 and x1 >= bx0 and y0 <= by1 and y1 >= by0:
-                out.append(segments[i])
-        return out
+        return self._segments.near(box)
 
     def free(self, box: Box, strict: bool = True) -> bool:
         """True when `box` lies in the body, overlaps no text or filled area, and (strict) no line
@@ -201,7 +221,7 @@ class Layout:
         if not (x0 >= ax0 - 0.01 and y0 >= ay0 - 0.01 and x1 <= ax1 + 0.01 and y1 <= ay1 + 0.01):
             return False
         grown = (x0 - 1, y0 - 1, x1 + 1, y1 + 1)
-        if _any_overlap(grown, self._texts) or _any_overlap(box, self._solids):
+        if _any_overlap(grown, self._texts.near(grown)) or _any_overlap(box, self._solids.near(box)):
             return False
         if not strict:
             return True
@@ -210,12 +230,10 @@ class Layout:
 
     def _leader_ok(self, p, q) -> bool:
         """A leader p-q crosses no text, runs along no line and crosses no other leader."""
-        rx0, ry0 = min(p[0], q[0]) - 2, min(p[1], q[1]) - 2
-        rx1, ry1 = max(p[0], q[0]) + 2, max(p[1], q[1]) + 2
-        if any(segment_meets(p, q, Box(*b)) for b in self._texts
-               if b[0] <= rx1 and b[2] >= rx0 and b[1] <= ry1 and b[3] >= ry0):
+        reach = (min(p[0], q[0]) - 2, min(p[1], q[1]) - 2, max(p[0], q[0]) + 2, max(p[1], q[1]) + 2)
+        if any(segment_meets(p, q, Box(*b)) for b in self._texts.near(reach)):
             return False
-        if any(_runs_along(p, q, a, b) for a, b in self._near((rx0, ry0, rx1, ry1))):
+        if any(_runs_along(p, q, a, b) for a, b in self._near(reach)):
             return False
         return not any(_cross(p, q, a, b) for a, b in self._leaders)
 
