@@ -1,13 +1,15 @@
-"""reportlab.platypus, imported for the PDF writers (pdf.py, pdf_shapes.py) with one of its regular
-expressions compiled on first use instead of at import.
+"""reportlab.platypus, imported for the PDF writers (pdf.py, pdf_shapes.py) with three of the regular
+expressions it compiles at import compiled on first use instead.
 
-reportlab.platypus.paragraph compiles at import a case-insensitive URI pattern over the whole Basic
-Multilingual Plane (`uri_pat`), which takes about 40 ms, a tenth of a build; it serves only the
-splitting of long URIs at hyphenation (`uriWasteReduce`), which the sheets never ask for. While
-platypus is imported here, `re.compile` of that one pattern returns a stand-in that compiles it when
-first used, so what reportlab does with it is unchanged. If reportlab's pattern changes, the
-stand-in is not made and the pattern is compiled at import as before (only the time is lost).
-If platypus is already imported, this changes nothing.
+Importing platypus compiles, among others, three patterns that a sheet's layout never uses: in
+paragraph.py a case-insensitive URI pattern over the whole Basic Multilingual Plane (`uri_pat`,
+about 40 ms, a tenth of a build: it serves only the hyphenation of long URIs, `uriWasteReduce`,
+which the sheets do not ask for), in lib/textsplit.py the CJK range of `cjkwrap` (`rx`, 3 ms) and in
+lib/PyFontify.py the Python syntax colouring of code listings (`matchRE`, 1 ms). While platypus is
+imported here, `re.compile` of those patterns returns a stand-in that compiles the pattern when
+first used, so what reportlab does with them is unchanged. A pattern that reportlab changes is
+compiled at import as before (only the time is lost). If platypus is already imported, this
+changes nothing.
 """
 
 from __future__ import annotations
@@ -15,8 +17,11 @@ from __future__ import annotations
 import re
 import sys
 
-#: the start of reportlab.platypus.paragraph.uri_pat (reportlab 4-5), compiled with re.I
-_URI_PATTERN_START = r"(^(?:[a-z0-9\.\-\+]*)://)"
+#: (start of the pattern, flags) of the patterns compiled on first use (reportlab 4-5):
+#: paragraph.uri_pat, textsplit.rx, PyFontify.matchRE
+DEFERRED = ((r"(^(?:[a-z0-9\.\-\+]*)://)", re.IGNORECASE),
+            ("([\u2e80-\uffff])", re.UNICODE),
+            (r"#[^\n]*|(^|[^a-zA-Z0-9_.\"'])(", 0))
 
 
 class OnFirstUse:
@@ -42,7 +47,7 @@ def _import_platypus() -> None:
     compile_ = re.compile
 
     def deferring(pattern, flags=0):
-        if flags == re.IGNORECASE and isinstance(pattern, str) and pattern.startswith(_URI_PATTERN_START):
+        if isinstance(pattern, str) and any(flags == f and pattern.startswith(start) for start, f in DEFERRED):
             return OnFirstUse(compile_, pattern, flags)
         return compile_(pattern, flags)
 
