@@ -28,6 +28,13 @@ def test_stored_rule_is_exact_to_degree_2n_minus_1(n):
         assert np.sum(w * x ** k) == pytest.approx(exact, abs=1e-13)
 
 
+def test_other_orders_are_leggauss():
+    x, w = quadrature.gauss_legendre(64)
+    ref_x, ref_w = np.polynomial.legendre.leggauss(64)
+    assert 64 not in quadrature.ORDERS
+    assert np.array_equal(x, ref_x) and np.array_equal(w, ref_w)
+
+
 def test_written_table_reads_back_exactly(tmp_path):
     path = tmp_path / "table.py"
     quadrature.write_gauss_legendre_table(path)
