@@ -130,10 +130,6 @@ def _tuple(box: Box) -> tuple[float, float, float, float]:
     return box.x0, box.y0, box.x1, box.y1
 
 
-def _cell_range(lo: float, hi: float) -> range:
-    return range(math.floor(lo / _CELL), math.floor(hi / _CELL) + 1)
-
-
 class _Grid:
     """Items, each with its bounding box (x0, y0, x1, y1), kept in every _CELL-point cell the box
     touches: `near(box)` gives those whose boxes meet `box` (touching counts), in the order they
@@ -142,29 +138,36 @@ class _Grid:
     def __init__(self):
         self.items: list = []
         self.boxes: list = []
-        self._cells: dict = {}      # (column, row) -> indices of the items in that cell
+        self._cells: dict = {}      # (column, row) -> indices of the items in that cell, ascending
 
     def add(self, box, item) -> None:
         i = len(self.items)
         self.items.append(item)
         self.boxes.append(box)
         cells = self._cells
-        rows = _cell_range(box[1], box[3])
-        for cx in _cell_range(box[0], box[2]):
+        rows = range(math.floor(box[1] / _CELL), math.floor(box[3] / _CELL) + 1)
+        for cx in range(math.floor(box[0] / _CELL), math.floor(box[2] / _CELL) + 1):
             for cy in rows:
                 cells.setdefault((cx, cy), []).append(i)
 
     def near(self, box) -> list:
+        if not self.items:
+            return []
         bx0, by0, bx1, by1 = box
         cells = self._cells
-        found: set = set()
-        rows = _cell_range(by0, by1)
-        for cx in _cell_range(bx0, bx1):
-            for cy in rows:
-                found.update(cells.get((cx, cy), ()))
+        cx0, cx1 = math.floor(bx0 / _CELL), math.floor(bx1 / _CELL)
+        cy0, cy1 = math.floor(by0 / _CELL), math.floor(by1 / _CELL)
+        if cx0 == cx1 and cy0 == cy1:
+            found = cells.get((cx0, cy0), ())       # one cell: already in order, once each
+        else:
+            merged: set = set()
+            for cx in range(cx0, cx1 + 1):
+                for cy in range(cy0, cy1 + 1):
+                    merged.update(cells.get((cx, cy), ()))
+            found = sorted(merged)
         boxes, items = self.boxes, self.items
         out = []
-        for i in sorted(found):
+        for i in found:
             x0, y0, x1, y1 = boxes[i]
             if x0 <= bx1 and x1 >= bx0 and y0 <= by1 and y1 >= by0:
                 out.append(items[i])
