@@ -26,7 +26,6 @@ import hashlib
 import math
 import pathlib
 from collections.abc import Mapping
-from dataclasses import dataclass
 from functools import cached_property
 from types import MappingProxyType
 
@@ -35,6 +34,7 @@ import yaml
 
 from buildsheet.errors import DesignError
 from buildsheet.units import FOOT_M, parse_quantity, parse_wire
+from buildsheet.valueclass import valueclass
 
 #: kind of entry -> the words used for it in messages
 _LABELS = {
@@ -49,7 +49,7 @@ _LABELS = {
 REGIONS = (1, 2, 3)
 
 
-@dataclass(frozen=True)
+@valueclass
 class Material:
     """A conductor material: conductivity_s_m in S/m."""
 
@@ -58,7 +58,7 @@ class Material:
     source: str
 
 
-@dataclass(frozen=True)
+@valueclass
 class Insulation:
     """A wire jacket: velocity_factor is the shortening it causes on a wire antenna (1.0 = bare);
     velocity_factor_spread (low, high) the range the sources give (None for bare wire), with
@@ -71,7 +71,7 @@ class Insulation:
     spread_source: str = ""
 
 
-@dataclass(frozen=True)
+@valueclass
 class Dielectric:
     """A line dielectric: relative permittivity eps_r and loss tangent tan_delta (both dimensionless)."""
 
@@ -81,7 +81,7 @@ class Dielectric:
     source: str
 
 
-@dataclass(frozen=True)
+@valueclass
 class StubLine:
     """A two-wire line for the stub.
 
@@ -109,7 +109,7 @@ class StubLine:
     spread_source: str = ""
 
 
-@dataclass(frozen=True)
+@valueclass
 class Coax:
     """A coaxial cable: z0_ohm (ohm), velocity_factor, outer_diameter_m (m, over the jacket) and
     loss_db_per_100ft ((f_hz, dB per 100 ft), ...) as the cable data give it; inner_diameter_m and
@@ -146,7 +146,7 @@ class Coax:
         return alpha if np.ndim(alpha) else float(alpha)
 
 
-@dataclass(frozen=True)
+@valueclass
 class Ground:
     """A ground under the antenna. kind: 'free-space' (none), 'perfect' (conductivity_s_m = inf) or
     'real' (relative permittivity and conductivity_s_m in S/m)."""
@@ -158,7 +158,7 @@ class Ground:
     source: str
 
 
-@dataclass(frozen=True)
+@valueclass
 class Mode:
     """An operating mode: duty_factor is average over peak envelope power while transmitting (0..1)."""
 
@@ -167,7 +167,7 @@ class Mode:
     source: str
 
 
-@dataclass(frozen=True)
+@valueclass
 class StockSize:
     """A tube or rod size sold in shops: kind 'tube' | 'rod', system 'imperial' | 'metric' (how it
     is sold), outer_diameter_m in m."""
@@ -184,7 +184,7 @@ class StockSize:
 STOCK_MATCH = 0.03
 
 
-@dataclass(frozen=True)
+@valueclass
 class Band:
     """An amateur band in one ITU region: edges low_hz, high_hz in Hz."""
 
@@ -214,7 +214,7 @@ def _plain_number(raw, where: str) -> float:
     return float(raw)
 
 
-@dataclass(frozen=True)
+@valueclass
 class Catalog:
     """All catalogue entries by kind (mappings name -> entry, in file order) and bands by region."""
 

@@ -18,13 +18,14 @@ import json
 import os
 import re
 import unicodedata
-from dataclasses import dataclass, field
+from dataclasses import field
 from datetime import date, datetime, timezone
 
 from buildsheet import schema, units
 from buildsheet.catalog import catalog, countries, national_bands
 from buildsheet.errors import BuildsheetError, DesignError, one_line
 from buildsheet.schema import CALIBRATION_PARAMETERS, DEFAULTS, MAX_QUANTITY_CHARS, RULES, SCHEMA, mm
+from buildsheet.valueclass import valueclass
 from buildsheet.yamlread import Document, parse, read_text
 
 __all__ = ["DEFAULTS", "CALIBRATION_PARAMETERS", "Design", "design_from_text", "load_design"]
@@ -47,7 +48,7 @@ _FROM_TABLE = object()
 # ----------------------------------------------------------------------------------------------
 # The validated design (SI units, defaults filled)
 
-@dataclass(frozen=True)
+@valueclass
 class Radiator:
     """The radiator wire: diameter_m, the gauge as written (label), conductor and insulation.
     velocity_factor_spread (low, high) and spread_source: the catalogue jacket's range of velocity
@@ -63,7 +64,7 @@ class Radiator:
     spread_source: str = ""
 
 
-@dataclass(frozen=True)
+@valueclass
 class StubLine:
     """The stub's two-wire line.  kind 'nominal': a manufactured line given by measured Z0, VF and
     loss; kind 'geometry': computed from spacing, conductor and dielectric.  spacing_m and
@@ -88,7 +89,7 @@ class StubLine:
     spread_source: str = ""
 
 
-@dataclass(frozen=True)
+@valueclass
 class Feed:
     """The feed: the coax (name, Z0, velocity factor, outer diameter, matched loss), the feed
     impedance, the coax length and the choke form, SI."""
@@ -102,7 +103,7 @@ class Feed:
     choke_form_m: float
 
 
-@dataclass(frozen=True)
+@valueclass
 class Site:
     """Where the antenna goes: orientation, height and slope, and the ground (name, kind,
     permittivity, conductivity)."""
@@ -115,7 +116,7 @@ class Site:
     conductivity_s_m: float
 
 
-@dataclass(frozen=True)
+@valueclass
 class Power:
     """The transmitter power, mode, duty factor, time on the air and the exposure standard."""
     transmitter_w: float
@@ -125,14 +126,14 @@ class Power:
     exposure_standard: str
 
 
-@dataclass(frozen=True)
+@valueclass
 class Output:
     """The sheet's units and paper."""
     units: str
     paper: str
 
 
-@dataclass(frozen=True)
+@valueclass
 class Calibration:
     """Fitted model parameters written by `fit --write` (empty: the model as published)."""
     radiator_scale: float = 1.0
@@ -146,7 +147,7 @@ class Calibration:
         return (self.radiator_scale, self.end_resistance_scale, self.stub_velocity_scale) == (1.0, 1.0, 1.0)
 
 
-@dataclass(frozen=True)
+@valueclass
 class Reading:
     """One reading of the sheet's measurement log: frequency (Hz), SWR, and R and X (ohm) if read."""
     frequency_hz: float
@@ -155,7 +156,7 @@ class Reading:
     x_ohm: float | None = None
 
 
-@dataclass(frozen=True)
+@valueclass
 class RecordEntry:
     """One as-built entry; lengths in m, resonance in Hz, None where not measured."""
     date: str
@@ -178,13 +179,13 @@ def latest_as_built(record: tuple) -> RecordEntry | None:
     return max(entries, key=lambda t: t[:2])[2] if entries else None
 
 
-@dataclass(frozen=True)
+@valueclass
 class Stack:
     """The stacked version: phasing 'stub' (a shorted quarter wave of the stub's line)."""
     phasing: str = "stub"
 
 
-@dataclass(frozen=True)
+@valueclass
 class Design:
     """A validated design file in SI units (frozen): what the solver and the outputs read."""
     schema: int

@@ -16,7 +16,6 @@ points back to data.
 from __future__ import annotations
 
 import math
-from dataclasses import dataclass
 from typing import Sequence
 
 import numpy as np
@@ -25,6 +24,7 @@ from buildsheet import fonts
 from buildsheet.physics.lines import reflection
 from buildsheet.drawing.shapes import (Arc, Box, Circle, Drawing, Line, Polyline, Text, clip_polyline,
                                        segment_meets, text_centered_at)
+from buildsheet.valueclass import valueclass
 
 TICK_SIZE = 7.0
 TITLE_SIZE = 9.0
@@ -78,7 +78,7 @@ def _title(title: str) -> Text:
     return Text(PAD, PAD + fonts.ascent(TITLE_SIZE, True), title, TITLE_SIZE, bold=True)
 
 
-@dataclass(frozen=True)
+@valueclass
 class Axes:
     """Linear map of data (x_value, y_value) onto the page rectangle `frame` (y up on the page)."""
     frame: Box
@@ -313,7 +313,7 @@ def _swr_legend(ax: Axes, height: float, line_h: float) -> list:
 
 # ---------------------------------------------------------------- Smith chart
 
-@dataclass(frozen=True)
+@valueclass
 class SmithAxes:
     """Map of the reflection-coefficient plane onto the page: rho = 0 at (cx, cy), |rho| = 1 on
     the circle of `radius` points, Im(rho) up the page."""
