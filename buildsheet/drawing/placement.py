@@ -269,6 +269,8 @@ class Layout:
                     n = self._crossings((x, y), (tx, ty))
                     if best is None or n < best[0]:
                         best = (n, (tx, ty))
+                        if n == 0:      # none after it can cross fewer: it is the one taken
+                            break
                 if best is not None and best[0] == 0:
                     break
             if best is not None:
