@@ -425,6 +425,8 @@ def _place_label(x: float, y: float, label: str, taken: list[Box], segments: lis
         crossings = sum(1 for p, q in _near(segments, grown) if segment_meets(p, q, grown))
         if best is None or crossings < best[0]:
             best = (crossings, text)
+            if crossings == 0:      # none after it can be crossed less: it is the one taken
+                break
     if best is None:
         raise ValueError(f"no room for the Smith chart label {label!r}")
     return best[1]
