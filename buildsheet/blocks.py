@@ -7,53 +7,54 @@ Strings in blocks are paragraph markup; page furniture is plain text.
 from __future__ import annotations
 
 from collections.abc import Mapping
-from dataclasses import dataclass
 
 from buildsheet.drawing.shapes import Drawing
+from buildsheet.valueclass import valueclass
 
 
 # ----------------------------------------------------------------------------------------------
 # The build sheet's blocks (sheet.py fills them)
 
-@dataclass(frozen=True)
+@valueclass
 class Heading:
     """A subheading inside a section."""
     text: str
 
 
-@dataclass(frozen=True)
+@valueclass
 class Para:
     """A paragraph; style: body | note | caution."""
     text: str
     style: str = "body"
 
 
-@dataclass(frozen=True)
+@valueclass
 class Steps:
     """Numbered steps."""
     items: tuple
 
 
-@dataclass(frozen=True)
+@valueclass
 class KeyFigure:
+    """One key dimension: its label, value and what it means."""
     label: str
     value: str
     meaning: str
 
 
-@dataclass(frozen=True)
+@valueclass
 class KeyFigures:
     """The key dimensions, printed large."""
     figures: tuple
 
 
-@dataclass(frozen=True)
+@valueclass
 class Facts:
     """Label and value rows."""
     rows: tuple
 
 
-@dataclass(frozen=True)
+@valueclass
 class Table:
     """A table: header, rows, relative column widths, alignment per column (left | right).
     boxes: per row, how many check boxes to draw in an extra first column (None: no such column);
@@ -66,7 +67,7 @@ class Table:
     blank_rows: int = 0
 
 
-@dataclass(frozen=True)
+@valueclass
 class WriteIn:
     """Blank ruled rows to fill in by hand: at least min_rows, more if the page has room."""
     header: tuple
@@ -74,21 +75,22 @@ class WriteIn:
     min_rows: int
 
 
-@dataclass(frozen=True)
+@valueclass
 class Figures:
     """Drawings by their key in figures(); set side by side where they fit."""
     keys: tuple
 
 
-@dataclass(frozen=True)
+@valueclass
 class Section:
+    """A titled section of blocks, optionally starting a new page."""
     key: str
     title: str
     blocks: tuple
     new_page: bool = False
 
 
-@dataclass(frozen=True)
+@valueclass
 class Sheet:
     """The whole sheet: page furniture (plain text) and sections in order (markup)."""
     title: str
@@ -111,26 +113,27 @@ class Sheet:
 # ----------------------------------------------------------------------------------------------
 # Blocks of the booklet's own pages (handout.py fills them)
 
-@dataclass(frozen=True)
+@valueclass
 class PageRef:
     """The booklet page on which the part named `key` starts (a table cell; the writer fills it in)."""
     key: str
 
 
-@dataclass(frozen=True)
+@valueclass
 class ContentsEntry:
+    """One line of the contents: a part's title, its detail and its key."""
     title: str
     detail: str
     key: str
 
 
-@dataclass(frozen=True)
+@valueclass
 class Contents:
     """The contents: one entry per part, each with the page its part starts on."""
     entries: tuple
 
 
-@dataclass(frozen=True)
+@valueclass
 class Cover:
     """The cover page: title, event (may be empty), date, label and value rows, a caution."""
     title: str
@@ -140,7 +143,7 @@ class Cover:
     note: str
 
 
-@dataclass(frozen=True)
+@valueclass
 class Part:
     """One design prepared for the booklet: its sheet and figures, and its row of the summary."""
     key: str
@@ -153,7 +156,7 @@ class Part:
     row: tuple
 
 
-@dataclass(frozen=True)
+@valueclass
 class Booklet:
     """The whole handout: page furniture of its own pages (plain text), the cover, the front
     sections (safety, contents, summary) and the sheets, in order."""

@@ -12,21 +12,20 @@ ground clearance of the stub and of the radiator's far end) are in solver.py.
 from __future__ import annotations
 
 import dataclasses
-import difflib
 import functools
 import hashlib
 import json
 import os
 import re
-import subprocess
 import unicodedata
-from dataclasses import dataclass, field
+from dataclasses import field
 from datetime import date, datetime, timezone
 
 from buildsheet import schema, units
 from buildsheet.catalog import catalog, countries, national_bands
 from buildsheet.errors import BuildsheetError, DesignError, one_line
 from buildsheet.schema import CALIBRATION_PARAMETERS, DEFAULTS, MAX_QUANTITY_CHARS, RULES, SCHEMA, mm
+from buildsheet.valueclass import valueclass
 from buildsheet.yamlread import Document, parse, read_text
 
 __all__ = ["DEFAULTS", "CALIBRATION_PARAMETERS", "Design", "design_from_text", "load_design"]
@@ -49,7 +48,7 @@ _FROM_TABLE = object()
 # ----------------------------------------------------------------------------------------------
 # The validated design (SI units, defaults filled)
 
-@dataclass(frozen=True)
+@valueclass
 class Radiator:
     """The radiator wire: diameter_m, the gauge as written (label), conductor and insulation.
     velocity_factor_spread (low, high) and spread_source: the catalogue jacket's range of velocity
@@ -65,7 +64,7 @@ class Radiator:
     spread_source: str = ""
 
 
-@dataclass(frozen=True)
+@valueclass
 class StubLine:
     """The stub's two-wire line.  kind 'nominal': a manufactured line given by measured Z0, VF and
     loss; kind 'geometry': computed from spacing, conductor and dielectric.  spacing_m and
@@ -90,8 +89,10 @@ class StubLine:
     spread_source: str = ""
 
 
-@dataclass(frozen=True)
+@valueclass
 class Feed:
+    """The feed: the coax (name, Z0, velocity factor, outer diameter, matched loss), the feed
+    impedance, the coax length and the choke form, SI."""
     coax: str
     coax_z0_ohm: float
     coax_velocity_factor: float
@@ -102,8 +103,10 @@ class Feed:
     choke_form_m: float
 
 
-@dataclass(frozen=True)
+@valueclass
 class Site:
+    """Where the antenna goes: orientation, height and slope, and the ground (name, kind,
+    permittivity, conductivity)."""
     orientation: str
     height_m: float
     slope_rad: float
@@ -113,8 +116,9 @@ class Site:
     conductivity_s_m: float
 
 
-@dataclass(frozen=True)
+@valueclass
 class Power:
+    """The transmitter power, mode, duty factor, time on the air and the exposure standard."""
     transmitter_w: float
     mode: str
     duty_factor: float
@@ -122,13 +126,14 @@ class Power:
     exposure_standard: str
 
 
-@dataclass(frozen=True)
+@valueclass
 class Output:
+    """The sheet's units and paper."""
     units: str
     paper: str
 
 
-@dataclass(frozen=True)
+@valueclass
 class Calibration:
     """Fitted model parameters written by `fit --write` (empty: the model as published)."""
     radiator_scale: float = 1.0
@@ -142,7 +147,7 @@ class Calibration:
         return (self.radiator_scale, self.end_resistance_scale, self.stub_velocity_scale) == (1.0, 1.0, 1.0)
 
 
-@dataclass(frozen=True)
+@valueclass
 class Reading:
     """One reading of the sheet's measurement log: frequency (Hz), SWR, and R and X (ohm) if read."""
     frequency_hz: float
@@ -151,7 +156,7 @@ class Reading:
     x_ohm: float | None = None
 
 
-@dataclass(frozen=True)
+@valueclass
 class RecordEntry:
     """One as-built entry; lengths in m, resonance in Hz, None where not measured."""
     date: str
@@ -174,14 +179,15 @@ def latest_as_built(record: tuple) -> RecordEntry | None:
     return max(entries, key=lambda t: t[:2])[2] if entries else None
 
 
-@dataclass(frozen=True)
+@valueclass
 class Stack:
     """The stacked version: phasing 'stub' (a shorted quarter wave of the stub's line)."""
     phasing: str = "stub"
 
 
-@dataclass(frozen=True)
+@valueclass
 class Design:
+    """A validated design file in SI units (frozen): what the solver and the outputs read."""
     schema: int
     name: str
     title: str
@@ -283,6 +289,8 @@ def design_from_text(text: str, path: str | None = None) -> Design:
 
 def closest(word: str, choices) -> str | None:
     """The closest of `choices` to `word`, for "did you mean" hints."""
+    import difflib      # only on a mistake
+
     choices = list(choices)
     lowered = {c.lower(): c for c in choices}
     match = difflib.get_close_matches(str(word).lower(), list(lowered), n=1, cutoff=0.5)
@@ -875,8 +883,11 @@ def parse_date(value) -> str | None:
     if isinstance(value, date):
         return value.isoformat() if value.year >= FIRST_YEAR else None
     if isinstance(value, str) and re.fullmatch(r"\d{4}-\d{2}-\d{2}", value.strip()):
-        try:
-            day = datetime.strptime(value.strip(), "%Y-%m-%d").date()
+        text = value.strip()
+        try:    # as strptime(text, "%Y-%m-%d") reads it (ASCII digits), without importing _strptime
+            if not text.isascii():
+                raise ValueError(text)
+            day = date(int(text[:4]), int(text[5:7]), int(text[8:]))
         except ValueError:
             return None
         return day.isoformat() if day.year >= FIRST_YEAR else None
@@ -904,6 +915,8 @@ def revision_date(path: str | None, override: str | None = None) -> str:
             raise BuildsheetError(f"must be seconds since 1970, got '{epoch}'",
                                   key="SOURCE_DATE_EPOCH") from None
     if path:
+        import subprocess
+
         directory = os.path.dirname(os.path.abspath(path))
         try:
             out = subprocess.run(["git", "log", "-1", "--format=%cs", "--", os.path.basename(path)],

@@ -31,7 +31,6 @@ try:
 except ImportError:     # Windows: the lock file itself is the lock (created exclusively)
     fcntl = None
 from collections.abc import Callable
-from dataclasses import dataclass
 
 import yaml
 
@@ -39,6 +38,7 @@ from buildsheet.design import Design, design_from_text
 from buildsheet.errors import BuildsheetError, DesignError, RecordError
 from buildsheet.reading import read_capped
 from buildsheet.writers.files import replace_with_backup
+from buildsheet.valueclass import valueclass
 from buildsheet.yamlread import MAX_BYTES
 
 BACKUP_SUFFIX = ".bak"
@@ -52,7 +52,7 @@ _NUMBER = re.compile(r"[-+]?(?:\.\d+|\d+(?:\.\d*)?)(?:[eE][-+]?\d+)?\Z")
 _ESCAPES = {'"': '\\"', "\\": "\\\\", "\t": "\\t", "\n": "\\n", "\r": "\\r"}
 
 
-@dataclass(frozen=True)
+@valueclass
 class Updated:
     """What update_design did: the design as read back and the backup's path."""
     path: str

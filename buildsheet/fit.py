@@ -111,6 +111,7 @@ from buildsheet.schema import CALIBRATION_RANGE
 from buildsheet.sheet import MIN_MOVE_M, dip_tolerance_hz
 from buildsheet.solver import Dimensions, antenna_model, solve
 from buildsheet.touchstone import MAX_REFLECTION, Sweep
+from buildsheet.valueclass import valueclass
 
 #: fewest points a sweep may have: three lengths are fitted from it
 MIN_POINTS = 7
@@ -252,7 +253,7 @@ class Fit:
 # ----------------------------------------------------------------------------------------------
 # The calibrated model: solve.antenna_model with the calibration applied, exactly as `solve` uses it.
 
-@dataclass(frozen=True)
+@valueclass
 class _Model:
     """The antenna model with one calibration: feed impedance, 2-D match, and solve()'s resolve."""
     ant: jpole.Antenna

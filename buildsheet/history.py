@@ -16,19 +16,19 @@ from __future__ import annotations
 import dataclasses
 import os
 import subprocess
-from dataclasses import dataclass
 
 from buildsheet import units
 from buildsheet.design import design_from_text
 from buildsheet.errors import BuildsheetError, DesignError
 from buildsheet.errors import one_line
+from buildsheet.valueclass import valueclass
 from buildsheet.yamlread import MAX_BYTES
 
 GIT_TIMEOUT_S = 30
 _COLUMNS = ("date", "commit", "document ID", "radiator", "stub", "tap", "spacing", "subject")
 
 
-@dataclass(frozen=True)
+@valueclass
 class Revision:
     """One commit that changed the file. dimensions_m: (radiator, stub, tap, spacing) in m, None if
     the revision could not be solved, and then `problem` says why."""
@@ -41,7 +41,7 @@ class Revision:
     problem: str | None = None
 
 
-@dataclass(frozen=True)
+@valueclass
 class History:
     """The revisions of `path`, newest first. `note` is a line to show instead of (or below) them:
     why there is no history, or that the working copy has uncommitted changes."""
@@ -93,7 +93,7 @@ def history(path: str | os.PathLike) -> History:
     return History(path, revisions=revisions, note=note)
 
 
-@dataclass(frozen=True)
+@valueclass
 class _Commit:
     sha: str
     short: str

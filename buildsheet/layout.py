@@ -21,7 +21,8 @@ is the radiator's far end, at the height less the stub and the radiator.
 from __future__ import annotations
 
 import math
-from dataclasses import dataclass
+
+from buildsheet.valueclass import valueclass
 
 #: length of an end insulator with its loops, m (common practice: 7-10 cm egg or dog-bone insulators)
 INSULATOR_M = 0.1
@@ -30,7 +31,7 @@ INSULATOR_M = 0.1
 TIE_OFF_M = 2.0
 
 
-@dataclass(frozen=True)
+@valueclass
 class Rope:
     """One rope to cut: what it does (a few words) and its length_m."""
     what: str
@@ -38,7 +39,7 @@ class Rope:
     note: str
 
 
-@dataclass(frozen=True)
+@valueclass
 class SiteLayout:
     """Where things go on the ground, m. span_m (horizontal only): from support to support.
     far_end_height_m and far_end_distance_m: the far end insulator's height and its horizontal

@@ -24,7 +24,6 @@ from __future__ import annotations
 
 import functools
 import math
-from dataclasses import dataclass
 from typing import TYPE_CHECKING
 
 import numpy as np
@@ -32,6 +31,7 @@ import numpy as np
 from buildsheet import units
 from buildsheet.catalog import raw_section
 from buildsheet.units import parse_quantity, parse_wire
+from buildsheet.valueclass import valueclass
 
 if TYPE_CHECKING:      # only for annotations: the solver imports this module
     from buildsheet.design import Design
@@ -48,7 +48,7 @@ COMMON_RATIOS = (1.0, 4.0, 9.0, 16.0)
 # ----------------------------------------------------------------------------------------------
 # The ratings (catalogue data)
 
-@dataclass(frozen=True)
+@valueclass
 class CoaxRating:
     """power: ((f_hz, average W matched), ...); working_voltage_rms: V rms."""
     name: str
@@ -68,7 +68,7 @@ class CoaxRating:
         return float(math.exp(ps[i] + slope * (x - fs[i])))
 
 
-@dataclass(frozen=True)
+@valueclass
 class Rated:
     """A part with a working voltage (V peak), an optional power rating (W average) and a label."""
     name: str
@@ -79,8 +79,10 @@ class Rated:
     max_frequency_hz: float | None = None
 
 
-@dataclass(frozen=True)
+@valueclass
 class Ratings:
+    """The catalogue's ratings: coax, connectors, stub lines, insulators, the corona factor and the
+    wire current limits, with their sources."""
     coax: dict
     connectors: dict
     stub_lines: dict
@@ -187,7 +189,7 @@ def nearest_ratio(ratio: float) -> tuple[float, float]:
 # ----------------------------------------------------------------------------------------------
 # Findings
 
-@dataclass(frozen=True)
+@valueclass
 class Finding:
     """One warning. part: what it concerns; anchor: where the sheet puts it beside a figure
     (voltages, current, coax, feed, exposure, reach); figure / rating / change: the design's

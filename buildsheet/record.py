@@ -21,7 +21,6 @@ from __future__ import annotations
 import os
 import re
 from collections.abc import Mapping
-from dataclasses import dataclass
 
 import yaml
 
@@ -31,6 +30,7 @@ from buildsheet.editing import after_block, lead, newline, put_block, scalar, to
 from buildsheet.errors import BuildsheetError, DesignError, RecordError, one_line
 from buildsheet.schema import ENTRY_KEYS
 from buildsheet.solver import check_geometry
+from buildsheet.valueclass import valueclass
 
 #: the command-line option of each key, so that a refusal names what the user typed
 OPTIONS = {**{k: f"--{k}" for k in ENTRY_KEYS}, "stub": "--short"}
@@ -43,7 +43,7 @@ _SWR = re.compile(r"\d+(?:\.\d+)?\Z")
 MAX_READINGS = 1001
 
 
-@dataclass(frozen=True)
+@valueclass
 class Added:
     """What `add_entry` did: the entry as read back, its position in `record`, the backup's path and
     the document ID (the same before and after: a record does not change the antenna)."""

@@ -19,6 +19,7 @@ from dataclasses import dataclass
 from typing import Callable
 
 from buildsheet import units
+from buildsheet.valueclass import valueclass
 from buildsheet.yamlread import MAX_BYTES, MAX_DEPTH, MAX_NODES
 
 SCHEMA = 1
@@ -35,7 +36,7 @@ REQUIRED = object()
 ABSENT = None
 
 
-@dataclass(frozen=True)
+@valueclass
 class Key:
     """One key of the design file.
 
@@ -96,7 +97,7 @@ class Key:
         return self.accepted.format(lo=fmt(self.lo), hi=fmt(self.hi))
 
 
-@dataclass(frozen=True)
+@valueclass
 class Rule:
     """A limit that is not one key's own range: a cross-check between keys, a check on the solved
     geometry, or a limit on the whole file. `value` is the number the code checks against, and

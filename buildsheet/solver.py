@@ -8,7 +8,6 @@ from __future__ import annotations
 import contextlib
 import dataclasses
 import math
-from dataclasses import dataclass
 
 import numpy as np
 
@@ -25,6 +24,7 @@ from buildsheet.physics.lines import DB_PER_NEPER, Line, reflection, swr
 from buildsheet.schema import RULES, deg, metres
 from buildsheet.stock import rigid_kind
 from buildsheet.units import article
+from buildsheet.valueclass import valueclass
 
 FT = 0.3048
 SWEEP_POINTS = 241
@@ -89,7 +89,7 @@ TWIN_LEAD_NEC_SWR = 1.31
 TWIN_LEAD_NEC_DIP = 0.004
 
 
-@dataclass(frozen=True)
+@valueclass
 class Dimensions:
     """The four key dimensions of DESIGN.md §5, m."""
     radiator: float
@@ -98,7 +98,7 @@ class Dimensions:
     spacing: float
 
 
-@dataclass(frozen=True)
+@valueclass
 class CutItem:
     """One piece to cut: length_m includes allowance_m (wraps, cutting, pigtail), and allowance_m
     includes margin_m, the tuning margin for a velocity factor the sources do not agree on
@@ -121,7 +121,7 @@ class CutItem:
         return f"{self.material}, {length(self.diameter_m)} outside diameter"
 
 
-@dataclass(frozen=True)
+@valueclass
 class FirstCut:
     """How far the first cut may be off because the velocity factor of the stub line or of the
     radiator's jacket is only known to the spread between its sources (NEC-2, the project's
@@ -147,7 +147,7 @@ class FirstCut:
         return max(0.0, self.radiator_m[1])
 
 
-@dataclass(frozen=True)
+@valueclass
 class HardwareItem:
     """Something to buy; fits_m: the diameter (m) of the conductor it must fit, where that sets its
     size (the sheet names the stock size), else None."""
@@ -157,7 +157,7 @@ class HardwareItem:
     fits_m: float | None = None
 
 
-@dataclass(frozen=True)
+@valueclass
 class Sweep:
     """Arrays over the band +/- 2 %: frequency (Hz), SWR at the feed (on the feed impedance) and at
     the transmitter (through the coax, on the coax's impedance), and the feed impedance R + jX."""
@@ -168,8 +168,10 @@ class Sweep:
     x_ohm: np.ndarray
 
 
-@dataclass(frozen=True)
+@valueclass
 class Exposure:
+    """The RF exposure estimate: power, gain, EIRP, the distances to the controlled and general
+    limits, the limits and the near-field distance."""
     standard: str
     average_power_w: float
     gain_dbi: float
@@ -182,7 +184,7 @@ class Exposure:
     gain_source: str = "a half-wave dipole's gain"
 
 
-@dataclass(frozen=True)
+@valueclass
 class StubLineData:
     """The stub line as the model sees it at the design frequency."""
     z0_ohm: float
@@ -190,7 +192,7 @@ class StubLineData:
     loss_db_per_100ft: float
 
 
-@dataclass(frozen=True)
+@valueclass
 class Parts:
     """What the parts are, worked out once for the sheet, the figures and the booklet: rigid (pipe or
     rod, RIGID_DIAMETER_M and up) or wire; the stub line's and the radiator's names as the cut list
@@ -212,8 +214,10 @@ class Parts:
     fittings: bool = False
 
 
-@dataclass(frozen=True)
+@valueclass
 class Solution:
+    """The solved design: dimensions, cut list, sweep, voltages, exposure and the parts' facts;
+    numbers only (SI)."""
     name: str
     design_id: str
     frequency_hz: float
@@ -695,7 +699,7 @@ def _stack_data(design: Design, ant, state, pattern) -> "StackData":
                                                   spacing=design.stub.spacing_m))
 
 
-@dataclass(frozen=True)
+@valueclass
 class StackData:
     """The stacked version (`stack:`): element_m, the second element (cut as the radiator);
     phasing_m, the phasing stub from its open end to the short's centre line, and its spacing

@@ -10,11 +10,11 @@ import math
 import os
 import re
 import tempfile
-from dataclasses import dataclass
 
 from buildsheet import units
 from buildsheet.catalog import catalog
 from buildsheet.errors import BuildsheetError, DesignError
+from buildsheet.valueclass import valueclass
 
 C0 = 299_792_458.0
 #: the slope a new sloper starts from (common practice: 30-45 degrees below horizontal)
@@ -27,7 +27,7 @@ CLEAR_M = 2.5
 INVERTED_CLEAR_M = 3.0
 
 
-@dataclass(frozen=True)
+@valueclass
 class Answers:
     """What the builder told the quick start; None where they said nothing (defaults apply)."""
     name: str

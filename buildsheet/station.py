@@ -44,7 +44,6 @@ from __future__ import annotations
 
 import dataclasses
 import math
-from dataclasses import dataclass
 
 import numpy as np
 
@@ -54,6 +53,7 @@ from buildsheet.errors import SweepError
 from buildsheet.physics.lines import Line, reflection, swr_of
 from buildsheet.solver import Solution, coax_line_model
 from buildsheet.touchstone import MAX_REFLECTION, Sweep
+from buildsheet.valueclass import valueclass
 
 #: where a sweep or readings may be taken: at the tap (through the choke's short pigtail) or at the
 #: station end of the feed coax
@@ -69,7 +69,7 @@ def max_loss_db() -> float:
     return 10.0 * math.log10((FIT_GATE - HELD_OUT_P90) / ANALYZER_ERROR)
 
 
-@dataclass(frozen=True)
+@valueclass
 class Coax:
     """The coax between the tap and the station: name, line model, length (m), and its one-way
     matched loss (dB) at the design frequency."""

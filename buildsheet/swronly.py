@@ -42,7 +42,6 @@ from __future__ import annotations
 
 import math
 import re
-from dataclasses import dataclass
 
 import numpy as np
 from scipy.optimize import least_squares
@@ -55,13 +54,14 @@ from buildsheet.physics.lines import reflection, swr_of
 from buildsheet.sheet import LOG_COLUMNS
 from buildsheet.solver import solve
 from buildsheet.touchstone import FREQUENCY_RANGE_HZ, csv_rows
+from buildsheet.valueclass import valueclass
 
 #: readings the parabola passes through: the lowest and its neighbours (module docstring, step 2)
 PARABOLA_POINTS = 3
 MIN_READINGS = 3
 
 
-@dataclass(frozen=True)
+@valueclass
 class SwrAdvice:
     """frequency_hz, rho: the readings (|rho| at the tap, after the coax for readings at the station);
     dip_hz, dip_swr: the parabola's dip; built, built_from: the antenna read (fit.as_built);

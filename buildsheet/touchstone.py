@@ -44,6 +44,7 @@ import numpy as np
 from buildsheet.errors import SweepError
 from buildsheet.physics.lines import reflection
 from buildsheet.reading import decode_text, read_capped
+from buildsheet.valueclass import valueclass
 
 MAX_BYTES = 8 * 1024 * 1024
 #: most points a sweep may hold: a fit's cost grows with the points, and analysers give at most a
@@ -82,7 +83,7 @@ class Sweep:
         return reflection(self.z_ohm, z_ref)
 
 
-@dataclass(frozen=True)
+@valueclass
 class Options:
     """The Touchstone option line: frequency factor to Hz, parameter s|y|z, format ri|ma|db, R (ohm)."""
     frequency_factor: float = 1e9

@@ -29,7 +29,6 @@ format_length parses back with parse_quantity(..., "length") to within half the 
 
 from __future__ import annotations
 
-import difflib
 import math
 import re
 
@@ -144,6 +143,8 @@ def _canonical(spelling: str) -> str | None:
 
 def _suggest(spelling: str, kinds: tuple[str, ...]) -> str | None:
     """Closest known spelling among units of `kinds`, ignoring case."""
+    import difflib      # only on a mistake
+
     folded = {s.casefold(): s for s, c in _SPELLINGS.items() if _UNITS[c][0] in kinds}
     best = difflib.get_close_matches(spelling.casefold(), list(folded), n=1, cutoff=0.5)
     return folded[best[0]] if best else None

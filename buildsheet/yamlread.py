@@ -11,12 +11,12 @@ before Python's recursion limit is reached, and every message is kept to one pri
 from __future__ import annotations
 
 import math
-from dataclasses import dataclass
 
 import yaml
 
 from buildsheet.errors import DesignError, one_line
 from buildsheet.reading import decode_text, read_capped
+from buildsheet.valueclass import valueclass
 
 MAX_BYTES = 1024 * 1024
 MAX_NODES = 20_000
@@ -31,7 +31,7 @@ _CORE_TAGS = {
 }
 
 
-@dataclass(frozen=True)
+@valueclass
 class Document:
     """A read YAML document: `data` as plain dict/list/str/int/float/bool/None values, and `lines`,
     mapping each key path (tuple of str keys and int indices) to the 1-based line of its value."""

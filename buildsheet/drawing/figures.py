@@ -15,7 +15,6 @@ Drawing coordinates are points with y down (shapes.py). Symbols used in the layo
 from __future__ import annotations
 
 import math
-from dataclasses import dataclass
 
 import numpy as np
 
@@ -28,6 +27,7 @@ from buildsheet.drawing.shapes import (THIN, Arc, BreakMark, Circle, Dimension, 
 from buildsheet.layout import TIE_OFF_M, describe
 from buildsheet.solver import Solution
 from buildsheet.stock import conductor_name
+from buildsheet.valueclass import valueclass
 
 #: figure keys in the order a builder reads them (also the order of the SVG files)
 FIGURES = ("overview", "radiator", "stub", "short-tap", "choke", "swr", "smith", "pattern")
@@ -112,8 +112,9 @@ def _station(x0: float, y_g: float, w: float = 46.0, h: float = 24.0) -> list:
 
 # ---------------------------------------------------------------- context and title strip
 
-@dataclass(frozen=True)
+@valueclass
 class _Context:
+    """The design, its solution and the revision date a figure is drawn for."""
     design: Design
     solution: Solution
     date: str
@@ -222,7 +223,7 @@ def _overview(ctx: _Context) -> Drawing:
     return _finish(ctx, "Overview: the antenna as installed", sheet.items, h, notes)
 
 
-@dataclass(frozen=True)
+@valueclass
 class StubAnchors:
     """Where the stub's parts are drawn: page x of its radiator-side and other conductor, page y of
     its open top, tap, short and lower end; the overviews draw the stub, the feed and their labels

@@ -9,8 +9,6 @@ from __future__ import annotations
 import functools
 import math
 
-import numpy as np
-
 from buildsheet import fonts
 from buildsheet.drawing.shapes import (TEXT_GAP, TEXT_SIZE, Arc, Box, Circle, Leader, Line, Polyline, Text,
                                        segment_meets)
@@ -103,12 +101,13 @@ def _runs_along(p1, p2, q1, q2) -> bool:
     return min(t[1], n) - max(t[0], 0.0) > 2.0
 
 
-def _any_overlap(box: Box, boxes: list[Box], tol: float = 0.01) -> bool:
-    """True when `box` overlaps any of `boxes` by more than `tol`, as Box.overlaps (in Python: a
-    figure has a few dozen boxes, fewer than numpy's overhead pays for)."""
-    x0, y0, x1, y1 = box.x0, box.y0, box.x1, box.y1
-    for b in boxes:
-        if (min(b.x1, x1) - max(b.x0, x0) > tol) and (min(b.y1, y1) - max(b.y0, y0) > tol):
+def _any_overlap(box, boxes, tol: float = 0.01) -> bool:
+    """True when `box` overlaps any of `boxes` by more than `tol`, as Box.overlaps (boxes as
+    (x0, y0, x1, y1) tuples; in Python: a figure has a few dozen boxes, fewer than numpy's overhead
+    pays for)."""
+    x0, y0, x1, y1 = box
+    for bx0, by0, bx1, by1 in boxes:
+        if (min(bx1, x1) - max(bx0, x0) > tol) and (min(by1, y1) - max(by0, y0) > tol):
             return True
     return False
 
@@ -122,59 +121,120 @@ def _cross(p1, p2, q1, q2) -> bool:
     return d1 * d2 < 0 and d3 * d4 < 0
 
 
+#: side of the cells of the grids that index a figure's segments and boxes, points (a label's box
+#: spans one to three)
+_CELL = 24.0
+
+
+def _tuple(box: Box) -> tuple[float, float, float, float]:
+    return box.x0, box.y0, box.x1, box.y1
+
+
+class _Grid:
+    """Items, each with its bounding box (x0, y0, x1, y1), kept in every _CELL-point cell the box
+    touches: `near(box)` gives those whose boxes meet `box` (touching counts), in the order they
+    were added, from the cells `box` touches instead of from all of them."""
+
+    def __init__(self):
+        self.items: list = []
+        self.boxes: list = []
+        self._cells: dict = {}      # (column, row) -> indices of the items in that cell, ascending
+
+    def add(self, box, item) -> None:
+        i = len(self.items)
+        self.items.append(item)
+        self.boxes.append(box)
+        cells = self._cells
+        rows = range(math.floor(box[1] / _CELL), math.floor(box[3] / _CELL) + 1)
+        for cx in range(math.floor(box[0] / _CELL), math.floor(box[2] / _CELL) + 1):
+            for cy in rows:
+                cells.setdefault((cx, cy), []).append(i)
+
+    def near(self, box) -> list:
+        if not self.items:
+            return []
+        bx0, by0, bx1, by1 = box
+        cells = self._cells
+        cx0, cx1 = math.floor(bx0 / _CELL), math.floor(bx1 / _CELL)
+        cy0, cy1 = math.floor(by0 / _CELL), math.floor(by1 / _CELL)
+        if cx0 == cx1 and cy0 == cy1:
+            found = cells.get((cx0, cy0), ())       # one cell: already in order, once each
+        else:
+            merged: set = set()
+            for cx in range(cx0, cx1 + 1):
+                for cy in range(cy0, cy1 + 1):
+                    merged.update(cells.get((cx, cy), ()))
+            found = sorted(merged)
+        boxes, items = self.boxes, self.items
+        out = []
+        for i in found:
+            x0, y0, x1, y1 = boxes[i]
+            if x0 <= bx1 and x1 >= bx0 and y0 <= by1 and y1 >= by0:
+                out.append(items[i])
+        return out
+
+
 class Layout:
     """The items of one figure body, with what they occupy, so that callouts can be put where they
-    cross nothing already drawn."""
+    cross nothing already drawn.
+
+    The drawn segments, texts and filled areas are kept in grids of _CELL-point cells (_Grid), so
+    that the boxes tried for a label are tested against the few things near them, not all of a
+    figure's hundreds; boxes are kept as (x0, y0, x1, y1) tuples (the placement tries thousands of
+    them a build)."""
 
     def __init__(self, width: float, height: float):
         self.items: list = []
         self.area = Box(PAD / 2, PAD / 2, width - PAD / 2, height - PAD / 2)
-        self._segments: list = []
-        self._texts: list[Box] = []
-        self._solids: list[Box] = []
+        self._area = _tuple(self.area)
+        self._segments = _Grid()    # segments ((x, y), (x, y))
+        self._texts = _Grid()       # text boxes (x0, y0, x1, y1)
+        self._solids = _Grid()      # boxes of filled primitives
         self._leaders: list = []
-        self._index = None
 
     def add(self, *items) -> None:
         for item in items:
             self.items.append(item)
             for p in item.primitives():
                 if isinstance(p, Text):
-                    self._texts.append(p.bbox())
+                    box = _tuple(p.bbox())
+                    self._texts.add(box, box)
                     continue
-                self._segments += _segments_of(p)
-                self._index = None
+                for seg in _segments_of(p):
+                    (px, py), (qx, qy) = seg
+                    self._segments.add((min(px, qx), min(py, qy), max(px, qx), max(py, qy)), seg)
                 fill = getattr(p, "fill", None)
                 if fill is not None and fill < 0.999:
-                    self._solids.append(p.bbox())
+                    box = _tuple(p.bbox())
+                    self._solids.add(box, box)
 
-    def _near(self, box: Box) -> list:
-        """The segments whose bounding boxes meet `box` (a quick filter before exact tests)."""
-        if self._index is None:
-            a = np.array([(p[0], p[1], q[0], q[1]) for p, q in self._segments]).reshape(-1, 4)
-            self._index = (np.minimum(a[:, 0], a[:, 2]), np.maximum(a[:, 0], a[:, 2]),
-                           np.minimum(a[:, 1], a[:, 3]), np.maximum(a[:, 1], a[:, 3]))
-        x0, x1, y0, y1 = self._index
-        hits = np.flatnonzero((x0 <= box.x1) & (x1 >= box.x0) & (y0 <= box.y1) & (y1 >= box.y0))
-        return [self._segments[i] for i in hits]
+    def _near(self, box) -> list:
+        """The segments whose bounding boxes meet `box` (x0, y0, x1, y1), in the order they were
+        added (a quick filter before exact tests)."""
+        return self._segments.near(box)
 
     def free(self, box: Box, strict: bool = True) -> bool:
         """True when `box` lies in the body, overlaps no text or filled area, and (strict) no line
         passes within 1 point of it."""
-        if not box.within(self.area):
+        return self._free(_tuple(box), strict)
+
+    def _free(self, box, strict: bool = True) -> bool:
+        x0, y0, x1, y1 = box
+        ax0, ay0, ax1, ay1 = self._area
+        if not (x0 >= ax0 - 0.01 and y0 >= ay0 - 0.01 and x1 <= ax1 + 0.01 and y1 <= ay1 + 0.01):
             return False
-        grown = Box(box.x0 - 1, box.y0 - 1, box.x1 + 1, box.y1 + 1)
-        if _any_overlap(grown, self._texts) or _any_overlap(box, self._solids):
+        grown = (x0 - 1, y0 - 1, x1 + 1, y1 + 1)
+        if _any_overlap(grown, self._texts.near(grown)) or _any_overlap(box, self._solids.near(box)):
             return False
         if not strict:
             return True
-        return not any(segment_meets(p, q, grown) for p, q in self._near(grown))
+        gbox = Box(*grown)
+        return not any(segment_meets(p, q, gbox) for p, q in self._near(grown))
 
     def _leader_ok(self, p, q) -> bool:
         """A leader p-q crosses no text, runs along no line and crosses no other leader."""
-        reach = Box(min(p[0], q[0]) - 2, min(p[1], q[1]) - 2, max(p[0], q[0]) + 2, max(p[1], q[1]) + 2)
-        if any(segment_meets(p, q, b) for b in self._texts
-               if b.x0 <= reach.x1 and b.x1 >= reach.x0 and b.y0 <= reach.y1 and b.y1 >= reach.y0):
+        reach = (min(p[0], q[0]) - 2, min(p[1], q[1]) - 2, max(p[0], q[0]) + 2, max(p[1], q[1]) + 2)
+        if any(segment_meets(p, q, Box(*b)) for b in self._texts.near(reach)):
             return False
         if any(_runs_along(p, q, a, b) for a, b in self._near(reach)):
             return False
@@ -184,7 +244,7 @@ class Layout:
         u = (q[0] - p[0], q[1] - p[1])
         n = math.hypot(*u) or 1.0
         start = (p[0] + u[0] / n * 2.5, p[1] + u[1] / n * 2.5)    # past the target's own line
-        reach = Box(min(p[0], q[0]), min(p[1], q[1]), max(p[0], q[0]), max(p[1], q[1]))
+        reach = (min(p[0], q[0]), min(p[1], q[1]), max(p[0], q[0]), max(p[1], q[1]))
         return sum(1 for a, b in self._near(reach) if _cross(start, q, a, b))
 
     def callout(self, x: float, y: float, lines, angles=(135, 225, 45, 315, 180, 0, 90, 270),
@@ -202,13 +262,15 @@ class Layout:
                     tx = x + r * math.cos(math.radians(a))
                     ty = y - r * math.sin(math.radians(a))
                     boxes = _callout_boxes(tx, ty, tx >= x, widths, size)
-                    if not all(self.free(b, strict) for b in boxes):
+                    if not all(self._free(b, strict) for b in boxes):
                         continue
                     if not self._leader_ok((x, y), (tx, ty)):
                         continue
                     n = self._crossings((x, y), (tx, ty))
                     if best is None or n < best[0]:
                         best = (n, (tx, ty))
+                        if n == 0:      # none after it can cross fewer: it is the one taken
+                            break
                 if best is not None and best[0] == 0:
                     break
             if best is not None:
@@ -242,16 +304,16 @@ class Layout:
         raise ValueError(f"no room for the text {lines[0]!r}")
 
 
-def _callout_boxes(tx: float, ty: float, rightward: bool, widths, size: float) -> list[Box]:
-    """The text boxes of _callout_items for lines of the given widths (computed without building
-    the shapes, for trying many positions quickly)."""
+def _callout_boxes(tx: float, ty: float, rightward: bool, widths, size: float) -> list[tuple]:
+    """The text boxes, (x0, y0, x1, y1), of _callout_items for lines of the given widths (computed
+    without building the shapes, for trying many positions quickly)."""
     asc, desc = fonts.ascent(size), fonts.descent(size)
     base = ty + (asc - desc) / 2
     out = []
     for k, w in enumerate(widths):
         x0 = tx + TEXT_GAP if rightward else tx - TEXT_GAP - w
         yk = base + k * line_height(size)
-        out.append(Box(x0, yk - asc, x0 + w, yk + desc))
+        out.append((x0, yk - asc, x0 + w, yk + desc))
     return out
 
 

@@ -16,7 +16,6 @@ points back to data.
 from __future__ import annotations
 
 import math
-from dataclasses import dataclass
 from typing import Sequence
 
 import numpy as np
@@ -25,6 +24,7 @@ from buildsheet import fonts
 from buildsheet.physics.lines import reflection
 from buildsheet.drawing.shapes import (Arc, Box, Circle, Drawing, Line, Polyline, Text, clip_polyline,
                                        segment_meets, text_centered_at)
+from buildsheet.valueclass import valueclass
 
 TICK_SIZE = 7.0
 TITLE_SIZE = 9.0
@@ -78,7 +78,7 @@ def _title(title: str) -> Text:
     return Text(PAD, PAD + fonts.ascent(TITLE_SIZE, True), title, TITLE_SIZE, bold=True)
 
 
-@dataclass(frozen=True)
+@valueclass
 class Axes:
     """Linear map of data (x_value, y_value) onto the page rectangle `frame` (y up on the page)."""
     frame: Box
@@ -313,7 +313,7 @@ def _swr_legend(ax: Axes, height: float, line_h: float) -> list:
 
 # ---------------------------------------------------------------- Smith chart
 
-@dataclass(frozen=True)
+@valueclass
 class SmithAxes:
     """Map of the reflection-coefficient plane onto the page: rho = 0 at (cx, cy), |rho| = 1 on
     the circle of `radius` points, Im(rho) up the page."""
@@ -392,11 +392,20 @@ def _outside_label(ax: SmithAxes, rho_on_circle: complex, label: str, size: floa
     return text_centered_at(ax.cx + ux * reach, ax.cy + uy * reach, label, size)
 
 
+def _near(segments: list, box: Box) -> list:
+    """The segments that may meet `box`: those whose bounding box comes within 1e-6 pt of it (one
+    farther off cannot meet it; a quick filter before the exact test, as the locus has hundreds)."""
+    x0, y0, x1, y1 = box.x0 - 1e-6, box.y0 - 1e-6, box.x1 + 1e-6, box.y1 + 1e-6
+    return [(p, q) for p, q in segments
+            if min(p[0], q[0]) <= x1 and max(p[0], q[0]) >= x0
+            and min(p[1], q[1]) <= y1 and max(p[1], q[1]) >= y0]
+
+
 def _covered(box: Box, segments: list, boxes: list[Box]) -> bool:
     """True when any segment crosses `box` (grown by 1 pt) or any of `boxes` overlaps it."""
     grown = Box(box.x0 - 1, box.y0 - 1, box.x1 + 1, box.y1 + 1)
     return (any(b.overlaps(grown) for b in boxes)
-            or any(segment_meets(p, q, grown) for p, q in segments))
+            or any(segment_meets(p, q, grown) for p, q in _near(segments, grown)))
 
 
 def _place_label(x: float, y: float, label: str, taken: list[Box], segments: list, area: Box) -> Text:
@@ -413,9 +422,11 @@ def _place_label(x: float, y: float, label: str, taken: list[Box], segments: lis
         if not box.within(area) or any(box.overlaps(t) for t in taken):
             continue
         grown = Box(box.x0 - 1, box.y0 - 1, box.x1 + 1, box.y1 + 1)
-        crossings = sum(1 for p, q in segments if segment_meets(p, q, grown))
+        crossings = sum(1 for p, q in _near(segments, grown) if segment_meets(p, q, grown))
         if best is None or crossings < best[0]:
             best = (crossings, text)
+            if crossings == 0:      # none after it can be crossed less: it is the one taken
+                break
     if best is None:
         raise ValueError(f"no room for the Smith chart label {label!r}")
     return best[1]

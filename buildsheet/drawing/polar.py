@@ -89,7 +89,13 @@ def _ring_labels_clear_of(cx: float, cy: float, r_max: float, top: float, points
                       & (points[:, 1] > b.y0 - 1.5) & (points[:, 1] < b.y1 + 1.5))
             hits += int(np.count_nonzero(inside))
         return hits
-    best = min(candidates, key=cost)
+    best, least = None, None
+    for angle in candidates:        # the first of the least crossed, as min() takes it
+        hits = cost(angle)
+        if least is None or hits < least:
+            best, least = angle, hits
+            if hits == 0:           # none after it can be crossed less
+                break
     return _ring_labels(cx, cy, r_max, top, best)
 
 

@@ -17,10 +17,11 @@ v = "up" direction of a text's glyphs.
 from __future__ import annotations
 
 import math
-from dataclasses import dataclass, field
+from dataclasses import field
 from typing import Iterable, Union
 
 from buildsheet import fonts
+from buildsheet.valueclass import valueclass
 
 Point = tuple[float, float]
 Dash = Union[tuple[float, ...], None]
@@ -39,7 +40,7 @@ DOT_RADIUS = 1.2
 _EPS = 1e-9
 
 
-@dataclass(frozen=True)
+@valueclass
 class Box:
     """Axis-parallel rectangle x0 <= x1, y0 <= y1 (points)."""
     x0: float
@@ -107,8 +108,9 @@ def _left_normal(u: Point) -> Point:
 
 # ---------------------------------------------------------------- primitives
 
-@dataclass(frozen=True)
+@valueclass
 class Line:
+    """A straight line from (x1, y1) to (x2, y2)."""
     x1: float
     y1: float
     x2: float
@@ -127,7 +129,7 @@ class Line:
         return (self,)
 
 
-@dataclass(frozen=True)
+@valueclass
 class Polyline:
     """Open or closed chain of straight segments; a closed one may be filled (fill = grey level).
     width 0 draws no outline (a filled area only)."""
@@ -156,8 +158,9 @@ class Polyline:
         return (self,)
 
 
-@dataclass(frozen=True)
+@valueclass
 class Circle:
+    """A circle of radius r about (cx, cy), stroked and/or filled."""
     cx: float
     cy: float
     r: float
@@ -180,7 +183,7 @@ class Circle:
         return (self,)
 
 
-@dataclass(frozen=True)
+@valueclass
 class Arc:
     """Part of a circle from angle `start` through `extent` degrees (positive: counter-clockwise on
     the page). The point at angle a is (cx + r cos a, cy - r sin a)."""
@@ -226,7 +229,7 @@ _ANCHORS = ("start", "middle", "end")
 _ROTATIONS = (0, 90, -90)
 
 
-@dataclass(frozen=True)
+@valueclass
 class Text:
     """One line of text; (x, y) is the anchor point on the baseline. `anchor` says which part of the
     text sits at x: start, middle or end. rotation 90 reads bottom to top, -90 top to bottom."""
@@ -303,8 +306,9 @@ class _Composite:
         return _union_bbox(self.primitives())
 
 
-@dataclass(frozen=True)
+@valueclass
 class Rect(_Composite):
+    """A rectangle, top left corner (x, y), w wide and h high."""
     x: float
     y: float
     w: float
@@ -323,7 +327,7 @@ class Rect(_Composite):
                          width=self.width, dash=self.dash),)
 
 
-@dataclass(frozen=True)
+@valueclass
 class Arrowhead(_Composite):
     """Filled triangle with its tip at (x, y), pointing along direction (dx, dy)."""
     x: float
@@ -342,7 +346,7 @@ class Arrowhead(_Composite):
                           (bx - n[0] * hw, by - n[1] * hw)), closed=True, fill=0.0, width=0),)
 
 
-@dataclass(frozen=True)
+@valueclass
 class Dimension(_Composite):
     """Dimension of the distance between (x1, y1) and (x2, y2), drawn `offset` points to the left of
     the direction 1 -> 2 (negative: to the right); for 1 -> 2 running left to right, positive is
@@ -432,7 +436,7 @@ class Dimension(_Composite):
         return self.primitives()[-1]
 
 
-@dataclass(frozen=True)
+@valueclass
 class BreakMark(_Composite):
     """Line from (x1, y1) to (x2, y2) with a zig-zag break at fraction `at` of its length: the span is
     drawn shorter than to scale."""
@@ -465,7 +469,7 @@ class BreakMark(_Composite):
                 Line(b[0], b[1], self.x2, self.y2, width=self.width))
 
 
-@dataclass(frozen=True)
+@valueclass
 class Leader(_Composite):
     """Line from the point (x, y) it labels to the label point (tx, ty), with an arrowhead or a dot at
     (x, y); the text starts just past (tx, ty), on the side away from (x, y), centred on ty."""
@@ -496,7 +500,7 @@ class Leader(_Composite):
         return (Line(sx, sy, self.tx, self.ty, width=THIN), mark, Text(lx, ly, self.text, self.size))
 
 
-@dataclass(frozen=True)
+@valueclass
 class Hatch(_Composite):
     """Insulator fill of the rectangle (x, y, w, h): parallel lines at `angle` degrees, `spacing`
     points apart, clipped to the rectangle; or, with `grey` set, a grey area. The outline is not part
@@ -610,7 +614,7 @@ def clip_polyline(points: Iterable[Point], box: Box) -> list[tuple[Point, ...]]:
 
 # ---------------------------------------------------------------- drawing
 
-@dataclass(frozen=True)
+@valueclass
 class LayoutProblem:
     """A text that overlaps another (kind "overlap") or leaves the drawing (kind "outside")."""
     kind: str
@@ -623,7 +627,7 @@ class LayoutProblem:
         return f"text {self.text.text!r} at ({self.text.x:.1f}, {self.text.y:.1f}) leaves the drawing"
 
 
-@dataclass(frozen=True)
+@valueclass
 class Drawing:
     """A figure: `width` x `height` points, the shapes in drawing order, a title (metadata)."""
     width: float

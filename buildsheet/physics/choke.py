@@ -22,7 +22,6 @@ Symbols (SI throughout unless a formula says otherwise):
 from __future__ import annotations
 
 import functools
-from dataclasses import dataclass
 
 import numpy as np
 
@@ -30,6 +29,7 @@ from buildsheet.physics import ModelError, union1d
 from buildsheet.physics.conductors import surface_resistance
 from buildsheet.physics.constants import C0, epsilon_0, inch, mu_0
 from buildsheet.physics.special import ellipke
+from buildsheet.valueclass import valueclass
 
 # Copper: the shield's outer surface taken as a smooth copper tube. Real braid loses more, so the
 # resulting |Z| near self-resonance is an upper bound; sizing keeps the band well below resonance.
@@ -244,7 +244,7 @@ def shield_resistance(f, d_mean, cable_od, turns):
     return surface_resistance(f, SIGMA_COPPER) * turns * np.pi * d_mean / (np.pi * cable_od)
 
 
-@dataclass(frozen=True)
+@valueclass
 class ChokeDesign:
     """A close-wound coiled-coax choke and what it gives.
 
@@ -418,7 +418,7 @@ def sleeve_velocity_factor(shield_d, cable_od, sleeve_id, jacket_eps) -> float:
     return float(np.sqrt((jacket + np.log(sleeve_id / cable_od)) / np.log(sleeve_id / shield_d)))
 
 
-@dataclass(frozen=True)
+@valueclass
 class SleeveChoke:
     """A quarter-wave sleeve choke over the feed coax.
 

@@ -26,7 +26,6 @@ Symbols (SI throughout; every function broadcasts over numpy arrays):
 
 from __future__ import annotations
 
-from dataclasses import dataclass
 from typing import Callable
 
 import numpy as np
@@ -34,12 +33,13 @@ import numpy as np
 from buildsheet.physics import ModelError
 from buildsheet.physics.conductors import proximity_factor, wire_internal_impedance
 from buildsheet.physics.constants import C0, epsilon_0, mu_0
+from buildsheet.valueclass import valueclass
 
 #: decibels per neper, 20/ln(10)
 DB_PER_NEPER = 20.0 / np.log(10.0)
 
 
-@dataclass(frozen=True)
+@valueclass
 class _TwoWireConductorLoss:
     """z_int(f) of a two-wire line: two wires' internal impedance, times the proximity factor."""
 
@@ -51,7 +51,7 @@ class _TwoWireConductorLoss:
         return 2.0 * self.proximity * wire_internal_impedance(f, self.d, self.sigma)
 
 
-@dataclass(frozen=True)
+@valueclass
 class _DielectricConductance:
     """G(f) = omega C tan_delta of a dielectric with a frequency-independent loss tangent."""
 
@@ -62,7 +62,7 @@ class _DielectricConductance:
         return 2.0 * np.pi * np.asarray(f, dtype=float) * self.C * self.tan_delta
 
 
-@dataclass(frozen=True)
+@valueclass
 class _ScaledAttenuation:
     """scale * alpha(f) with alpha(f) = k1 sqrt(f) + k2 f (Np/m); used for R(f) and G(f) of a nominal line."""
 
@@ -75,7 +75,7 @@ class _ScaledAttenuation:
         return self.scale * (self.k1 * np.sqrt(f) + self.k2 * f)
 
 
-@dataclass(frozen=True)
+@valueclass
 class Line:
     """Uniform TEM line defined by per-metre R(f), L, G(f), C; z0(f) and gamma(f) derived in one place.
 

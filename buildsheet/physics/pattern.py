@@ -102,18 +102,19 @@ Symbols (SI; rms phasors):
 
 from __future__ import annotations
 
-from dataclasses import dataclass
 
 import numpy as np
 
 from buildsheet.physics import ModelError
 from buildsheet.physics.constants import C0, epsilon_0
+from buildsheet.physics.quadrature import gauss_legendre
 from buildsheet.physics.radiator import ETA0, wavenumber
+from buildsheet.valueclass import valueclass
 
 GROUND_KINDS = ("free-space", "perfect", "real")
 
 
-@dataclass(frozen=True)
+@valueclass
 class Wire:
     """A straight wire with a standing-wave current, open at its far end.
 
@@ -134,7 +135,7 @@ class Wire:
     open_length: float | None = None
 
 
-@dataclass(frozen=True)
+@valueclass
 class SampledWire:
     """A straight wire with piecewise-constant segment currents (as NEC-2 reports them).
 
@@ -157,7 +158,7 @@ def open_line_wire(start, direction, length: float, i_in: complex, gamma: comple
                 1j * complex(i_in) / np.sinh(complex(gamma) * l_e), complex(gamma), float(l_e))
 
 
-@dataclass(frozen=True)
+@valueclass
 class Pattern:
     """The far-field pattern over the ground (angles in degrees, gains in dBi relative to the power
     the gains refer to): max_gain_dbi, takeoff_deg (the elevation of the maximum, above the horizon;
@@ -325,9 +326,9 @@ def far_field(wires, f: float, theta, phi, ground_kind: str = "free-space", eps_
     return e_th, e_ph
 
 
-# Gauss-Legendre nodes on [0, 1] for the polar angle and for kappa
+# Gauss-Legendre nodes on [0, 1] for the polar angle and for kappa (the stored rules of quadrature.py)
 def _gl01(n):
-    x, w = np.polynomial.legendre.leggauss(n)
+    x, w = gauss_legendre(n)
     return (x + 1) / 2, w / 2
 
 
@@ -349,7 +350,7 @@ def _n_azimuth(k_rho_max, extent):
     return int(2 * np.ceil(k_rho_max * extent + 12))
 
 
-@dataclass(frozen=True)
+@valueclass
 class Powers:
     """Powers of the given currents, W (rms): p_free, the free-space radiated power (whole sphere);
     p_upper, the space wave over the upper hemisphere (= p_free in free space); p_field, the power

@@ -27,6 +27,7 @@ import numpy as np
 
 from buildsheet.physics import resonance_table
 from buildsheet.physics.constants import C0, epsilon_0, mu_0
+from buildsheet.physics.quadrature import gauss_legendre
 from buildsheet.physics.special import sici
 
 ETA0 = float(np.sqrt(mu_0 / epsilon_0))
@@ -37,7 +38,8 @@ _ETA_4PI = ETA0 / (4.0 * np.pi)
 # needed grow with the second wire's length over D; 48 agree with 192 to 1e-5 ohm up to h2 = 30 D
 # (VHF/UHF stubs), 96 to ~0.01 ohm at D/2 = 12 mm on HF stubs. Images (clear of the wire by twice
 # its height): 32, 1e-3 ohm.
-_GL = {n: np.polynomial.legendre.leggauss(n) for n in (32, 48, 96)}
+# Stored (quadrature.py), as numpy.polynomial.legendre.leggauss gives them.
+_GL = {n: gauss_legendre(n) for n in (32, 48, 96)}
 
 
 def _ci(x):

@@ -33,9 +33,6 @@ from reportlab.lib.pagesizes import A4, LETTER
 from reportlab.lib.styles import ParagraphStyle
 from reportlab.lib.utils import simpleSplit
 from reportlab.pdfgen.canvas import Canvas
-from reportlab.platypus import (BaseDocTemplate, CondPageBreak, Flowable, Frame, ListFlowable, ListItem,
-                                NextPageTemplate, PageBreak, PageTemplate, Paragraph, Spacer, Table,
-                                TableStyle)
 
 from buildsheet import fonts
 from buildsheet.drawing.shapes import Drawing
@@ -43,6 +40,9 @@ from buildsheet.blocks import Booklet, Contents, Cover, PageRef
 from buildsheet.blocks import (Facts, Figures, Heading, KeyFigures, Para, Section, Sheet, Steps,
                               Table as TableBlock, WriteIn)
 from buildsheet.writers.pdf_shapes import DrawingFlowable
+from buildsheet.writers.platypus import (BaseDocTemplate, CondPageBreak, Flowable, Frame, ListFlowable,
+                                         ListItem, NextPageTemplate, PageBreak, PageTemplate, Paragraph,
+                                         Spacer, Table, TableStyle)
 
 PAGE_SIZES = {"letter": LETTER, "a4": A4}
 MARGIN = 36.0
@@ -662,7 +662,7 @@ def _reproducible(date: str):
     restored afterwards."""
     saved = os.environ.get("SOURCE_DATE_EPOCH")
     saved_a85 = rl_config.useA85
-    day = datetime.datetime.strptime(date, "%Y-%m-%d").replace(tzinfo=datetime.timezone.utc)
+    day = datetime.datetime(*(int(part) for part in date.split("-")), tzinfo=datetime.timezone.utc)
     os.environ["SOURCE_DATE_EPOCH"] = str(int(day.timestamp()))
     rl_config.useA85 = 0
     try:
