@@ -2,9 +2,10 @@
 process, against their floors, and the whole solve against a NEC-2 sweep of the same design.
 
 Prints one table, everything measured in this run on this machine:
-  build    `python -m buildsheet build DEMO` (PDF and SVGs), median of --repeats runs, against the
-           floor: a process that imports the same modules as that build, in the same order, and
-           writes a one-page PDF with reportlab. Target ratio <= 2.0. A second floor imports only
+  build    `python -m buildsheet build DEMO` (PDF and SVGs), median of --repeats runs taken in
+           turn with the floors' (build, floor, floor, build, ...), against the floor: a process
+           that imports the same modules as that build, in the same order, and writes a one-page
+           PDF with reportlab. Target ratio <= 2.0. A second floor imports only
            the top-level libraries the build loaded (`import scipy` loads none of its subpackages)
            and writes the same PDF: what a build costs beyond its libraries' start-up.
   handout  `python -m buildsheet handout DIR` of 48 designs (variations of the demos: frequency
@@ -106,17 +107,28 @@ def _env() -> dict:
 def run_process(args: list[str], repeats: int) -> float:
     """Median wall time, s, of running `python args...` to completion (it must succeed), after one
     untimed run that writes the bytecode cache (when there is one)."""
-    times = []
+    return run_processes([args], repeats)[0]
+
+
+def run_processes(commands: list[list[str]], repeats: int) -> list[float]:
+    """Median wall time, s, of each `python args...` in `commands`, run in turn `repeats` times
+    (one of each, then again), after one untimed run of each that writes the bytecode cache (when
+    there is one). Taking the commands in turn, not each `repeats` times in a row, lets a change in
+    the machine's speed during the run (other work on a shared machine) fall on all of them alike,
+    so their ratios hold where the times drift."""
     if BYTECODE is not None:
-        subprocess.run([sys.executable, *args], capture_output=True, env=_env(), cwd=ROOT)
+        for args in commands:
+            subprocess.run([sys.executable, *args], capture_output=True, env=_env(), cwd=ROOT)
+    times: list[list[float]] = [[] for _ in commands]
     for _ in range(repeats):
-        t = time.perf_counter()
-        done = subprocess.run([sys.executable, *args], capture_output=True, text=True, env=_env(),
-                              cwd=ROOT)
-        times.append(time.perf_counter() - t)
-        if done.returncode != 0:
-            raise SystemExit(f"{' '.join(args[:3])} failed: {done.stderr.strip()}")
-    return statistics.median(times)
+        for args, runs in zip(commands, times):
+            t = time.perf_counter()
+            done = subprocess.run([sys.executable, *args], capture_output=True, text=True, env=_env(),
+                                  cwd=ROOT)
+            runs.append(time.perf_counter() - t)
+            if done.returncode != 0:
+                raise SystemExit(f"{' '.join(args[:3])} failed: {done.stderr.strip()}")
+    return [statistics.median(runs) for runs in times]
 
 
 def variants(folder: pathlib.Path) -> list[pathlib.Path]:
@@ -177,13 +189,13 @@ def main(argv=None) -> int:
         build = ["-m", "buildsheet", "build", str(DEMO), "-o", str(tmp / "one"), "--date", DATE]
         modules = tmp / "modules.json"
         run_process(["-c", _LIST_MODULES, str(modules), *build[2:]], 1)
-        t_build = run_process(build, args.repeats)
-        t_floor = run_process(["-c", _FLOOR, str(modules), str(tmp / "floor.pdf")], args.repeats)
         n_modules = len(json.loads(modules.read_text()))
+        libraries = sorted({m.split(".")[0] for m in json.loads(modules.read_text())} & set(LIBRARIES))
+        t_build, t_floor, t_libs = run_processes(
+            [build, ["-c", _FLOOR, str(modules), str(tmp / "floor.pdf")],
+             ["-c", _FLOOR_LIBRARIES, str(tmp / "floor2.pdf"), *libraries]], args.repeats)
         rows.append((f"build {DEMO.stem} (process)", t_build,
                      f"floor: {n_modules} modules + 1-page PDF", t_floor, t_build / t_floor, "<= 2.0"))
-        libraries = sorted({m.split(".")[0] for m in json.loads(modules.read_text())} & set(LIBRARIES))
-        t_libs = run_process(["-c", _FLOOR_LIBRARIES, str(tmp / "floor2.pdf"), *libraries], args.repeats)
         rows.append((f"build {DEMO.stem} (process)", t_build,
                      f"floor: import {', '.join(libraries)}", t_libs, t_build / t_libs, "(issue 14)"))
         if args.build_only:
