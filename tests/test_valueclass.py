@@ -61,3 +61,53 @@ def test_recursive_repr_as_dataclass():
 def test_refuses_a_class_with_its_own_methods():
     with pytest.raises(TypeError):
         valueclass(type("Own", (), {"__annotations__": {"a": "int"}, "__repr__": lambda self: "own"}))
+
+
+def _errors(make):
+    try:
+        make()
+    except TypeError:
+        return TypeError
+    return None
+
+
+@pytest.mark.parametrize("args, kwargs", CASES + [((), {}), ((1.0, "x", (), {}, 1, 2), {}),
+                                                  ((1.0,), {"a": 2.0}), ((1.0,), {"f": 1}),
+                                                  ((), {"a": 1.0, "e": 2}), ((), {"b": "y"})])
+def test_init_takes_and_refuses_what_dataclass_does(args, kwargs):
+    """The shared __init__ against the generated one: the same field values for every call the
+    generated one takes (positions, keywords, defaults, a fresh default_factory value each time),
+    TypeError for every call it refuses (too many, missing, repeated, unknown)."""
+    ref, ours = _pair()
+    expected = _errors(lambda: ref(*args, **dict(kwargs)))
+    assert _errors(lambda: ours(*args, **dict(kwargs))) is expected
+    if expected is None:
+        r, o = ref(*args, **dict(kwargs)), ours(*args, **dict(kwargs))
+        assert dataclasses.astuple(r) == dataclasses.astuple(o)
+        if "d" not in kwargs and len(args) < 4:       # d from its default_factory: a new dict each
+            assert ours(*args, **dict(kwargs)).d is not o.d
+
+
+def test_post_init_runs_and_subclass_attributes_as_dataclass():
+    seen = []
+
+    def body():
+        return {"__annotations__": {"a": "int"}, "__post_init__": lambda self: seen.append(self.a)}
+    ours = valueclass(type("Checked", (), body()))
+    ours(3)
+    ours(a=4)
+    assert seen == [3, 4]
+    ref = dataclass(frozen=True)(type("Checked", (), body()))
+    # a plain subclass may set attributes that are not fields, as with dataclass(frozen=True)
+    for base in (ref, ours):
+        sub = type("Sub", (base,), {})(5)
+        sub.extra = 1
+        with pytest.raises(dataclasses.FrozenInstanceError):
+            sub.a = 6
+
+
+def test_refuses_fields_it_does_not_handle():
+    with pytest.raises(TypeError):
+        valueclass(type("Late", (), {"__annotations__": {"a": "int"}, "a": field(default=0, init=False)}))
+    with pytest.raises(TypeError):
+        valueclass(type("Keyword", (), {"__annotations__": {"a": "int"}, "a": field(kw_only=True)}))
