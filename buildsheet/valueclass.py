@@ -1,23 +1,24 @@
-"""@valueclass: a frozen dataclass whose __eq__, __hash__ and __repr__ are one set of functions shared
-by every such class, instead of three generated for each.
+"""@valueclass: a frozen dataclass whose __init__, __setattr__, __delattr__, __eq__, __hash__ and
+__repr__ are one set of functions shared by every such class, instead of six generated for each.
 
 dataclasses compiles every method it generates (exec of its source text); a frozen dataclass gets
-six (__init__, __repr__, __eq__, __setattr__, __delattr__, __hash__), and the value classes a build
-imports cost it about 50 ms that way. `valueclass(cls)` is `dataclass(frozen=True)(cls)` with the
-three shared methods, which behave as Python's generated ones: instances of the same class are
-equal when their fields with compare=True are (compared as one tuple, in order), an instance of
-another class gives NotImplemented; the hash is that of the tuple of the fields with compare=True
-(or hash=True); the repr is `ClassName(field=value!r, ...)` over the fields with repr=True, '...'
-where it would recurse. dataclasses.fields, replace and asdict work as on any dataclass.
-
-__init__, __setattr__ and __delattr__ are shared too (dataclasses compiles these three for each
-frozen class, the costliest part of declaring one): __init__ takes the fields in order, by position
-or keyword, fills the defaults (a default_factory called for each instance), sets them as a frozen
-dataclass does (object.__setattr__) and calls __post_init__ where the class has one; a wrong call
-raises TypeError as the generated one would. Assigning or deleting a field raises
-FrozenInstanceError. (A class with init=False, keyword-only, InitVar or ClassVar fields is refused:
-none is declared here; use dataclass(frozen=True) for one.) About 2 microseconds more per instance than the
-generated __init__, against about 0.25 ms less per class declared.
+these six, about 0.5 ms a class, and the value classes a build imports cost it about 30 ms that way.
+`valueclass(cls)` is `dataclass(frozen=True)(cls)` with the shared methods, which behave as Python's
+generated ones:
+- __init__ takes the fields in order, by position or keyword, fills the defaults (a
+  default_factory called for each instance), sets them as a frozen dataclass does
+  (object.__setattr__) and calls __post_init__ where the class has one; a wrong call raises
+  TypeError as the generated one would;
+- assigning or deleting a field raises FrozenInstanceError;
+- instances of the same class are equal when their fields with compare=True are (compared as one
+  tuple, in order), an instance of another class gives NotImplemented;
+- the hash is that of the tuple of the fields with compare=True (or hash=True);
+- the repr is `ClassName(field=value!r, ...)` over the fields with repr=True, '...' where it would
+  recurse.
+dataclasses.fields, replace and asdict work as on any dataclass. A class with init=False,
+keyword-only, InitVar or ClassVar fields is refused (none is declared here; use
+dataclass(frozen=True) for one). The shared __init__ costs about 2 microseconds more per instance
+than the generated one (some 3,000 instances in a build).
 """
 
 from __future__ import annotations
