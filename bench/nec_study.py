@@ -453,8 +453,9 @@ from buildsheet.solver import (ENVELOPE_EDGE_SPACING_WAVELENGTHS, ENVELOPE_SLOPE
 def envelope_case(seed: int, attempt: int = 0) -> acc.Case:
     """random_case(seed) brought inside the envelope: spacing clipped to lambda/50 (the 2:1 band's
     limit, solver.ENVELOPE_EDGE_SPACING_WAVELENGTHS; the stored runs of seeds up to 12239 without
-    `-d50` in their names were clipped to lambda/40) (and the radiator to a third of it), slope to 55 deg, and to 40 deg on a stub spaced over lambda/250 (the height
-    raised so the far end still clears the ground). The 40 deg rule came after the runs of seeds
+    `-d50` in their names were clipped to lambda/40) and the radiator to a third of it, slope to
+    55 deg, and to 40 deg on a stub spaced over lambda/250 (the height raised so the far end still
+    clears the ground). The 40 deg rule came after the runs of seeds
     6000-8079 and the data of seeds 10000-10119 (nec-c2-envelope.json.gz), whose files keep the
     designs they were drawn with. Each clip stops INWARD short of its limit, so that the design
     file's decimal rounding cannot carry a design pinned at a limit across it (solver_accepts);
@@ -463,7 +464,8 @@ def envelope_case(seed: int, attempt: int = 0) -> acc.Case:
     from dataclasses import replace
     case = random_case(seed, attempt)
     lam = necref.C0 / case.f0
-    spacing = min(case.spacing, min(ENVELOPE_SPACING_WAVELENGTHS, ENVELOPE_EDGE_SPACING_WAVELENGTHS) * lam * INWARD)
+    widest = min(ENVELOPE_SPACING_WAVELENGTHS, ENVELOPE_EDGE_SPACING_WAVELENGTHS) * lam
+    spacing = min(case.spacing, widest * INWARD)
     spacing = max(spacing, 4.0 * case.stub_d)
     slope = min(case.slope, np.radians(ENVELOPE_SLOPE_DEG) * INWARD)
     if spacing > ENVELOPE_STEEP_SPACING_WAVELENGTHS * lam:
