@@ -77,7 +77,7 @@ FAT = ("short_bar_d", "tap_bar_d", "c_j_d")
 # widths and centres and fitted with `fit OUT.json terms=q_rc`: it starts at 0 and, having no
 # thin-wire-only value to stay near, is not held by the anchor prior; not asked for, it stays at
 # jpole.CAL's value.
-QTERMS = ("q_rc",)
+QTERMS = ("q_rc", "r_rp", "r_zs", "r_sr", "r_xq")
 FIELDS = tuple(f.name for f in dataclasses.fields(jpole.Calibration) if f.name not in QTERMS)
 # The constants fitted on the thin-wire NEC-2 data alone (nec_study.py fit bench/data/nec-c1.json.gz),
 # before the rigid terms: the joint fit starts from them, the diameter terms at 0, and a prior of
@@ -89,6 +89,8 @@ THIN_ONLY = jpole.Calibration(short_bar=0.3407, tap_bar=0.3624, open_top=0.6779,
                               x_rc=-0.7570, r_rc=0.0677, x_img=0.9489, r_img=1.1239, c_j=-1.7721,
                               arm_dd=-0.0410)
 ANCHOR_WEIGHT = 1.0
+#: constants the anchor prior leaves free (`loose=r_rc,...`; none before c6)
+LOOSE = ()
 
 
 class Run:
@@ -312,7 +314,7 @@ def joint_fit(runs, train_nec, free=FIELDS, base=None, max_nfev=60):
     train = [r for r in runs if not r.held]
     x0 = np.array([base[k] for k in free])
     scale = np.maximum(np.abs(x0), 0.1)
-    thin = np.array([k not in FAT and k not in QTERMS for k in free])
+    thin = np.array([k not in FAT and k not in QTERMS and k not in LOOSE for k in free])
     make = lambda x: jpole.Calibration(**{**base, **dict(zip(free, x))})
 
     def fun(x):
@@ -408,10 +410,13 @@ def cmd_fit_arm(out=None, terms=(), extra=(), base_file=None):
             script="bench/fdtd_fit.py", command=" ".join(["fit-arm", out] + [f"terms={','.join(terms)}"] * bool(terms)
                                                         + [f"train+={','.join(extra)}"] * bool(extra)
                                                         + [f"base={base_file}"] * bool(base_file)
-                                                        + [f"shape={SHAPE_WEIGHT:g}"] * bool(SHAPE_WEIGHT)),
+                                                        + [f"shape={SHAPE_WEIGHT:g}"] * bool(SHAPE_WEIGHT)
+                                                        + [f"loose={','.join(LOOSE)}"] * bool(LOOSE)
+                                                        + [f"f0w={ns.F0_WEIGHT:g}"] * (ns.F0_WEIGHT != 3.0)),
             date=time.strftime("%Y-%m-%dT%H:%M:%SZ", time.gmtime()), train_designs=TRAIN_DESIGNS,
             band=BAND, fdtd_weight=FDTD_WEIGHT, nec_data=NEC_DATA.name, nec_extra=list(extra),
-            anchor_weight=ANCHOR_WEIGHT, shape_weight=SHAPE_WEIGHT, base=dataclasses.asdict(base),
+            anchor_weight=ANCHOR_WEIGHT, shape_weight=SHAPE_WEIGHT, loose=list(LOOSE), f0_weight=ns.F0_WEIGHT,
+            base=dataclasses.asdict(base),
             free=list(ARM + tuple(terms)),
             fdtd_files=FDTD_FILES, calibration=dataclasses.asdict(cal), before=before, after=after,
             heldout_shape_before=shape[0], heldout_shape_after=shape[1], heldout=judged), indent=1))
@@ -464,9 +469,15 @@ def cmd_verify(paths):
 
 def main(argv):
     cmd = argv[0] if argv else ""
-    global SHAPE_WEIGHT
+    global SHAPE_WEIGHT, LOOSE
     for a in [a for a in argv if a.startswith("shape=")]:
         SHAPE_WEIGHT = float(a[6:])
+        argv = [b for b in argv if b != a]
+    for a in [a for a in argv if a.startswith("loose=")]:
+        LOOSE = tuple(a[6:].split(","))
+        argv = [b for b in argv if b != a]
+    for a in [a for a in argv if a.startswith("f0w=")]:
+        ns.F0_WEIGHT = float(a[4:])
         argv = [b for b in argv if b != a]
     if cmd == "eval":
         cmd_eval()

@@ -98,7 +98,7 @@ import numpy as np
 
 from buildsheet.physics import ModelError
 from buildsheet.physics import radiator as rad
-from buildsheet.physics.constants import C0
+from buildsheet.physics.constants import C0, mu_0
 from buildsheet.physics.conductors import wire_internal_impedance
 from buildsheet.physics.lines import Line, reflection
 
@@ -208,6 +208,10 @@ class Calibration:
     tap_bar_d: float = 0.0
     c_j_d: float = 0.0
     q_rc: float = 0.0
+    r_rp: float = 0.0
+    r_zs: float = 0.0
+    r_sr: float = 0.0
+    r_xq: float = 0.0
 
     def bars(self, ant: "Antenna") -> tuple[float, float, float]:
         """(short bar, tap bar, open top): the electrical lengths they add, m (see the class)."""
@@ -372,6 +376,13 @@ class _Prepared:
         self.k = as_real(rad.wavenumber(f))
         line = ant.stub_line
         self.zs_line = as_complex(line.series_impedance(f))
+        # candidate r_sr: the stub's own (differential-mode) radiation as a series resistance per
+        # metre, eta k^3 D^2 / pi^2: a shorted quarter-wave two-wire line radiates (eta / 4 pi)
+        # (k D)^2 referred to the current at its short (far field of the two conductors and the
+        # bar, bench/stub_radiation.py), spread over the cos^2 current; radiated, not lost (state_at)
+        self.r_stub_rad = cal.r_sr * mu_0 * C0 * self.k ** 3 * ant.spacing ** 2 / np.pi ** 2
+        if cal.r_sr:
+            self.zs_line = self.zs_line + self.r_stub_rad
         self.ys_line = as_complex(line.shunt_admittance(f))
         self.z0_line = _sqrt(self.zs_line / self.ys_line)
         self.gamma_line = _sqrt(self.zs_line * self.ys_line)
@@ -427,7 +438,8 @@ class _Prepared:
         if pair is None:
             ant = self.ant
             keys = (("image", L, S if ant.orientation in VERTICALS else None), ("coupling", L, S))
-            wanted = (ant.ground_kind != "free-space", ant.orientation != "horizontal")
+            wanted = (ant.ground_kind != "free-space",
+                      ant.orientation != "horizontal" or self.cal.r_rp != 0.0 or self.cal.r_xq != 0.0)
             cache = self.__dict__.setdefault("_cache", {})
             todo = [w and key not in cache for key, w in zip(keys, wanted)]
             if any(todo):
@@ -435,8 +447,19 @@ class _Prepared:
                 for key, t in zip(keys, todo):
                     if t:
                         cache[key] = next(values)
+                if todo[1]:
+                    cache[("perp", L, S)] = next(values)
             pair = pairs[(L, S)] = tuple(cache[key] if w else self._zero for key, w in zip(keys, wanted))
         return pair
+
+    def _perp(self, geometry):
+        """The coupling integral of the radiator turned perpendicular to the stub (the reference
+        _mutuals subtracts), ohm; computed with the coupling (candidate r_rp)."""
+        cache = self.__dict__.setdefault("_cache", {})
+        key = ("perp", *geometry)
+        if key not in cache:
+            cache[key] = self._smooth_in_f(lambda k: self._mutuals(*geometry, k, False, True))[1]
+        return cache[key]
 
     def _mutuals(self, L, S, k, image, coupling):
         """The induced-EMF integrals asked for, along a first axis (Carter 1932;
@@ -467,7 +490,7 @@ class _Prepared:
         firsts = (np.array([centre, p0 + across * L / 2]), np.array([t, across]))
         z = rad.mutual_impedances(*firsts, L / 2, seconds, k)
         out = [-self._rho_g(k) * z[0][..., 0]] if image else []
-        return out + [z[-1][..., 0] - z[-1][..., 1]]
+        return out + [z[-1][..., 0] - z[-1][..., 1], z[-1][..., 1]]
 
     def _own_length(self, L, S, geometry=None, x_img=1.0, x_rc=1.0):
         """(l_e, z_img, z_rc): the radiator arm's electrical length without the junction term, m,
@@ -498,11 +521,22 @@ class _Prepared:
             l_e, z_img, z_rc = self._own_length(L, S, geometry)
         r_free = self._loop_resistance(l_e)
         r_loop = r_free + cal.r_img * z_img.real + cal.r_rc * z_rc.real
+        if cal.r_rp:
+            # the perpendicular reference's own mutual resistance (candidate r_rp, see Calibration)
+            r_loop = r_loop + cal.r_rp * self._perp((L, S) if geometry is None else geometry).real
         z0w = rad.schelkunoff_z0(L, ant.wire_d / 2)
+        if cal.r_xq:
+            # candidate r_xq: the common mode's current is the radiator's input current, in
+            # quadrature with its loop current at resonance (I_in / I_loop = j R_loop / z0w), so the
+            # full coupling's reactance (no perpendicular reference) acts on the loop resistance
+            z_full = z_rc + self._perp((L, S) if geometry is None else geometry)
+            r_loop = r_loop + cal.r_xq * z_full.imag * r_free / z0w
         z0c = rad.schelkunoff_z0(S, self.a_eq)
         z0s = ant.stub_line.z0_lossless
         r_ant = cal.r_scale * z0w ** cal.r_w * z0c ** cal.r_c * z0s ** (2 - cal.r_w - cal.r_c) / r_loop \
             * ant.end_resistance_scale
+        if cal.r_zs:
+            r_ant = r_ant * (z0s / 400.0) ** cal.r_zs
         z0_q = cal.q_scale * z0w ** cal.q_w * z0c ** cal.q_c * z0s ** (1 - cal.q_w - cal.q_c)
         # the stub's proportions: one factor on the arm's resistance and line impedance alike
         g = (ant.spacing / ant.stub_conductor_d / 15.0) ** cal.arm_dd
@@ -1029,8 +1063,10 @@ def state_at(f0: float, ant: Antenna, radiator_length: float, stub_length: float
                      v_element_end=abs(up["v_e2_end"]), element_ratio=up["ratio"],
                      element_phase_deg=up["phase_deg"])
     p_in = (v_tap * i_in.conjugate()).real
-    p_field = rad_r + rad_c
-    p_cond = pr_up + pr_low + loss_c
+    # the stub's own radiation (candidate r_sr) is part of the line's series resistance
+    p_stub_rad = (pr_up + pr_low) * prep.r_stub_rad / zs.real if prep.cal.r_sr else 0.0
+    p_field = rad_r + rad_c + p_stub_rad
+    p_cond = pr_up + pr_low - p_stub_rad + loss_c
     p_diel = pg_up + pg_low
     p_wire = loss_r
     balance = abs(p_in - (p_field + p_cond + p_diel + p_wire)) / p_in
