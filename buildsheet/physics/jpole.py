@@ -188,6 +188,20 @@ class Calibration:
     0.83-0.90 of NEC's on fat VHF radiators, 1.05 on thin wide-spaced HF stubs) are not explained
     by the arm's reactance slope: at NEC's match inside the envelope the held-out width ratio is
     within 0.91-1.08 (10th-90th percentile) in every class of radiator thickness.
+    Candidate terms, 0 in CAL (none adopted; figures in bench/data/cal-candidates/README.md, c6):
+    r_rp, the resistance of the perpendicular reference the coupling subtracts, on R_loop with a
+    weight of its own; r_zs, a power of z0s / 400 ohm on R_ant alone; r_sr, the stub's own
+    differential-mode radiation, a series resistance eta k^3 D^2 / pi^2 per metre on the stub
+    line (a shorted quarter-wave two-wire line radiates (eta / 4 pi) (k D)^2 referred to its
+    short's current, bench/stub_radiation.py; 1 is that figure, no fit), counted as radiated in
+    state_at; r_xq, the full coupling's reactance on R_loop, r_xq X_full R_loop / z0w: the common
+    mode's current is the radiator's input current, in quadrature with its loop current at
+    resonance (I_in / I_loop = j R_loop / z0w for an open-ended line), so the coupling's
+    reactance, not its resistance, changes the power the radiator's loop current delivers
+    (1: that EMF on the radiator alone; the same EMF on the common-mode arm doubles it); r_cu,
+    a power (z0c / z0w)^(r_cu u) on R_ant with the alignment u of the radiator with the stub's line
+    (1 vertical, 0 horizontal, -sin(slope) sloper): the common-mode arm continues an in-line
+    radiator as a step in line impedance at the junction, a bent one less.
     """
     short_bar: float
     tap_bar: float
@@ -212,6 +226,7 @@ class Calibration:
     r_zs: float = 0.0
     r_sr: float = 0.0
     r_xq: float = 0.0
+    r_cu: float = 0.0
 
     def bars(self, ant: "Antenna") -> tuple[float, float, float]:
         """(short bar, tap bar, open top): the electrical lengths they add, m (see the class)."""
@@ -472,7 +487,8 @@ class _Prepared:
         radiator perpendicular to the stub. The perpendicular part is the junction's near field,
         common to all orientations and carried by the open-top and junction constants; what remains
         is how tilting the radiator toward (sloper) or away from (vertical) the stub couples it, so
-        a horizontal radiator has none."""
+        a horizontal radiator has none. With the coupling, the perpendicular reference itself
+        follows it (for the candidate terms r_rp and r_xq, see Calibration)."""
         p0, t = _radiator_geometry(self.ant, L, S)
         centre = p0 + t * L / 2
         seconds = []
@@ -537,6 +553,11 @@ class _Prepared:
             * ant.end_resistance_scale
         if cal.r_zs:
             r_ant = r_ant * (z0s / 400.0) ** cal.r_zs
+        if cal.r_cu:
+            # candidate r_cu: the common-mode arm continues an in-line radiator (alignment u = 1
+            # vertical, 0 horizontal, -sin(slope) sloper), a step from z0w to z0c at the junction
+            u = -float(_radiator_geometry(ant, L, S)[1] @ _stub_direction(ant))
+            r_ant = r_ant * (z0c / z0w) ** (cal.r_cu * u)
         z0_q = cal.q_scale * z0w ** cal.q_w * z0c ** cal.q_c * z0s ** (1 - cal.q_w - cal.q_c)
         # the stub's proportions: one factor on the arm's resistance and line impedance alike
         g = (ant.spacing / ant.stub_conductor_d / 15.0) ** cal.arm_dd
