@@ -3,7 +3,12 @@ edges; bench/data/cal-candidates/README.md, c6), beyond `fdtd_fit.py judge`: one
 candidate. Held out unless said; no fitting. Run with the venv's python (with `rates` it runs NEC-2:
 the tuning rates of tests/test_jpole_nec.py, about 20 s a candidate; start it under the heavy lock):
 
-  python bench/orient_judge.py CAL|CAND.json|key=value,... [...] [rates]
+  python bench/orient_judge.py CAL|CAND.json|key=value,... [...] [rates] [oracle=H,S,VHF,VVHF]
+
+oracle: a diagnostic, not a model: the radiator arm's resistance R_ant multiplied by a factor per
+orientation class (horizontal, sloper, vertical under / above 100 MHz; Antenna.end_resistance_scale)
+on the stored NEC-2 designs only (the rates, first cuts and FDTD columns do not see it): what
+removing the class offsets exactly would give, the upper bound of any orientation term.
 
 Columns: nec-c1 training |rho| at NEC's match (median / 90th); the same held out on nec-c1's and on
 nec-c2-envelope's odd seeds; FDTD held-out rms; acceptance-style 2:1 edges within 10 % of NEC's width
@@ -151,8 +156,36 @@ def row(p, rates, train, held, h2, runs, fdtd_rows, base8):
             f"{o} | {rig * 1e3:.2f} | {m8 * 1e3:.1f}{rt} |")
 
 
+def _oracle(factors):
+    """Wrap nec_study.case_from_dict so that each stored design's antenna carries its class's factor."""
+    plain = ns.case_from_dict
+
+    def patched(d):
+        case = plain(d)
+        o = d["orientation"]
+        k = {"horizontal": 0, "sloper": 1}.get(o, 2 if d["f0"] <= 100e6 else 3)
+        return _Scaled(case, factors[k])
+    ns.case_from_dict = patched
+
+
+class _Scaled:
+    """A design whose antenna() has end_resistance_scale set (oracle)."""
+
+    def __init__(self, case, factor):
+        self.case, self.factor = case, factor
+
+    def __getattr__(self, name):
+        return getattr(self.case, name)
+
+    def antenna(self):
+        return dataclasses.replace(self.case.antenna(), end_resistance_scale=self.factor)
+
+
 def main(argv):
     rates = "rates" in argv
+    for a in [a for a in argv if a.startswith("oracle=")]:
+        _oracle([float(v) for v in a[7:].split(",")])
+        argv = [b for b in argv if b != a]
     train, held = ff.nec_rows()
     _, h2 = ff.nec_rows(ff.HELD_EXTRA)
     runs = ff.load_runs()
