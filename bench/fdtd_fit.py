@@ -77,7 +77,7 @@ FAT = ("short_bar_d", "tap_bar_d", "c_j_d")
 # widths and centres and fitted with `fit OUT.json terms=q_rc`: it starts at 0 and, having no
 # thin-wire-only value to stay near, is not held by the anchor prior; not asked for, it stays at
 # jpole.CAL's value.
-QTERMS = ("q_rc", "r_rp", "r_zs", "r_sr", "r_xq", "r_cu")
+QTERMS = ("q_rc", "r_rp", "r_zs", "r_sr", "r_xq", "r_cu", "x_om")
 FIELDS = tuple(f.name for f in dataclasses.fields(jpole.Calibration) if f.name not in QTERMS)
 # The constants fitted on the thin-wire NEC-2 data alone (nec_study.py fit bench/data/nec-c1.json.gz),
 # before the rigid terms: the joint fit starts from them, the diameter terms at 0, and a prior of

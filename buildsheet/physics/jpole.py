@@ -227,6 +227,7 @@ class Calibration:
     r_sr: float = 0.0
     r_xq: float = 0.0
     r_cu: float = 0.0
+    x_om: float = 0.0
 
     def bars(self, ant: "Antenna") -> tuple[float, float, float]:
         """(short bar, tap bar, open top): the electrical lengths they add, m (see the class)."""
@@ -531,7 +532,12 @@ class _Prepared:
         electrical length c_j D to the radiator arm (the arm as the stub's open top sees it)."""
         ant, cal = self.ant, self.cal
         if junction:
-            l_e, z_img, z_rc = self._own_length(L, S, geometry, cal.x_img, cal.x_rc)
+            x_rc = cal.x_rc
+            if cal.x_om:
+                # candidate x_om: the coupling reactance's weight with the radiator's thickness,
+                # Hallen's Omega = 2 ln(2 L / a) about 20
+                x_rc = x_rc * (1.0 + cal.x_om * (2.0 * math.log(L / (ant.wire_d / 2) * 2.0) / 20.0 - 1.0))
+            l_e, z_img, z_rc = self._own_length(L, S, geometry, cal.x_img, x_rc)
             l_e = l_e + cal.junction(ant)
         else:
             l_e, z_img, z_rc = self._own_length(L, S, geometry)
