@@ -11,9 +11,13 @@ test. Run with the venv's python.
                                                  terms: candidate arm terms (QTERMS) fitted as well;
                                                  train+: more NEC-2 data, even seeds train too
   python bench/fdtd_fit.py fit-arm [OUT.json] [terms=q_rc] [train+=...] [base=CAL.json] [shape=W]
+                                 [loose=r_rc,...] [f0w=W]
                                                  the radiator arm's constants (ARM) only, from and
                                                  anchored to jpole.CAL (or base); the stub's and the
-                                                 rigid constants kept (how CAL's q_rc was fitted)
+                                                 rigid constants kept (how CAL's q_rc was fitted);
+                                                 terms may also name stub or rigid constants to free;
+                                                 loose: constants freed from the anchor prior; f0w:
+                                                 nec_study.F0_WEIGHT (the design frequency's weight)
   python bench/fdtd_fit.py ablate                each diameter term switched off, the rest refitted:
                                                  what the held-out errors do without it
   python bench/fdtd_fit.py judge [CAL.json...]   stored candidates (or jpole.CAL) on the held-out data:
@@ -76,7 +80,7 @@ FAT = ("short_bar_d", "tap_bar_d", "c_j_d")
 # The term on the radiator arm's reactance slope (jpole.Calibration q_rc), added for issue 13's band
 # widths and centres and fitted with `fit OUT.json terms=q_rc`: it starts at 0 and, having no
 # thin-wire-only value to stay near, is not held by the anchor prior; not asked for, it stays at
-# jpole.CAL's value.
+# jpole.CAL's value. The others are the c6 candidate terms (bench/data/cal-candidates/README.md), 0 in CAL.
 QTERMS = ("q_rc", "r_rp", "r_zs", "r_sr", "r_xq", "r_cu", "x_om")
 FIELDS = tuple(f.name for f in dataclasses.fields(jpole.Calibration) if f.name not in QTERMS)
 # The constants fitted on the thin-wire NEC-2 data alone (nec_study.py fit bench/data/nec-c1.json.gz),
