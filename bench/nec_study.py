@@ -593,6 +593,7 @@ def report(rows):
     if len(ed):
         print(f"2:1 edge error / NEC width: median {np.median(ed):.3f}, 90 % {np.quantile(ed, 0.9):.3f}, "
               f"max {ed.max():.3f}; within 10 %: {int(np.sum(ed <= 0.1))} of {len(ed)}")
+        edges_by_match(ok)
     worst = sorted(ok, key=lambda r: -r["swr"])[:8]
     for r in worst:
         c = r["case"]
@@ -600,6 +601,26 @@ def report(rows):
               f"D {c['spacing']*1e3:.1f} mm D/d {c['spacing']/c['stub_d']:.1f} wire {c['wire_d']*1e3:.2f} mm "
               f"{c['ground'].get('ground_kind')} slope {np.degrees(c['slope']):.0f}: SWR {r['swr']:.3f} "
               f"overlap {r['overlap']:.2f}")
+
+
+#: NEC-2 SWR at f0 (of the model's cut) by which edges_by_match groups the designs
+MATCH_BINS = (1.0, 1.05, 1.10, 1.15, 1.20, 1.30, np.inf)
+
+
+def edges_by_match(rows):
+    """The 2:1 edge error against NEC-2's SWR at f0 for the model's cut, in groups of that SWR: the
+    edges follow the match (when NEC-2's resistance at f0 is not 50 ohm, the frequency where it is
+    moves, and both edges with it), so the edge figure is the SWR figure seen another way."""
+    pairs = np.array([(r["swr"], r["edge_error"]) for r in rows if r.get("edge_error") is not None])
+    if len(pairs) < 3:
+        return
+    s, e = pairs.T
+    print(f"2:1 edge error against NEC SWR at f0 (correlation {np.corrcoef(s, e)[0, 1]:.2f}):")
+    for lo, hi in zip(MATCH_BINS, MATCH_BINS[1:]):
+        m = (s >= lo) & (s < hi)
+        if m.any():
+            print(f"  SWR {lo:.2f}-{hi:.2f}: {int(m.sum()):3d} designs, edge error median {np.median(e[m]):.3f}, "
+                  f"max {e[m].max():.3f}, within 10 %: {int(np.sum(e[m] <= 0.1))}")
 
 
 def table(cases=acc.CASES):
