@@ -217,7 +217,7 @@ def collect_one(seed: int, envelope: bool = False):
         for (l_, s_, t_, f_) in pts:
             zz = nec_z(case, l_, s_, t_, f_, (L, S1, T1))[0]
             data.append([l_, s_, t_, f_, zz.real, zz.imag])
-    except RuntimeError as exc:      # PyNEC refusing a perturbed geometry (seed 13160's did)
+    except RuntimeError as exc:      # PyNEC refusing a perturbed geometry (seed 13167's did)
         return dict(seed=seed, error=f"{type(exc).__name__} at a perturbed point: {exc}")
     return dict(seed=seed, case=_case_dict(case), L_model=L, S_model=S, T_model=T,
                 S_nec=float(S1), T_nec=float(T1), z_match=[z.real, z.imag], points=data)
