@@ -16,6 +16,10 @@ the model's global constants (buildsheet.physics.jpole.CAL). Prints figures; not
                                                  acceptance on N unseen random designs (seeds START..),
                                                  or brought inside the model's envelope
   python3 bench/nec_study.py report OUT.json     the acceptance figures of a stored run
+  python3 bench/nec_study.py refine OUT.json N ACCEPT.json...
+                                                 the N worst 2:1 edges of stored acceptance runs again,
+                                                 NEC-2 on the mesh of record and on a finer one: how
+                                                 far the reference's own band moves
 
   collect and accept take `envelope` (designs brought inside the envelope, many at its edges);
   fit takes `envelope` (train and report on the designs inside it); any command takes
@@ -209,9 +213,12 @@ def collect_one(seed: int, envelope: bool = False):
             (L, S1 * 0.995, T1, case.f0), (L, S1 * 1.005, T1, case.f0),
             (L, S1, T1 * 0.8, case.f0), (L, S1, T1 * 1.25, case.f0)]
     data = []
-    for (l_, s_, t_, f_) in pts:
-        zz = nec_z(case, l_, s_, t_, f_, (L, S1, T1))[0]
-        data.append([l_, s_, t_, f_, zz.real, zz.imag])
+    try:
+        for (l_, s_, t_, f_) in pts:
+            zz = nec_z(case, l_, s_, t_, f_, (L, S1, T1))[0]
+            data.append([l_, s_, t_, f_, zz.real, zz.imag])
+    except RuntimeError as exc:      # PyNEC refusing a perturbed geometry (seed 13167's did)
+        return dict(seed=seed, error=f"{type(exc).__name__} at a perturbed point: {exc}")
     return dict(seed=seed, case=_case_dict(case), L_model=L, S_model=S, T_model=T,
                 S_nec=float(S1), T_nec=float(T1), z_match=[z.real, z.imag], points=data)
 
@@ -593,6 +600,7 @@ def report(rows):
     if len(ed):
         print(f"2:1 edge error / NEC width: median {np.median(ed):.3f}, 90 % {np.quantile(ed, 0.9):.3f}, "
               f"max {ed.max():.3f}; within 10 %: {int(np.sum(ed <= 0.1))} of {len(ed)}")
+        edges_by_match(ok)
     worst = sorted(ok, key=lambda r: -r["swr"])[:8]
     for r in worst:
         c = r["case"]
@@ -600,6 +608,74 @@ def report(rows):
               f"D {c['spacing']*1e3:.1f} mm D/d {c['spacing']/c['stub_d']:.1f} wire {c['wire_d']*1e3:.2f} mm "
               f"{c['ground'].get('ground_kind')} slope {np.degrees(c['slope']):.0f}: SWR {r['swr']:.3f} "
               f"overlap {r['overlap']:.2f}")
+
+
+#: NEC-2 SWR at f0 (of the model's cut) by which edges_by_match groups the designs
+MATCH_BINS = (1.0, 1.05, 1.10, 1.15, 1.20, 1.30, np.inf)
+
+
+def edges_by_match(rows):
+    """The 2:1 edge error against NEC-2's SWR at f0 for the model's cut, in groups of that SWR: the
+    edges follow the match (when NEC-2's resistance at f0 is not 50 ohm, the frequency where it is
+    moves, and both edges with it), so the edge figure is the SWR figure seen another way."""
+    pairs = np.array([(r["swr"], r["edge_error"]) for r in rows if r.get("edge_error") is not None])
+    if len(pairs) < 3:
+        return
+    s, e = pairs.T
+    print(f"2:1 edge error against NEC SWR at f0 (correlation {np.corrcoef(s, e)[0, 1]:.2f}):")
+    for lo, hi in zip(MATCH_BINS, MATCH_BINS[1:]):
+        m = (s >= lo) & (s < hi)
+        if m.any():
+            print(f"  SWR {lo:.2f}-{hi:.2f}: {int(m.sum()):3d} designs, edge error median {np.median(e[m]):.3f}, "
+                  f"max {e[m].max():.3f}, within 10 %: {int(np.sum(e[m] <= 0.1))}")
+
+
+#: the finer mesh of `refine`: the refinement of tests/test_nec_harness.py's proof (growth 1.15,
+#: half-size segments, 5 segments in each bar), all three at once
+FINE_MESH = necref.Mesh(growth=1.15, scale=0.5, bar_segments=5)
+
+
+def refine_one(row):
+    """One stored acceptance design again: the model's cut (solved with jpole.CAL, which must be the
+    constants the row was made with) in NEC-2 on the mesh of record and on FINE_MESH, the same
+    frequencies as accept_one; each mesh's SWR at f0, 2:1 band and edge error."""
+    case = case_from_dict(row["case"])
+    ant, L, S, T = acc.model_design(case)
+    span = 0.05 if case.f0 > 100e6 else 0.03
+    f = case.f0 * np.linspace(1 - span, 1 + span, 25)
+    b_mod = row["band_model"]
+    out = dict(seed=row["seed"], case=row["case"], L=L, S=S, T=T, band_model=b_mod,
+               edge_error_stored=row["edge_error"])
+    for name, mesh in (("record", necref.MESH), ("fine", FINE_MESH)):
+        z = necref.jpole_model(case.nec_dims(L, S, T), np.concatenate([[case.f0], f]), mesh=mesh).z_feed
+        b = acc.band_2to1(f, acc.swr(z[1:], 50.0))
+        edge = max(abs(b[0] - b_mod[0]), abs(b[1] - b_mod[1])) / (b[1] - b[0])
+        out[name] = dict(z=[z[0].real, z[0].imag], swr=float(acc.swr(z[:1], 50.0)[0]), band=b, edge_error=edge)
+    return out
+
+
+def refine(out: str, n: int, paths):
+    """The N designs of the stored acceptance runs with the largest 2:1 edge errors, in NEC-2 again on
+    the mesh of record and on FINE_MESH: is the miss the model's or the reference's? Writes OUT
+    (provenance, rows) and prints how far each design's NEC-2 band moved, in its 2:1 widths."""
+    rows = [r for p in paths for r in load_rows(p) if r.get("edge_error") is not None]
+    worst = sorted(rows, key=lambda r: -r["edge_error"])[:n]
+    done = _pool_map(refine_one, worst)
+    meta = provenance(command=f"refine {out} {n} " + " ".join(paths), fine_mesh=asdict(FINE_MESH),
+                      cal=asdict(jpole.CAL))
+    Path(out).write_text(json.dumps(dict(meta=meta, rows=done)))
+    moves = []
+    for r in done:
+        a, b = r["record"]["band"], r["fine"]["band"]
+        w = a[1] - a[0]
+        moves.append(max(abs(b[0] - a[0]), abs(b[1] - a[1])) / w)
+        print(f"  seed {r['seed']}: edge error {r['record']['edge_error']:.3f} (stored {r['edge_error_stored']:.3f}), "
+              f"finer mesh {r['fine']['edge_error']:.3f}; NEC-2's edges moved {b[0] - a[0]:+.0f} Hz and "
+              f"{b[1] - a[1]:+.0f} Hz ({moves[-1]:.3f} of its 2:1 width), Z(f0) {r['record']['z'][0]:.1f}"
+              f"{r['record']['z'][1]:+.1f}j -> {r['fine']['z'][0]:.1f}{r['fine']['z'][1]:+.1f}j")
+    e_fine = np.array([r["fine"]["edge_error"] for r in done])
+    print(f"{len(done)} designs: NEC-2's 2:1 edges moved at most {max(moves):.3f} of its width on the finer mesh; "
+          f"edge error within 10 % on the finer mesh: {int(np.sum(e_fine <= 0.1))} of {len(done)}")
 
 
 def table(cases=acc.CASES):
@@ -657,6 +733,8 @@ if __name__ == "__main__":
         accept(sys.argv[2], int(sys.argv[3]), int(sys.argv[4]), "envelope" in sys.argv[5:])
     elif cmd == "report":
         report(load_rows(sys.argv[2]))
+    elif cmd == "refine":
+        refine(sys.argv[2], int(sys.argv[3]), sys.argv[4:])
     elif cmd == "heldout":
         heldout(sys.argv[2:])
     else:
