@@ -222,11 +222,8 @@ class Calibration:
     tap_bar_d: float = 0.0
     c_j_d: float = 0.0
     q_rc: float = 0.0
-    r_rp: float = 0.0
-    r_zs: float = 0.0
     r_sr: float = 0.0
     r_xq: float = 0.0
-    r_cu: float = 0.0
     x_om: float = 0.0
 
     def bars(self, ant: "Antenna") -> tuple[float, float, float]:
@@ -269,10 +266,10 @@ STACK_CAL = StackCalibration(phasing_top=0.0027, radiator_end=-0.8061, element_e
                              mutual_x=1.4863, pc_x=-6.599)
 
 
-CAL = Calibration(short_bar=0.5075, tap_bar=0.4203, open_top=0.6437, r_scale=1.3392, r_w=0.5493,
-                  r_c=1.3672, q_scale=1.1398, q_w=0.4646, q_c=0.7086, x_rc=-0.7083, r_rc=0.1514,
-                  x_img=0.8663, r_img=1.0953, c_j=-1.9058, arm_dd=-0.0036, short_bar_d=-1.5956,
-                  tap_bar_d=-0.7957, c_j_d=2.4715, q_rc=-0.1841)
+CAL = Calibration(short_bar=0.5075, tap_bar=0.4203, open_top=0.6437, r_scale=0.8648, r_w=0.9101,
+                  r_c=0.8233, q_scale=1.1067, q_w=0.4674, q_c=0.5933, x_rc=-0.6557, r_rc=0.0524,
+                  x_img=0.8663, r_img=0.8793, c_j=-2.0083, arm_dd=-0.0036, short_bar_d=-1.6088,
+                  tap_bar_d=-0.8370, c_j_d=2.6683, q_rc=-0.1841, r_sr=1.0, r_xq=1.0, x_om=-0.8822)
 
 
 @dataclass(frozen=True)
@@ -392,7 +389,7 @@ class _Prepared:
         self.k = as_real(rad.wavenumber(f))
         line = ant.stub_line
         self.zs_line = as_complex(line.series_impedance(f))
-        # candidate r_sr: the stub's own (differential-mode) radiation as a series resistance per
+        # r_sr: the stub's own (differential-mode) radiation as a series resistance per
         # metre, eta k^3 D^2 / pi^2: a shorted quarter-wave two-wire line radiates (eta / 4 pi)
         # (k D)^2 referred to the current at its short (far field of the two conductors and the
         # bar, bench/stub_radiation.py), spread over the cos^2 current; radiated, not lost (state_at)
@@ -454,8 +451,7 @@ class _Prepared:
         if pair is None:
             ant = self.ant
             keys = (("image", L, S if ant.orientation in VERTICALS else None), ("coupling", L, S))
-            wanted = (ant.ground_kind != "free-space",
-                      ant.orientation != "horizontal" or self.cal.r_rp != 0.0 or self.cal.r_xq != 0.0)
+            wanted = (ant.ground_kind != "free-space", ant.orientation != "horizontal" or self.cal.r_xq != 0.0)
             cache = self.__dict__.setdefault("_cache", {})
             todo = [w and key not in cache for key, w in zip(keys, wanted)]
             if any(todo):
@@ -470,7 +466,7 @@ class _Prepared:
 
     def _perp(self, geometry):
         """The coupling integral of the radiator turned perpendicular to the stub (the reference
-        _mutuals subtracts), ohm; computed with the coupling (candidate r_rp)."""
+        _mutuals subtracts), ohm; computed with the coupling (r_xq, see Calibration)."""
         cache = self.__dict__.setdefault("_cache", {})
         key = ("perp", *geometry)
         if key not in cache:
@@ -489,7 +485,7 @@ class _Prepared:
         common to all orientations and carried by the open-top and junction constants; what remains
         is how tilting the radiator toward (sloper) or away from (vertical) the stub couples it, so
         a horizontal radiator has none. With the coupling, the perpendicular reference itself
-        follows it (for the candidate terms r_rp and r_xq, see Calibration)."""
+        follows it (for r_xq, see Calibration)."""
         p0, t = _radiator_geometry(self.ant, L, S)
         centre = p0 + t * L / 2
         seconds = []
@@ -534,8 +530,8 @@ class _Prepared:
         if junction:
             x_rc = cal.x_rc
             if cal.x_om:
-                # candidate x_om: the coupling reactance's weight with the radiator's thickness,
-                # Hallen's Omega = 2 ln(2 L / a) about 20
+                # x_om: the coupling reactance's weight with the radiator's thickness, Hallen's
+                # Omega = 2 ln(2 L / a) about 20 (see Calibration)
                 x_rc = x_rc * (1.0 + cal.x_om * (2.0 * math.log(L / (ant.wire_d / 2) * 2.0) / 20.0 - 1.0))
             l_e, z_img, z_rc = self._own_length(L, S, geometry, cal.x_img, x_rc)
             l_e = l_e + cal.junction(ant)
@@ -543,12 +539,9 @@ class _Prepared:
             l_e, z_img, z_rc = self._own_length(L, S, geometry)
         r_free = self._loop_resistance(l_e)
         r_loop = r_free + cal.r_img * z_img.real + cal.r_rc * z_rc.real
-        if cal.r_rp:
-            # the perpendicular reference's own mutual resistance (candidate r_rp, see Calibration)
-            r_loop = r_loop + cal.r_rp * self._perp((L, S) if geometry is None else geometry).real
         z0w = rad.schelkunoff_z0(L, ant.wire_d / 2)
         if cal.r_xq:
-            # candidate r_xq: the common mode's current is the radiator's input current, in
+            # r_xq: the common mode's current is the radiator's input current, in
             # quadrature with its loop current at resonance (I_in / I_loop = j R_loop / z0w), so the
             # full coupling's reactance (no perpendicular reference) acts on the loop resistance
             z_full = z_rc + self._perp((L, S) if geometry is None else geometry)
@@ -557,13 +550,6 @@ class _Prepared:
         z0s = ant.stub_line.z0_lossless
         r_ant = cal.r_scale * z0w ** cal.r_w * z0c ** cal.r_c * z0s ** (2 - cal.r_w - cal.r_c) / r_loop \
             * ant.end_resistance_scale
-        if cal.r_zs:
-            r_ant = r_ant * (z0s / 400.0) ** cal.r_zs
-        if cal.r_cu:
-            # candidate r_cu: the common-mode arm continues an in-line radiator (alignment u = 1
-            # vertical, 0 horizontal, -sin(slope) sloper), a step from z0w to z0c at the junction
-            u = -float(_radiator_geometry(ant, L, S)[1] @ _stub_direction(ant))
-            r_ant = r_ant * (z0c / z0w) ** (cal.r_cu * u)
         z0_q = cal.q_scale * z0w ** cal.q_w * z0c ** cal.q_c * z0s ** (1 - cal.q_w - cal.q_c)
         # the stub's proportions: one factor on the arm's resistance and line impedance alike
         g = (ant.spacing / ant.stub_conductor_d / 15.0) ** cal.arm_dd
@@ -1090,7 +1076,7 @@ def state_at(f0: float, ant: Antenna, radiator_length: float, stub_length: float
                      v_element_end=abs(up["v_e2_end"]), element_ratio=up["ratio"],
                      element_phase_deg=up["phase_deg"])
     p_in = (v_tap * i_in.conjugate()).real
-    # the stub's own radiation (candidate r_sr) is part of the line's series resistance
+    # the stub's own radiation (r_sr) is part of the line's series resistance
     p_stub_rad = (pr_up + pr_low) * prep.r_stub_rad / zs.real if prep.cal.r_sr else 0.0
     p_field = rad_r + rad_c + p_stub_rad
     p_cond = pr_up + pr_low - p_stub_rad + loss_c
