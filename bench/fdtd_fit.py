@@ -80,8 +80,9 @@ FAT = ("short_bar_d", "tap_bar_d", "c_j_d")
 # The term on the radiator arm's reactance slope (jpole.Calibration q_rc), added for issue 13's band
 # widths and centres and fitted with `fit OUT.json terms=q_rc`: it starts at 0 and, having no
 # thin-wire-only value to stay near, is not held by the anchor prior; not asked for, it stays at
-# jpole.CAL's value. The others are the c6 candidate terms (bench/data/cal-candidates/README.md), 0 in CAL.
-QTERMS = ("q_rc", "r_rp", "r_zs", "r_sr", "r_xq", "r_cu", "x_om")
+# jpole.CAL's value. The others are the terms of CAL c5 (bench/data/cal-candidates/README.md, c6:
+# r_sr and r_xq derived, at weight 1; x_om fitted); the c6 candidates r_rp, r_zs and r_cu are at 8603e8a.
+QTERMS = ("q_rc", "r_sr", "r_xq", "x_om")
 FIELDS = tuple(f.name for f in dataclasses.fields(jpole.Calibration) if f.name not in QTERMS)
 # The constants fitted on the thin-wire NEC-2 data alone (nec_study.py fit bench/data/nec-c1.json.gz),
 # before the rigid terms: the joint fit starts from them, the diameter terms at 0, and a prior of

@@ -26,10 +26,10 @@ Method.
 3. The limit. De-embedding multiplies any error of the reading by the same 10^(A/10). An analyzer is
    trusted to |rho| within MAX_REFLECTION - 1 = 0.05 (touchstone.MAX_REFLECTION: common practice, a
    calibrated analyzer reads an open or a short within a few per cent). The fit's gate (fit.FIT_GATE,
-   0.283 in |rho|) takes a residual above it for a sweep of something else; the model's own error
-   reaches 0.090 at its 90th percentile (fit.HELD_OUT_P90). A station sweep is meaningful only while
+   0.276 in |rho|) takes a residual above it for a sweep of something else; the model's own error
+   reaches 0.081 at its 90th percentile (fit.HELD_OUT_P90). A station sweep is meaningful only while
    the analyzer's error, carried to the tap, leaves room for the model's error under the gate:
-       0.05 * 10^(A/10) + 0.090 <= 0.283   ->   A <= 10 log10(0.193/0.05) = 5.9 dB.
+       0.05 * 10^(A/10) + 0.081 <= 0.276   ->   A <= 10 log10(0.195/0.05) = 5.9 dB.
    Beyond that an error the analyzer is allowed to make could by itself decide whether the sweep is
    accepted, and the advice would follow the error, not the antenna: such readings are refused with
    what to do instead (measure at the tap, or through a shorter or better coax). The catalogue's loss

@@ -162,9 +162,12 @@ def test_swr_readings_on_a_tube_give_no_short_move(miscut):
 # ----------------------------------------------------------------------------------------------
 # NEC-2
 
-@pytest.mark.parametrize("miscut", [(1.04, 1.0, 1.3), (1.03, 1.0, 0.7)])
+@pytest.mark.parametrize("miscut", [(1.04, 1.0, 1.35), (1.03, 1.0, 0.7)])
 def test_nec_rod_tube_one_round_with_the_short_fixed(miscut):
-    """A NEC-2 sweep of the mis-cut rod J-pole; the advice (no short move) applied in NEC-2."""
+    """A NEC-2 sweep of the mis-cut rod J-pole; the advice (no short move) applied in NEC-2. The first
+    mis-cut's tap is 35 % long: from the constants c5 on, the first cut is nearer NEC-2's match, and
+    30 % read SWR 1.29, under the 1.3 asked of a real mis-cut (measured: 1.37 -> 1.10 and 2.75 -> 1.07
+    after one round)."""
     design = load_design(ROD)
     f0 = design.frequency_hz
     built = dims(design) * np.array(miscut)
