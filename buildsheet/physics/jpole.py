@@ -39,13 +39,14 @@ acceptance designs of tests/test_jpole_nec.py and the unseen designs of `nec_stu
 3 % of f0 of each stored sweep, six designs training and five other designs held out whole
 (bench/fdtd_fit.py TRAIN_DESIGNS). There are no per-design constants. Fit of CAL below
 (bench/data/fdtd-fit-c3.json, then the radiator arm's constants refitted with q_rc,
-bench/data/fdtd-fit-c4.json; NEC-2 data bench/data/nec-c1.json.gz, seeds 0-239, 234 designs NEC
-could match, 114 training; FDTD: 21 training sweeps): on the held-out thin-wire designs the model's
-50-ohm reflection coefficient at the dimensions where NEC matches is 0.040 (median), 0.090 (90 %)
-(c3 before q_rc: 0.041, 0.092; the thin-wire-only constants before the rigid terms: 0.041, 0.097;
-the constants fitted on the earlier, unconverged mesh: 0.120, 0.247); on the held-out FDTD sweeps
-the rms difference of the reflection coefficients is 0.053 (0.315 with the thin-wire-only
-constants). At the dimensions this model gives them
+bench/data/fdtd-fit-c4.json, then with r_sr, r_xq and x_om, c5,
+bench/data/cal-candidates/c6-quick-x_om-r_xq1-r_sr1-q.json; NEC-2 data bench/data/nec-c1.json.gz,
+seeds 0-239, 234 designs NEC could match, 114 training; FDTD: 21 training sweeps): on the held-out
+thin-wire designs the model's 50-ohm reflection coefficient at the dimensions where NEC matches is
+0.034 (median), 0.081 (90 %) (c4: 0.040, 0.090; c3 before q_rc: 0.041, 0.092; the thin-wire-only
+constants before the rigid terms: 0.041, 0.097; the constants fitted on the earlier, unconverged
+mesh: 0.120, 0.247); on the held-out FDTD sweeps the rms difference of the reflection coefficients
+is 0.045 (c4: 0.053; 0.315 with the thin-wire-only constants). At the dimensions this model gives them
 (bench/data/fdtd-plan-c4.json, fdtd-jpoles-c4.json), the eleven rigid designs read FDTD SWR
 1.01-1.14 at f0, the five held out 1.02-1.14 (tests/test_jpole_fdtd.py); at c3's, 1.02-1.15 and
 1.04-1.15 (fdtd-jpoles-c3.json); before the rigid terms, 1.31-2.40.
