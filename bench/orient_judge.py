@@ -16,7 +16,7 @@ inside the envelope (fdtd_fit.heldout_accept: nec-c1 of 80, nec-c2 of 53), and o
 with the stub spaced at most lambda/50 (the envelope of solver.ENVELOPE_EDGE_SPACING_WAVELENGTHS);
 NEC-2's SWR at f0 of the model's cut, emulated (median, nec-c1 / nec-c2); the median Re rho at NEC's
 match by orientation (horizontal / sloper / vertical under 100 MHz / vertical above), nec-c1 then
-nec-c2; the largest move of a rigid design's first cut from fdtd-jpoles-c4.json (mm;
+nec-c2; the largest move of a rigid design's first cut from fdtd-jpoles-c5.json (mm;
 tests/test_jpole_fdtd.py allows 0.2 mm before the FDTD runs must be made again); the largest move of
 the first cut of the eight designs of tests/test_jpole_nec.py from jpole.CAL's (mm); with `rates`,
 the 6 m design's dX per short move against NEC-2 and every rate of tests/test_jpole_nec.py past its
@@ -189,7 +189,7 @@ def main(argv):
     train, held = ff.nec_rows()
     _, h2 = ff.nec_rows(ff.HELD_EXTRA)
     runs = ff.load_runs()
-    fdtd_rows = json.loads((ff.DATA / "fdtd-jpoles-c4.json").read_text())
+    fdtd_rows = json.loads((ff.DATA / "fdtd-jpoles-c5.json").read_text())
     base8 = {c.name: first_cut(c, jpole.CAL) for c in acc.CASES}
     for p in [a for a in argv if a != "rates"]:
         print(row(p, rates, train, held, h2, runs, fdtd_rows, base8), flush=True)

@@ -136,7 +136,7 @@ def test_phasing_short_current_is_within_what_the_sheet_says(case):
     """The sheet prints the phasing stub's voltage and current with the note that NEC-2 puts the
     current up to 30 % higher (sheet.PHASING_NOTE): NEC-2's current in the phasing short bar (its
     largest segment current, rms) over the model's (jpole.state_at at NEC's input power) lies in
-    1.0-1.3 on these designs (measured 1.05-1.29)."""
+    1.0-1.3 on these designs (measured 1.08-1.25 with CAL c5, 1.05-1.29 with c4)."""
     ant, L, S, T = model_stacked(case)
     r = necref.stacked_model(case.nec_dims(L, S, T), nec_stack(ant), [case.f0], currents=True)
     p_in = 0.5 * (1.0 / r.z_feed[0]).real          # 1 V peak source: P = Re(V I*)/2
@@ -187,15 +187,15 @@ def rates():
 @pytest.mark.parametrize("rate", ["r_tap", "x_short"])
 def test_tap_and_short_rates_match_nec(case, rate, rates):
     """The tuning table's tap and short rates within 15 % of NEC-2's (as for the single version,
-    tests/test_jpole_nec.py; measured within 3 %, bench/data/stack-rates-c4.json)."""
+    tests/test_jpole_nec.py; measured within 6 %, bench/data/stack-rates-c5.json)."""
     model, nec = rates[case.name][rate]
     assert model == pytest.approx(nec, rel=0.15), f"{case.name} {rate}: model {model:.4g}, NEC {nec:.4g}"
 
 
 @pytest.mark.parametrize("case", CASES, ids=[c.name for c in CASES])
 def test_element_trim_rate_is_as_the_sheet_says(case, rates):
-    """The element trim's dip rate is NOT within 15 % of NEC-2's: NEC-2 moves the dip 1.31-1.78
-    times as far per trim as the model (measured, bench/data/stack-rates-c4.json), and the sheet's
+    """The element trim's dip rate is NOT within 15 % of NEC-2's: NEC-2 moves the dip 1.25-1.73
+    times as far per trim as the model (measured, bench/data/stack-rates-c5.json), and the sheet's
     tuning procedure says so ("1.3 to 1.8 times", trim half the move first). This checks that statement: the ratio lies in
     1.2-1.8 and has the model's sign."""
     model, nec = rates[case.name]["dip_elements"]
