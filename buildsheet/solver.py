@@ -78,8 +78,8 @@ FDTD_RADIATOR_FRACTION = 0.40
 #: proportions above are proven to this spacing, beyond NEC-2's lambda/40
 FDTD_SPACING_WAVELENGTHS = 0.049
 FDTD_DESIGNS = (11, 5)
-FDTD_FIRST_CUT_SWR = (1.01, 1.14)
-FDTD_FIRST_CUT_SWR_HELD_OUT = (1.02, 1.14)
+FDTD_FIRST_CUT_SWR = (1.04, 1.21)
+FDTD_FIRST_CUT_SWR_HELD_OUT = (1.05, 1.21)
 #: `construction: twin-lead` against NEC-2, which has no dielectric: the 2 m demo's first cut meshed as
 #: bare wires with every length divided by the velocity factor the model took for it and the stub
 #: spaced for the line's Z0 in air (bench/twinlead_nec.py, bench/data/twinlead-nec.json; checked

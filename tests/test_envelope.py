@@ -132,7 +132,7 @@ def test_warnings_reach_json_summary_and_sheet(tmp_path, capsys):
 def test_rod_of_its_own_tube_inside_the_fdtd_proportions_is_not_called_wide():
     """6 mm rod at 25 mm, 433.5 MHz (the tower-70cm demo): 4.2 diameters, so NEC-2 can mesh it and
     no pipe/rod note is due, and 0.036 wavelength, beyond NEC-2's lambda/40 but inside the FDTD
-    designs' proportions (bench/data/fdtd-jpoles-c4.json: 70cm-rod-6.35-s25, 6.35 mm rod at 25 mm,
+    designs' proportions (bench/data/fdtd-jpoles-c5.json: 70cm-rod-6.35-s25, 6.35 mm rod at 25 mm,
     446 MHz; rods at 4.2 diameters up to 0.049 wavelength): no warning. A thin wire radiator on the
     same rods is not what the FDTD runs show: the wide-spacing warning stays."""
     rod = dict(f="433.5 MHz", spacing="25 mm", conductor="6 mm", orientation="vertical", height="3 m")
