@@ -207,8 +207,8 @@ class Calibration:
     every stored data set). Added with the arm's constants, q_scale, q_w, q_c and the three rigid
     ones refitted (bench/quick_fit.py, NEC-2 and FDTD training data, the anchor prior; the
     stub's constants kept): held-out |rho| at NEC's match nec-c1 0.0398 / 0.090 -> 0.0338 / 0.081,
-    nec-c2 0.037 / 0.071 -> 0.030 / 0.059, and on nec-c3-envelope (233 designs collected after the
-    fit) 0.0345 / 0.068 -> 0.0279 / 0.056; FDTD held-out rms 0.053 -> 0.045; on 238 designs of
+    nec-c2 0.037 / 0.071 -> 0.030 / 0.059, and on nec-c3-envelope (233 designs that no fit has
+    used) 0.0345 / 0.068 -> 0.0279 / 0.056; FDTD held-out rms 0.053 -> 0.045; on 238 designs of
     seeds 14000-14239 in NEC-2 (the set the choice among candidates was checked on) the first
     cut's SWR at f0 median 1.085 -> 1.066, 90th percentile 1.162 -> 1.127, the 2:1 edges within
     10 % of NEC-2's width on 223 -> 231. The offsets shrink (HF verticals to -0.02) but the
@@ -465,7 +465,8 @@ class _Prepared:
         if pair is None:
             ant = self.ant
             keys = (("image", L, S if ant.orientation in VERTICALS else None), ("coupling", L, S))
-            wanted = (ant.ground_kind != "free-space", ant.orientation != "horizontal" or self.cal.r_xq != 0.0)
+            wanted = (ant.ground_kind != "free-space",
+                      ant.orientation != "horizontal" or self.cal.r_xq != 0.0)
             cache = self.__dict__.setdefault("_cache", {})
             todo = [w and key not in cache for key, w in zip(keys, wanted)]
             if any(todo):
@@ -1024,8 +1025,8 @@ class State:
     the rest, absorbed in real ground (0 in free space and over perfect ground);
     p_stub_conductor: the stub's differential line plus the common-mode current in the stub
     conductors; p_stub_radiated: the stub line's own radiation (Calibration r_sr), part of p_field
-    and not of p_stub_conductor; p_stub_dielectric: the line's shunt conductance; p_common_mode: the part of
-    p_stub_conductor due to the common-mode current; p_wire: radiator wire;
+    and not of p_stub_conductor; p_stub_dielectric: the line's shunt conductance; p_common_mode:
+    the part of p_stub_conductor due to the common-mode current; p_wire: radiator wire;
     efficiency = p_radiated / p_delivered; ground_efficiency = p_radiated / p_field;
     balance_error = |delivered - field - losses| / delivered, every term integrated separately
     from the currents, so this is a real check of the solution."""
