@@ -204,6 +204,38 @@ def heldout_shape(cal, held, quiet=False):
     return out
 
 
+def emulated_bands(r):
+    """One stored NEC-2 design (nec_study.py collect) with jpole.CAL, as heldout_accept takes it:
+    (NEC-2's 2:1 band, the model's, NEC-2's SWR at f0), the bands as offsets from f0 in parts of
+    f0, for the model's own first cut; NEC-2 at that cut emulated from the stored points (see
+    heldout_accept). None where the model refuses the design; both bands None where either does
+    not close inside the stored frequencies."""
+    c, p = r["case"], np.asarray(r["points"])
+    ant = ns.case_from_dict(c).antenna()
+    f0 = c["f0"]
+    try:
+        L = jpole.resonant_radiator_length(f0, ant)
+        S, T = jpole.solve_match(f0, 50.0, ant, L)
+    except ValueError:
+        return None
+    z = p[:, 4] + 1j * p[:, 5]
+    L0, S0, T0 = p[2, 0], p[2, 1], p[2, 2]
+    x = p[:5, 3] / f0 - 1
+    poly_r, poly_i = np.polyfit(x, z[:5].real, 4), np.polyfit(x, z[:5].imag, 4)
+    xf = np.linspace(x[0], x[-1], 801)
+    # NEC-2 at the model's dimensions: NEC-2's sweep at its own match moved by what the model's
+    # impedance does between the two sets of dimensions, frequency by frequency
+    zm = jpole.feed_impedance(f0 * (1 + xf), ant, L, S, T)
+    zn = np.polyval(poly_r, xf) + 1j * np.polyval(poly_i, xf) \
+        + zm - jpole.feed_impedance(f0 * (1 + xf), ant, L0, S0, T0)
+    s_n = acc.swr(zn, 50.0)
+    b_n, b_m = acc.band_2to1(xf, s_n), acc.band_2to1(xf, acc.swr(zm, 50.0))
+    if (b_n is None or b_m is None or min(b_n[0], b_m[0]) <= xf[0] + 1e-12
+            or max(b_n[1], b_m[1]) >= xf[-1] - 1e-12):
+        b_n = b_m = None
+    return b_n, b_m, float(s_n[400])
+
+
 def heldout_accept(cal, held, quiet=False, label="held-out"):
     """The acceptance's edge error emulated on stored NEC-2 designs, no new NEC runs: the model's own
     first cut (radiator, stub and tap solved with cal), NEC-2's impedance at those dimensions from
@@ -218,34 +250,16 @@ def heldout_accept(cal, held, quiet=False, label="held-out"):
     errs, swrs, skipped = [], [], 0
     try:
         for r in held:
-            c, p = r["case"], np.asarray(r["points"])
-            case = ns.case_from_dict(c)
-            ant = case.antenna()
-            f0 = c["f0"]
-            try:
-                L = jpole.resonant_radiator_length(f0, ant)
-                S, T = jpole.solve_match(f0, 50.0, ant, L)
-            except ValueError:
+            bands = emulated_bands(r)
+            if bands is None:
                 skipped += 1
                 continue
-            z = p[:, 4] + 1j * p[:, 5]
-            L0, S0, T0 = p[2, 0], p[2, 1], p[2, 2]
-            x = p[:5, 3] / f0 - 1
-            poly_r, poly_i = np.polyfit(x, z[:5].real, 4), np.polyfit(x, z[:5].imag, 4)
-            xf = np.linspace(x[0], x[-1], 801)
-            # NEC-2 at the model's dimensions: NEC-2's sweep at its own match moved by what the
-            # model's impedance does between the two sets of dimensions, frequency by frequency
-            zm = jpole.feed_impedance(f0 * (1 + xf), ant, L, S, T)
-            zn = np.polyval(poly_r, xf) + 1j * np.polyval(poly_i, xf) \
-                + zm - jpole.feed_impedance(f0 * (1 + xf), ant, L0, S0, T0)
-            s_n, s_m = acc.swr(zn, 50.0), acc.swr(zm, 50.0)
-            b_n, b_m = acc.band_2to1(xf, s_n), acc.band_2to1(xf, s_m)
-            swrs.append(float(s_n[400]))
-            if (b_n is None or b_m is None or min(b_n[0], b_m[0]) <= xf[0] + 1e-12
-                    or max(b_n[1], b_m[1]) >= xf[-1] - 1e-12):
+            b_n, b_m, swr_f0 = bands
+            swrs.append(swr_f0)
+            if b_n is None:
                 skipped += 1
                 continue
-            errs.append(max(abs(b_n[0] - b_m[0]), abs(b_n[1] - b_m[1])) / (b_n[1] - b_n[0]))
+            errs.append(acc.edge_error(b_n, b_m))
     finally:
         jpole.CAL = saved
     errs = np.array(errs)

@@ -531,6 +531,13 @@ def accepted_case(seed: int) -> tuple[acc.Case, int]:
     raise RuntimeError(f"seed {seed}: no design inside the envelope in {MAX_ATTEMPTS} draws")
 
 
+def accept_frequencies(case: acc.Case, n: int = 25) -> np.ndarray:
+    """n frequencies over the span of `accept` (and `refine`): f0 +/- 5 % above 100 MHz, +/- 3 %
+    below; 25 for NEC-2's sweep, 601 for the model's."""
+    span = 0.05 if case.f0 > 100e6 else 0.03
+    return case.f0 * np.linspace(1 - span, 1 + span, n)
+
+
 def accept_one(seed: int, envelope: bool = False):
     """One unseen design: the model's dimensions in NEC-2; NEC SWR at f0, both 2:1 bands; envelope:
     the design drawn inside the envelope as the solver judges it (accepted_case)."""
@@ -543,20 +550,17 @@ def accept_one(seed: int, envelope: bool = False):
         ant, L, S, T = acc.model_design(case)
     except ValueError as exc:
         return dict(seed=seed, case=_case_dict(case), refused=str(exc))
-    span = 0.05 if case.f0 > 100e6 else 0.03
-    f = case.f0 * np.linspace(1 - span, 1 + span, 25)
+    f = accept_frequencies(case)
     f_all = np.concatenate([[case.f0], f])
     try:
         z = necref.jpole_model(case.nec_dims(L, S, T), f_all).z_feed
     except RuntimeError as exc:    # PyNEC refusing the geometry (see random_case)
         return dict(seed=seed, case=_case_dict(case), nec_error=f"{type(exc).__name__}: {exc}")
     swr_nec = acc.swr(z, 50.0)
-    f_fine = case.f0 * np.linspace(1 - span, 1 + span, 601)
+    f_fine = accept_frequencies(case, 601)
     swr_mod = acc.swr(jpole.feed_impedance(f_fine, ant, L, S, T), 50.0)
     b_nec, b_mod = acc.band_2to1(f, swr_nec[1:]), acc.band_2to1(f_fine, swr_mod)
-    edge = None
-    if b_nec and b_mod:
-        edge = max(abs(b_nec[0] - b_mod[0]), abs(b_nec[1] - b_mod[1])) / (b_nec[1] - b_nec[0])
+    edge = acc.edge_error(b_nec, b_mod) if b_nec and b_mod else None
     return dict(seed=seed, attempt=attempt, case=_case_dict(case), L=L, S=S, T=T, z_nec=[z[0].real, z[0].imag],
                 swr=float(swr_nec[0]), band_nec=b_nec, band_model=b_mod,
                 overlap=acc.overlap(b_nec, b_mod), edge_error=edge)
@@ -641,15 +645,14 @@ def refine_one(row):
     frequencies as accept_one; each mesh's SWR at f0, 2:1 band and edge error."""
     case = case_from_dict(row["case"])
     ant, L, S, T = acc.model_design(case)
-    span = 0.05 if case.f0 > 100e6 else 0.03
-    f = case.f0 * np.linspace(1 - span, 1 + span, 25)
+    f = accept_frequencies(case)
     b_mod = row["band_model"]
     out = dict(seed=row["seed"], case=row["case"], L=L, S=S, T=T, band_model=b_mod,
                edge_error_stored=row["edge_error"])
     for name, mesh in (("record", necref.MESH), ("fine", FINE_MESH)):
         z = necref.jpole_model(case.nec_dims(L, S, T), np.concatenate([[case.f0], f]), mesh=mesh).z_feed
         b = acc.band_2to1(f, acc.swr(z[1:], 50.0))
-        edge = max(abs(b[0] - b_mod[0]), abs(b[1] - b_mod[1])) / (b[1] - b[0])
+        edge = acc.edge_error(b, b_mod)
         out[name] = dict(z=[z[0].real, z[0].imag], swr=float(acc.swr(z[:1], 50.0)[0]), band=b, edge_error=edge)
     return out
 

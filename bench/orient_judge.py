@@ -83,25 +83,11 @@ def edges(cal, rows):
     (lower and upper edge offsets in NEC's widths), None where that function leaves it out."""
     out = {}
     for r in rows:
-        c, p = r["case"], np.asarray(r["points"])
-        ant, f0 = ns.case_from_dict(c).antenna(), c["f0"]
-        try:
-            L = with_cal(cal, jpole.resonant_radiator_length, f0, ant)
-            S, T = with_cal(cal, jpole.solve_match, f0, 50.0, ant, L)
-        except ValueError:
+        bands = with_cal(cal, ff.emulated_bands, r)
+        if bands is None or bands[0] is None:
             out[r["seed"]] = None
             continue
-        z = p[:, 4] + 1j * p[:, 5]
-        x = p[:5, 3] / f0 - 1
-        pr, pi = np.polyfit(x, z[:5].real, 4), np.polyfit(x, z[:5].imag, 4)
-        xf = np.linspace(x[0], x[-1], 801)
-        zm = with_cal(cal, jpole.feed_impedance, f0 * (1 + xf), ant, L, S, T)
-        zn = np.polyval(pr, xf) + 1j * np.polyval(pi, xf) + zm \
-            - with_cal(cal, jpole.feed_impedance, f0 * (1 + xf), ant, p[2, 0], p[2, 1], p[2, 2])
-        bn, bm = acc.band_2to1(xf, acc.swr(zn, 50.0)), acc.band_2to1(xf, acc.swr(zm, 50.0))
-        if bn is None or bm is None or min(bn[0], bm[0]) <= xf[0] + 1e-12 or max(bn[1], bm[1]) >= xf[-1] - 1e-12:
-            out[r["seed"]] = None
-            continue
+        bn, bm, _ = bands
         w = bn[1] - bn[0]
         out[r["seed"]] = ((bm[0] - bn[0]) / w, (bm[1] - bn[1]) / w)
     return out

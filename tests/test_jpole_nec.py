@@ -113,6 +113,12 @@ def band_2to1(f, s):
     return float(f_lo), float(f_hi)
 
 
+def edge_error(nec, model):
+    """The larger distance of the model's 2:1 edges from NEC's, in NEC's 2:1 widths (the acceptance's
+    edge figure; assert_bands_agree holds each edge to 0.1)."""
+    return max(abs(nec[0] - model[0]), abs(nec[1] - model[1])) / (nec[1] - nec[0])
+
+
 def overlap(a, b):
     if a is None or b is None:
         return 0.0

@@ -38,7 +38,7 @@ sys.path.insert(0, str(Path(__file__).parent))
 import necref  # noqa: E402
 import test_jpole_nec as acc  # noqa: E402
 
-from buildsheet.physics import jpole, radiation  # noqa: E402
+from buildsheet.physics import jpole, pattern, radiation  # noqa: E402
 
 AWG = necref.awg_diameter
 _BY_NAME = {c.name: c for c in acc.CASES}
@@ -73,9 +73,8 @@ def compare(case) -> dict:
     if 0 < i < len(nec.theta_deg) - 1:
         # the grid's maximum refined by a parabola through its neighbours in theta, as the model's
         # own (pattern.maximum): on a flat-topped lobe the grid alone is off by up to half a step
-        a, b, c = g[i - 1, j], g[i, j], g[i + 1, j]
-        if a - 2 * b + c < 0:
-            theta += 0.5 * (a - c) / (a - 2 * b + c) * float(nec.theta_deg[i + 1] - nec.theta_deg[i])
+        step = float(nec.theta_deg[i + 1] - nec.theta_deg[i])
+        theta += pattern._parabola_peak(g[i - 1, j], g[i, j], g[i + 1, j]) * step
     return dict(model_gain=model.max_gain_dbi, model_takeoff=model.takeoff_deg,
                 nec_gain=float(g[i, j]), nec_takeoff=90.0 - theta,
                 efficiency=eff)
