@@ -16,6 +16,9 @@ the model's global constants (buildsheet.physics.jpole.CAL). Prints figures; not
                                                  acceptance on N unseen random designs (seeds START..),
                                                  or brought inside the model's envelope
   python3 bench/nec_study.py report OUT.json     the acceptance figures of a stored run
+  python3 bench/nec_study.py reference-check ACCEPT.json...
+                                                 buildsheet.solver.REFERENCE_CHECK from stored
+                                                 acceptance runs at jpole.CAL (the sheet's figures)
   python3 bench/nec_study.py refine OUT.json N ACCEPT.json...
                                                  the N worst 2:1 edges of stored acceptance runs again,
                                                  NEC-2 on the mesh of record and on a finer one: how
@@ -618,6 +621,65 @@ def report(rows):
 MATCH_BINS = (1.0, 1.05, 1.10, 1.15, 1.20, 1.30, np.inf)
 
 
+def _up(x: float, step: float) -> float:
+    """x rounded up to a multiple of step (a figure quoted as 'at most' stays true when rounded)."""
+    return float(np.ceil(x / step - 1e-9) * step)
+
+
+def made_at_cal(cal: dict | None) -> bool:
+    """Whether a run's recorded constants are jpole.CAL's: every field equal, and any field CAL does
+    not have at 0, its neutral value (the c5 test run was made in a tree with candidate terms that
+    were not adopted, bench/data/cal-candidates/README.md, c6)."""
+    if cal is None:
+        return False
+    now = asdict(jpole.CAL)
+    return all(cal.get(k) == v for k, v in now.items()) and all(v == 0 for k, v in cal.items() if k not in now)
+
+
+def reference_stats(paths) -> dict:
+    """{kind: figures} of buildsheet.solver.REFERENCE_CHECK from stored acceptance runs (`accept ...
+    envelope`), which must have been made at jpole.CAL: the designs NEC-2 ran, grouped by
+    solver.reference_kind; NEC-2's SWR at f0 for the model's cut (90th percentile, the sample at or
+    above which 9 in 10 lie, and the largest; rounded up to 0.01) and the 2:1 edge error in NEC-2's widths (the same, rounded up to 0.01); a design
+    without a 2:1 band in NEC-2 or in the model counts as an edge error of 1 (missed by a whole
+    band). Also per kind: seeds, and the designs within 10 % (the acceptance's figure)."""
+    from buildsheet.solver import reference_kind
+    groups = {}
+    for path in paths:
+        data = json.loads(_read(path))
+        if not made_at_cal(data["meta"].get("cal")):
+            raise SystemExit(f"{path}: made at other constants than jpole.CAL")
+        if not data["meta"].get("envelope"):
+            raise SystemExit(f"{path}: not drawn inside the envelope")
+        for r in data["rows"]:
+            if "swr" not in r:
+                continue
+            c = r["case"]
+            kind = reference_kind(c["orientation"], float(np.degrees(c["slope"])), c["f0"])
+            edge = 1.0 if r["edge_error"] is None else min(r["edge_error"], 1.0)
+            groups.setdefault(kind, []).append((r["swr"], edge))
+    out = {}
+    for kind, pairs in sorted(groups.items()):
+        s, e = np.array(pairs).T
+        out[kind] = dict(designs=len(s), swr_q90=_up(np.quantile(s, 0.9, method="higher"), 0.01), swr_max=_up(s.max(), 0.01),
+                         edge_q90=_up(np.quantile(e, 0.9, method="higher"), 0.01), edge_max=_up(e.max(), 0.01),
+                         within_10=int(np.sum(e <= 0.1)))
+    return out
+
+
+def reference_check(paths):
+    """Print REFERENCE_CHECK's figures (reference_stats) and the acceptance's count per kind, then
+    the rows of buildsheet/solver.py's REFERENCE_CHECK as they are written there."""
+    stats = reference_stats(paths)
+    for kind, v in stats.items():
+        print(f"{kind:18s} {v['designs']:3d} designs: SWR 90 % {v['swr_q90']:.2f}, max {v['swr_max']:.2f}; "
+              f"2:1 edges 90 % {v['edge_q90']:.2f}, max {v['edge_max']:.2f} of NEC-2's width; "
+              f"within 10 %: {v['within_10']}")
+    for kind, v in stats.items():
+        print(f"    ({kind!r}, ({v['designs']}, {v['swr_q90']:.2f}, {v['swr_max']:.2f}, {v['edge_q90']:.2f}, "
+              f"{v['edge_max']:.2f})),".replace("'", '"'))
+
+
 def edges_by_match(rows):
     """The 2:1 edge error against NEC-2's SWR at f0 for the model's cut, in groups of that SWR: the
     edges follow the match (when NEC-2's resistance at f0 is not 50 ohm, the frequency where it is
@@ -736,6 +798,8 @@ if __name__ == "__main__":
         accept(sys.argv[2], int(sys.argv[3]), int(sys.argv[4]), "envelope" in sys.argv[5:])
     elif cmd == "report":
         report(load_rows(sys.argv[2]))
+    elif cmd == "reference-check":
+        reference_check(sys.argv[2:])
     elif cmd == "refine":
         refine(sys.argv[2], int(sys.argv[3]), sys.argv[4:])
     elif cmd == "heldout":
