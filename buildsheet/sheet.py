@@ -294,6 +294,11 @@ def _span(hz: float) -> str:
     return _nb(f"{hz / 1e3:.0f} kHz" if hz < 1e6 else f"{hz / 1e6:.2f} MHz")
 
 
+def _offset(hz: float) -> str:
+    """How far a band edge may lie off: _span, with a decimal below 10 kHz (a 160 m band's edges)."""
+    return _nb(f"{hz / 1e3:.1f} kHz") if hz < 10e3 else _span(hz)
+
+
 def _step(hz: float) -> str:
     """A round frequency error from the 1-2-5 series: "100 kHz", "5 MHz"."""
     return _nb(f"{hz / 1e3:g} kHz" if hz < 1e6 else f"{hz / 1e6:g} MHz")
@@ -657,6 +662,23 @@ class _Context:
         return (f"{item.note}, and {units.article(margin)} {margin} tuning margin: the first cut starts "
                 "long (see the tuning procedure)")
 
+    def reference_fact(self) -> tuple:
+        """How the model's first cut did in NEC-2 on unseen designs of this kind (solver.ReferenceCheck),
+        the edges scaled to this design's predicted 2:1 width: the sheet's SWR and band are the
+        model's, matched at the design frequency by construction; this is what the first reading may
+        show instead. Empty where the figures do not apply (solver.reference_check)."""
+        r = self.s.reference
+        if r is None:
+            return ()
+        text = (f"NEC-2, run on the first cuts of {r.designs} unseen {r.label}, read SWR {r.swr_q90:.2f}:1 "
+                f"or lower at the design frequency on 9 in 10 (at most {r.swr_max:.2f}:1) where the model "
+                f"predicts {_swr(self.s.feed_swr)}:1")
+        if self.s.band_swr2_hz is not None:
+            low, high = self.s.band_swr2_hz
+            text += (f"; their 2:1 edges lay within {_offset(r.edge_q90 * (high - low))} of the model's on 9 "
+                     f"in 10 (at most {_offset(r.edge_max * (high - low))}, scaled to this band's width)")
+        return (("checked in NEC-2", _e(text + ". The tuning procedure takes up the difference.")),)
+
     # -- 6. predicted performance ------------------------------------------------------------
     def performance(self) -> tuple:
         d, s = self.d, self.s
@@ -671,6 +693,7 @@ class _Context:
                            "the choke's turns included)")),
                 ("2:1 band", _e(_band(s.band_swr2_hz))),
                 ("1.5:1 band", _e(_band(s.band_swr15_hz))),
+                *self.reference_fact(),
                 ("coax loss", _e(f"{s.coax_loss_db:.2f} dB; {_watts(s.power_at_tap_w)} PEP "
                                  f"of {self.pep} reaches the tap")),
             )),
