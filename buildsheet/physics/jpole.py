@@ -924,7 +924,7 @@ def solve_match(f0: float, z_feed: float, ant: Antenna, radiator_length: float,
     S, T = (float(v) for v in x)
     # a stub of 0.5-1.6 quarter waves: a search that ends beyond has left the J-pole's working
     # region (next the three-quarter-wave resonance). 1.6, not 1.5: stacked 15 m and 12 m
-    # horizontals match at 1.50-1.52 (bench/stack_study.py, seeds 5004 and 5021), and NEC-2 reads
+    # horizontals match at 1.50 and 1.55 (bench/stack_study.py, seeds 5004 and 5021), and NEC-2 reads
     # SWR 1.19 and 1.07 at f0 for those cuts (bench/data/stack-heldout-c5b.json.gz)
     if np.max(np.abs(resid(x, full=True))) > 1e-6 or not 0 < T < S or not 0.5 * s0 < S < 1.6 * s0:
         raise ModelError(f"no stub/tap match for {z_feed} ohm at {f0:.6g} Hz "
