@@ -670,13 +670,17 @@ class _Context:
         r = self.s.reference
         if r is None:
             return ()
-        text = (f"NEC-2, run on the first cuts of {r.designs} unseen {r.label}, read SWR {r.swr_q90:.2f}:1 "
+        text = (f"NEC-2, run on the first cuts of {r.designs} unseen bare-wire {r.label}, read SWR {r.swr_q90:.2f}:1 "
                 f"or lower at the design frequency on 9 in 10 (at most {r.swr_max:.2f}:1) where the model "
                 f"predicts {_swr(self.s.feed_swr)}:1")
         if self.s.band_swr2_hz is not None:
             low, high = self.s.band_swr2_hz
             text += (f"; their 2:1 edges lay within {_offset(r.edge_q90 * (high - low))} of the model's on 9 "
                      f"in 10 (at most {_offset(r.edge_max * (high - low))}, scaled to this band's width)")
+        fc = self.s.first_cut
+        if fc.stub_margin_m > 0 or fc.radiator_margin_m > 0:
+            text += (". The velocity factor of this design's insulated parts adds its own spread, for which "
+                     "the first cut starts long")
         return (("checked in NEC-2", _e(text + ". The tuning procedure takes up the difference.")),)
 
     # -- 6. predicted performance ------------------------------------------------------------

@@ -129,18 +129,27 @@ def test_the_line_on_the_sheet_in_json_and_in_the_summary(tmp_path, capsys):
     blocks = build_sheet(d, s, "2026-01-01").section("performance").blocks
     facts = dict(next(b for b in blocks if isinstance(b, Facts) and "2:1 band" in dict(b.rows)).rows)
     text = html.unescape(facts["checked in NEC-2"]).replace("\u00a0", " ")
-    assert f"first cuts of {r.designs} unseen horizontal J-poles" in text
+    assert f"first cuts of {r.designs} unseen bare-wire horizontal J-poles" in text
     assert f"SWR {r.swr_q90:.2f}:1 or lower" in text and f"at most {r.swr_max:.2f}:1" in text
     assert f"where the model predicts {s.feed_swr:.2f}:1" in text
     assert f"within {r.edge_q90 * (high - low) / 1e3:.0f} kHz" in text
     assert f"at most {r.edge_max * (high - low) / 1e3:.0f} kHz" in text
+    assert "adds its own spread" not in text     # bare wire on an air-spaced line: no margin
+    # window line: the sources' spread of its velocity factor makes the first cut long (solver.FirstCut)
+    from buildsheet import load_design
+    oak = load_design(str(ROOT / "designs" / "oak-yard-20m.yaml"))
+    oak_s = solve(oak)
+    assert oak_s.first_cut.stub_margin_m > 0
+    oak_blocks = build_sheet(oak, oak_s, "2026-01-01").section("performance").blocks
+    oak_facts = dict(next(b for b in oak_blocks if isinstance(b, Facts) and "2:1 band" in dict(b.rows)).rows)
+    assert "adds its own spread, for which the first cut starts long" in html.unescape(oak_facts["checked in NEC-2"])
     path = tmp_path / "d.yaml"
     path.write_text(BASE.format(f="14.175 MHz", wire="14 AWG", spacing="25 mm", conductor="14 AWG",
                                 orientation="horizontal", height="12 m", slope="", extra=""))
     assert main(["solve", str(path), "--json"]) == 0
     assert json.loads(capsys.readouterr().out)["reference_check"] == r.to_dict()
     assert main(["solve", str(path)]) == 0
-    assert f"checked in NEC-2 on {r.designs} unseen horizontal J-poles" in capsys.readouterr().out
+    assert f"checked in NEC-2 on {r.designs} unseen bare-wire horizontal J-poles" in capsys.readouterr().out
 
 
 def test_readme_table_is_the_solvers():
