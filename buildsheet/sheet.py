@@ -670,9 +670,9 @@ class _Context:
         r = self.s.reference
         if r is None:
             return ()
-        text = (f"NEC-2, run on the first cuts of {r.designs} unseen bare-wire {r.label}, read SWR {r.swr_q90:.2f}:1 "
-                f"or lower at the design frequency on 9 in 10 (at most {r.swr_max:.2f}:1) where the model "
-                f"predicts {_swr(self.s.feed_swr)}:1")
+        text = (f"NEC-2, run at the model's dimensions for {r.designs} unseen bare-wire {r.label}, read "
+                f"SWR {r.swr_q90:.2f}:1 or lower at the design frequency on 9 in 10 (at most {r.swr_max:.2f}:1) "
+                f"where the model predicts {_swr(self.s.feed_swr)}:1")
         if self.s.band_swr2_hz is not None:
             low, high = self.s.band_swr2_hz
             text += (f"; their 2:1 edges lay within {_offset(r.edge_q90 * (high - low))} of the model's on 9 "

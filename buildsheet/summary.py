@@ -101,9 +101,9 @@ def summary_text(design: Design, s: Solution) -> str:
     add(f"  SWR below 1.5:1 {_band(s.band_swr15_hz)}")
     r = s.reference
     if r is not None:
-        add(f"  checked in NEC-2 on {r.designs} unseen bare-wire {r.label}: first cut SWR {r.swr_q90:.2f} or lower "
-            f"on 9 in 10 (at most {r.swr_max:.2f}), 2:1 edges within {r.edge_q90 * 100:.0f} % of the "
-            f"band's width on 9 in 10 (at most {r.edge_max * 100:.0f} %)")
+        add(f"  checked in NEC-2 on {r.designs} unseen bare-wire {r.label}: SWR {r.swr_q90:.2f} or lower at "
+            f"the model's dimensions on 9 in 10 (at most {r.swr_max:.2f}), 2:1 edges within "
+            f"{r.edge_q90 * 100:.0f} % of the band's width on 9 in 10 (at most {r.edge_max * 100:.0f} %)")
     add(f"  coax loss {s.coax_loss_db:.2f} dB; {units.format_power(s.power_at_tap_w)} PEP reaches the tap")
     add(f"  open end of the stub: {units.format_voltage(s.voltage_open_end_v_rms)} rms, "
         f"{units.format_voltage(s.voltage_open_end_v_peak)} peak; far end of the radiator: "

@@ -129,7 +129,7 @@ def test_the_line_on_the_sheet_in_json_and_in_the_summary(tmp_path, capsys):
     blocks = build_sheet(d, s, "2026-01-01").section("performance").blocks
     facts = dict(next(b for b in blocks if isinstance(b, Facts) and "2:1 band" in dict(b.rows)).rows)
     text = html.unescape(facts["checked in NEC-2"]).replace("\u00a0", " ")
-    assert f"first cuts of {r.designs} unseen bare-wire horizontal J-poles" in text
+    assert f"model's dimensions for {r.designs} unseen bare-wire horizontal J-poles" in text
     assert f"SWR {r.swr_q90:.2f}:1 or lower" in text and f"at most {r.swr_max:.2f}:1" in text
     assert f"where the model predicts {s.feed_swr:.2f}:1" in text
     assert f"within {r.edge_q90 * (high - low) / 1e3:.0f} kHz" in text
