@@ -106,7 +106,8 @@ TWIN_LEAD_NEC_DIP = 0.005
 #: `nec_study.py reference-check` prints these figures, tests/test_reference_check.py recomputes
 #: them from the stored runs). The sheet quotes its kind's beside the predicted 2:1 band: the model
 #: is matched at the design frequency by construction, so these say what the builder's first
-#: reading may show instead. Six slopers of 50-55 deg that NEC-2 could not run are not counted.
+#: reading may show instead. Six slopers of 50-55 deg that NEC-2 could not run are not counted
+#: (they lie outside the envelope now: ENVELOPE_CROWDED_*).
 #: Slopers are split at 45 deg: on seeds 14000-14239, where the constants were chosen, five of the
 #: seven designs whose edges missed by over 10 % of NEC-2's width were slopers steeper than that.
 REFERENCE_STEEP_SLOPE_DEG = 45.0
