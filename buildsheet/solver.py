@@ -946,8 +946,8 @@ def envelope_warnings(design: Design) -> tuple[str, ...]:
         out.append(f"the radiator is {fraction:.2f} × the stub's spacing thick and leaves the stub's top at "
                    f"{90 - slope:.0f}° to it (a slope of {slope:.0f}°): NEC-2 could not run a junction this "
                    f"crowded (over {ENVELOPE_CROWDED_SLOPE_DEG:.0f}° with a radiator over "
-                   f"{ENVELOPE_CROWDED_RADIATOR_FRACTION:.2f} × the spacing) on any of the six unseen "
-                   "designs it was given, so the model is not proven here; expect more tuning, or use a "
+                   f"{ENVELOPE_CROWDED_RADIATOR_FRACTION:.2f} × the spacing) on any of the six such designs "
+                   "in the project's checks, so the model is not proven here; expect more tuning, or use a "
                    "thinner radiator, a wider line or a gentler slope")
     return tuple(out)
 
