@@ -367,10 +367,10 @@ def inside_envelope(row) -> bool:
     lam = necref.C0 / c["f0"]
     steep = (np.degrees(c["slope"]) > ENVELOPE_STEEP_SLOPE_DEG + 1e-9
              and c["spacing"] > ENVELOPE_STEEP_SPACING_WAVELENGTHS * lam)
-    steep = steep or (np.degrees(c["slope"]) > ENVELOPE_CROWDED_SLOPE_DEG + 1e-9
-                      and c["wire_d"] > ENVELOPE_CROWDED_RADIATOR_FRACTION * c["spacing"])
+    crowded = (np.degrees(c["slope"]) > ENVELOPE_CROWDED_SLOPE_DEG + 1e-9
+               and c["wire_d"] > ENVELOPE_CROWDED_RADIATOR_FRACTION * c["spacing"])
     return (c["spacing"] <= ENVELOPE_SPACING_WAVELENGTHS * lam * (1 + 1e-9)
-            and np.degrees(c["slope"]) <= ENVELOPE_SLOPE_DEG + 1e-9 and not steep)
+            and np.degrees(c["slope"]) <= ENVELOPE_SLOPE_DEG + 1e-9 and not steep and not crowded)
 
 
 def fit(paths, envelope=False):
@@ -462,7 +462,7 @@ def at_match_error(cal, r):
 from buildsheet.solver import (ENVELOPE_CROWDED_RADIATOR_FRACTION, ENVELOPE_CROWDED_SLOPE_DEG,  # noqa: E402
                                ENVELOPE_EDGE_SPACING_WAVELENGTHS, ENVELOPE_SLOPE_DEG,
                                ENVELOPE_SPACING_WAVELENGTHS, ENVELOPE_STEEP_SLOPE_DEG,
-                               ENVELOPE_STEEP_SPACING_WAVELENGTHS)
+                               ENVELOPE_STEEP_SPACING_WAVELENGTHS, reference_kind)
 
 
 def envelope_case(seed: int, attempt: int = 0) -> acc.Case:
@@ -645,10 +645,10 @@ def reference_stats(paths) -> dict:
     """{kind: figures} of buildsheet.solver.REFERENCE_CHECK from stored acceptance runs (`accept ...
     envelope`), which must have been made at jpole.CAL: the designs NEC-2 ran, grouped by
     solver.reference_kind; NEC-2's SWR at f0 for the model's cut (90th percentile, the sample at or
-    above which 9 in 10 lie, and the largest; rounded up to 0.01) and the 2:1 edge error in NEC-2's widths (the same, rounded up to 0.01); a design
-    without a 2:1 band in NEC-2 or in the model counts as an edge error of 1 (missed by a whole
-    band). Also per kind: seeds, and the designs within 10 % (the acceptance's figure)."""
-    from buildsheet.solver import reference_kind
+    above which 9 in 10 lie, and the largest) and the 2:1 edge error in NEC-2's widths (the same),
+    each rounded up to 0.01; a design without a 2:1 band in NEC-2 or in the model counts as an edge
+    error of 1 (missed by a whole band). Also per kind: the designs within 10 % (the acceptance's
+    figure)."""
     groups = {}
     for path in paths:
         data = json.loads(_read(path))

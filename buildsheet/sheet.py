@@ -678,7 +678,7 @@ class _Context:
             text += (f"; their 2:1 edges lay within {_offset(r.edge_q90 * (high - low))} of the model's on 9 "
                      f"in 10 (at most {_offset(r.edge_max * (high - low))}, scaled to this band's width)")
         fc = self.s.first_cut
-        if fc.stub_margin_m > 0 or fc.radiator_margin_m > 0:
+        if self.shown(fc.stub_margin_m) or self.shown(fc.radiator_margin_m):
             text += (". The velocity factor of this design's insulated parts adds its own spread, for which "
                      "the first cut starts long")
         return (("checked in NEC-2", _e(text + ". The tuning procedure takes up the difference.")),)

@@ -166,18 +166,16 @@ def reference_kind(orientation: str, slope_deg: float, frequency_hz: float) -> s
 def reference_check(design: Design, warnings: tuple) -> ReferenceCheck | None:
     """The NEC-2 figures of the design's kind (REFERENCE_CHECK), or None where they do not apply,
     outside the designs the runs draw (nec_study.random_case and accepted_case): a design with a
-    model-limit warning (the warning carries its own figures); a stub spaced wider than
-    lambda/50 or closer than NEC_SPACING_RATIO diameters, or a radiator thicker than a third of the
-    spacing (pipe and rod J-poles the FDTD reference proves, as the tower-70cm demo); a stacked or
-    twin-lead build (their own references: README, "Where the model is proven"); or one whose
-    model was calibrated to the builder's sweep (`fit --write`: the fit's residual is the figure then)."""
-    s = design.stub
+    model-limit warning (the warning carries its own figures; every stub under NEC_SPACING_RATIO
+    diameters and every radiator over a third of the spacing has one); a stub spaced wider than
+    lambda/50 that carries no warning (a rod of its own tube, proven by the FDTD reference, as the
+    tower-70cm demo); a stacked or twin-lead build (their own references: README, "Where the model
+    is proven"); or one whose model was calibrated to the builder's sweep (`fit --write`: the fit's
+    residual is the figure then)."""
     if (warnings or design.stack is not None or design.construction == "twin-lead"
             or not design.calibration.is_empty
-            # (1e-6: a design file's decimals on a design drawn at a limit)
-            or s.spacing_m > ENVELOPE_EDGE_SPACING_WAVELENGTHS * design.wavelength_m * (1 + 1e-6)
-            or s.spacing_m < NEC_SPACING_RATIO * s.conductor_diameter_m * (1 - 1e-6)
-            or design.radiator.diameter_m > s.spacing_m / 3 * (1 + 1e-6)):
+            # (1e-6: a design file's decimals on a design drawn at the limit)
+            or design.stub.spacing_m > ENVELOPE_EDGE_SPACING_WAVELENGTHS * design.wavelength_m * (1 + 1e-6)):
         return None
     kind = reference_kind(design.site.orientation, math.degrees(design.site.slope_rad), design.frequency_hz)
     return REFERENCE_CHECK.get(kind)

@@ -19,14 +19,18 @@ frequency: {f}
 radiator: {{wire: {wire}}}
 stub: {{line: {{spacing: {spacing}, conductor: {conductor}, dielectric: air}}}}
 site: {{orientation: {orientation}, height: {height}{slope}}}
-"""
+{extra}"""
 
 
-def design(f="14.175 MHz", wire="14 AWG", spacing="25 mm", conductor="14 AWG", orientation="horizontal",
-           height="12 m", slope=None):
-    return design_from_text(BASE.format(f=f, wire=wire, spacing=spacing, conductor=conductor,
-                                        orientation=orientation, height=height,
-                                        slope=f", slope: {slope}" if slope else ""))
+def design_text(f="14.175 MHz", wire="14 AWG", spacing="25 mm", conductor="14 AWG", orientation="horizontal",
+                height="12 m", slope=None, extra=""):
+    """A design file (also tests/test_reference_check.py's): extra, further top-level lines."""
+    return BASE.format(f=f, wire=wire, spacing=spacing, conductor=conductor, orientation=orientation,
+                       height=height, slope=f", slope: {slope}" if slope else "", extra=extra)
+
+
+def design(**kwargs):
+    return design_from_text(design_text(**kwargs))
 
 
 def test_inside_the_envelope_no_warning():
@@ -115,8 +119,8 @@ def test_steep_wide_sloper_is_named():
 
 def test_warnings_reach_json_summary_and_sheet(tmp_path, capsys):
     path = tmp_path / "wide.yaml"
-    path.write_text(BASE.format(f="146 MHz", wire="12 AWG", spacing="60 mm", conductor="12 AWG",
-                                orientation="vertical", height="3 m", slope=""))
+    path.write_text(design_text(f="146 MHz", wire="12 AWG", spacing="60 mm", conductor="12 AWG",
+                                orientation="vertical", height="3 m"))
     assert main(["solve", str(path), "--json"]) == 0
     data = json.loads(capsys.readouterr().out)
     assert len(data["warnings"]) == 1 and "1/40" in data["warnings"][0]

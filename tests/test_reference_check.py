@@ -6,7 +6,6 @@ the line appears only on designs like the ones those runs draw."""
 
 from __future__ import annotations
 
-import gzip
 import html
 import json
 import math
@@ -19,12 +18,14 @@ ROOT = Path(__file__).resolve().parent.parent
 sys.path.insert(0, str(ROOT / "bench"))
 
 ns = pytest.importorskip("nec_study")
+sys.path.insert(0, str(ROOT / "tests"))
 
 from buildsheet import solve, solver  # noqa: E402
 from buildsheet.blocks import Facts  # noqa: E402
 from buildsheet.cli import main  # noqa: E402
 from buildsheet.design import design_from_text  # noqa: E402
 from buildsheet.sheet import build_sheet  # noqa: E402
+from test_envelope import design, design_text  # noqa: E402  (the same design files)
 
 DATA = ROOT / "bench" / "data"
 RUNS = [str(DATA / name) for name in solver.REFERENCE_RUNS]
@@ -44,7 +45,7 @@ def test_figures_are_the_stored_nec_runs():
 
 def test_stored_runs_are_at_the_current_constants():
     for path in RUNS:
-        meta = json.loads(gzip.decompress(Path(path).read_bytes()))["meta"]
+        meta = json.loads(ns._read(path))["meta"]
         assert ns.made_at_cal(meta["cal"]) and meta["envelope"], path
 
 
@@ -73,22 +74,6 @@ def test_solve_gives_each_stored_design_its_kind(path):
         s = solve(design_from_text(ns.design_text(ns.case_from_dict(c))))
         kind = solver.reference_kind(c["orientation"], math.degrees(c["slope"]), c["f0"])
         assert s.warnings == () and s.reference is solver.REFERENCE_CHECK[kind], r["seed"]
-
-
-BASE = """buildsheet: 1
-name: reference
-frequency: {f}
-radiator: {{wire: {wire}}}
-stub: {{line: {{spacing: {spacing}, conductor: {conductor}, dielectric: air}}}}
-site: {{orientation: {orientation}, height: {height}{slope}}}
-{extra}"""
-
-
-def design(f="14.175 MHz", wire="14 AWG", spacing="25 mm", conductor="14 AWG", orientation="horizontal",
-           height="12 m", slope=None, extra=""):
-    return design_from_text(BASE.format(f=f, wire=wire, spacing=spacing, conductor=conductor,
-                                        orientation=orientation, height=height, extra=extra,
-                                        slope=f", slope: {slope}" if slope else ""))
 
 
 @pytest.mark.parametrize("kwargs, kind", [
@@ -144,8 +129,7 @@ def test_the_line_on_the_sheet_in_json_and_in_the_summary(tmp_path, capsys):
     oak_facts = dict(next(b for b in oak_blocks if isinstance(b, Facts) and "2:1 band" in dict(b.rows)).rows)
     assert "adds its own spread, for which the first cut starts long" in html.unescape(oak_facts["checked in NEC-2"])
     path = tmp_path / "d.yaml"
-    path.write_text(BASE.format(f="14.175 MHz", wire="14 AWG", spacing="25 mm", conductor="14 AWG",
-                                orientation="horizontal", height="12 m", slope="", extra=""))
+    path.write_text(design_text())
     assert main(["solve", str(path), "--json"]) == 0
     assert json.loads(capsys.readouterr().out)["reference_check"] == r.to_dict()
     assert main(["solve", str(path)]) == 0
